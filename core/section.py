@@ -1,0 +1,384 @@
+"""The container cross-section: a validated, immutable outline with parts.
+
+A :class:`Section` is the boundary of the cavity the liquid can occupy, as a
+closed polygon of ``[x, z]`` vertices in metres (x to the right, z up), one
+part name per edge, and the geometry kind:
+
+- ``"plane"``: a prismatic section ``width`` deep out of the drawing;
+- ``"axisymmetric"``: a half-section revolved about the vertical axis
+  ``x = 0``, so x is the radius.
+
+Edge *i* runs from vertex *i* to vertex *i + 1*; the last edge closes the
+outline. The file's vertex order and direction are kept (results are reported
+edge by edge in that order); the winding is only recorded, as
+:attr:`Section.orientation`, so that outward normals point from the liquid
+into the wall whichever way the outline was drawn.
+
+Everything here is validated on construction. A fault raises
+:class:`SectionError` whose message says what is wrong and where ("outline
+crosses itself between edges 2 and 5"); the error also carries the edge and
+vertex indices and a location, so a drawing view can mark the spot.
+"""
+
+from __future__ import annotations
+
+from dataclasses import dataclass, field
+from functools import cached_property
+
+import numpy as np
+
+__all__ = [
+    "AXIS",
+    "FLOOR",
+    "OPEN",
+    "RESERVED_PARTS",
+    "KINDS",
+    "Section",
+    "SectionError",
+    "EdgeGeometry",
+]
+
+OPEN = "open"
+"""Part name of an opening to the atmosphere; its lowest point is the spill level."""
+FLOOR = "floor"
+"""Part name of the part weighed on its own; its downward load is the floor force."""
+AXIS = "axis"
+"""Part name of an edge on the axis of an axisymmetric section; carries nothing."""
+RESERVED_PARTS = (OPEN, FLOOR, AXIS)
+KINDS = ("plane", "axisymmetric")
+
+_AXIS_TOL = 1e-12
+"""Relative tolerance [] (of the outline's size) for "lies on x = 0"."""
+
+
+class SectionError(ValueError):
+    """A section that cannot be built, with a message saying what and where.
+
+    Attributes
+    ----------
+    edges : tuple of int
+        Indices of the edges at fault (may be empty).
+    vertices : tuple of int
+        Indices of the vertices at fault (may be empty).
+    location : tuple of float or None
+        A point [m] near the fault, for marking it on a drawing.
+    """
+
+    def __init__(self, message, *, edges=(), vertices=(), location=None):
+        super().__init__(message)
+        self.edges = tuple(int(i) for i in edges)
+        self.vertices = tuple(int(i) for i in vertices)
+        self.location = None if location is None else (float(location[0]), float(location[1]))
+
+
+@dataclass(frozen=True)
+class EdgeGeometry:
+    """Level-independent per-edge arrays, computed once per section.
+
+    All arrays have one entry per edge, in file order. Lengths in [m].
+    ``x0, z0`` start vertex; ``dx, dz`` edge vector; ``length``; ``nx, nz``
+    unit outward normal (from the liquid into the wall); ``z_low`` height of
+    the lower end; ``inv_abs_dz`` 1/|dz| (a huge finite number on horizontal
+    edges, which makes their wetted fraction a clean 0 or 1); ``falls``
+    1.0 where the edge runs downward (its wetted part starts away from the
+    start vertex), else 0.0; ``part_index`` index into
+    :attr:`Section.part_names`.
+    """
+
+    x0: np.ndarray
+    z0: np.ndarray
+    dx: np.ndarray
+    dz: np.ndarray
+    length: np.ndarray
+    nx: np.ndarray
+    nz: np.ndarray
+    z_low: np.ndarray
+    inv_abs_dz: np.ndarray
+    falls: np.ndarray
+    part_index: np.ndarray
+    vertex_z: np.ndarray
+    """Vertex heights [m] with the first repeated at the end (N + 1 values)."""
+
+
+def _readonly(a):
+    a = np.array(a, dtype=np.float64, copy=True)
+    a.setflags(write=False)
+    return a
+
+
+@dataclass(frozen=True, eq=False)
+class Section:
+    """A validated container cross-section.
+
+    Build it with :meth:`Section.build`, which checks everything and raises
+    :class:`SectionError`; the constructor itself is for trusted values.
+
+    Parameters
+    ----------
+    outline : numpy.ndarray
+        (N, 2) vertices ``[x, z]`` [m], read-only, in the order given.
+    parts : tuple of str
+        One part name per edge; edge *i* runs from vertex *i* to *i + 1*.
+    kind : str
+        ``"plane"`` or ``"axisymmetric"``.
+    width : float
+        Out-of-plane depth of a plane section [m]; 1.0 gives results per
+        metre. Ignored (kept as 1.0) for axisymmetric sections.
+    name : str
+        Free text for titles.
+
+    Examples
+    --------
+    >>> s = Section.build([[0, 0], [2, 0], [2, 3], [0, 3]],
+    ...                   parts=["floor", "wall", "open", "wall"])
+    >>> s.area, s.spill_level, s.n_edges
+    (6.0, 3.0, 4)
+    """
+
+    outline: np.ndarray
+    parts: tuple
+    kind: str = "plane"
+    width: float = 1.0
+    name: str = ""
+    orientation: float = field(default=1.0)
+    """+1.0 if the outline runs counter-clockwise (x right, z up), else -1.0."""
+
+    # ------------------------------------------------------------------ build
+    @classmethod
+    def build(cls, outline, parts=None, kind="plane", width=1.0, name=""):
+        """Validate the inputs and return a :class:`Section`.
+
+        Parameters
+        ----------
+        outline : array_like
+            (N, 2) vertices ``[x, z]`` [m]; closed implicitly.
+        parts : sequence of str, optional
+            One name per edge; default all ``"wall"``.
+        kind : str
+            ``"plane"`` or ``"axisymmetric"``.
+        width : float
+            Out-of-plane depth [m] (plane only), > 0.
+        name : str
+            Free text.
+
+        Raises
+        ------
+        SectionError
+            With a one-line message naming the fault and where it is.
+        """
+        if kind not in KINDS:
+            raise SectionError(f"geometry kind must be 'plane' or 'axisymmetric', not {kind!r}")
+        try:
+            pts = np.array(outline, dtype=np.float64)
+        except (TypeError, ValueError):
+            raise SectionError("outline must be a list of [x, z] number pairs") from None
+        if pts.ndim != 2 or pts.shape[1] != 2:
+            raise SectionError("outline must be a list of [x, z] number pairs")
+        n = pts.shape[0]
+        bad = np.flatnonzero(~np.isfinite(pts).all(axis=1))
+        if bad.size:
+            i = int(bad[0])
+            raise SectionError(f"vertex {i} has a non-finite coordinate", vertices=(i,))
+        distinct = np.unique(pts, axis=0).shape[0] if n else 0
+        if distinct < 3:
+            raise SectionError(
+                f"outline has {distinct} distinct vertices, need at least 3")
+        if parts is None:
+            parts = ("wall",) * n
+        else:
+            if isinstance(parts, str) or not all(isinstance(p, str) for p in parts):
+                raise SectionError("parts must be a list of names, one per edge")
+            parts = tuple(parts)
+            if len(parts) != n:
+                raise SectionError(
+                    f"parts has {len(parts)} names but the outline has {n} edges")
+            for i, p in enumerate(parts):
+                if not p.strip():
+                    raise SectionError(f"edge {i} has an empty part name", edges=(i,))
+        if isinstance(width, bool) or not isinstance(width, (int, float, np.floating)):
+            raise SectionError("width must be a number")
+        width = float(width)
+        if kind == "axisymmetric":
+            width = 1.0
+        elif not (np.isfinite(width) and width > 0):
+            raise SectionError(f"width must be positive, not {width:g}")
+
+        nxt = np.roll(pts, -1, axis=0)
+        seg = nxt - pts
+        zero = np.flatnonzero((seg == 0).all(axis=1))
+        if zero.size:
+            i = int(zero[0])
+            j = (i + 1) % n
+            raise SectionError(
+                f"edge {i} has zero length (vertices {i} and {j} coincide)",
+                edges=(i,), vertices=(i, j), location=pts[i])
+        size = float(np.max(np.abs(pts))) or 1.0
+        if kind == "axisymmetric":
+            neg = np.flatnonzero(pts[:, 0] < 0)
+            if neg.size:
+                i = int(neg[0])
+                raise SectionError(
+                    f"vertex {i} has x = {pts[i, 0]:g} m < 0; an axisymmetric outline "
+                    "lies at x >= 0 (x is the radius)", vertices=(i,), location=pts[i])
+            for i, p in enumerate(parts):
+                if p == AXIS and (abs(pts[i, 0]) > _AXIS_TOL * size
+                                  or abs(nxt[i, 0]) > _AXIS_TOL * size):
+                    raise SectionError(
+                        f"edge {i} is marked 'axis' but does not lie on x = 0",
+                        edges=(i,), location=pts[i])
+        elif AXIS in parts:
+            i = parts.index(AXIS)
+            raise SectionError(
+                f"edge {i} is marked 'axis', which only an axisymmetric section has",
+                edges=(i,))
+
+        twice_area = float(np.dot(pts[:, 0], nxt[:, 1]) - np.dot(nxt[:, 0], pts[:, 1]))
+        _check_simple(pts, size)
+        if not twice_area > 0 and not twice_area < 0:
+            raise SectionError("outline encloses no area (its vertices lie on one line)")
+        return cls(outline=_readonly(pts), parts=parts, kind=kind, width=width,
+                   name=str(name), orientation=1.0 if twice_area > 0 else -1.0)
+
+    # ---------------------------------------------------------- equality
+    def __eq__(self, other):
+        if not isinstance(other, Section):
+            return NotImplemented
+        return (self.kind == other.kind and self.width == other.width
+                and self.name == other.name and self.parts == other.parts
+                and np.array_equal(self.outline, other.outline))
+
+    __hash__ = None
+
+    def replace(self, **changes):
+        """Return a validated copy with some fields changed (see :meth:`build`)."""
+        args = dict(outline=self.outline, parts=self.parts, kind=self.kind,
+                    width=self.width, name=self.name)
+        args.update(changes)
+        return Section.build(**args)
+
+    # ---------------------------------------------------------- properties
+    @property
+    def n_edges(self):
+        """Number of edges (= number of vertices)."""
+        return int(self.outline.shape[0])
+
+    @property
+    def is_axisymmetric(self):
+        return self.kind == "axisymmetric"
+
+    @cached_property
+    def part_names(self):
+        """Distinct part names, in order of first appearance (tuple of str)."""
+        return tuple(dict.fromkeys(self.parts))
+
+    @cached_property
+    def loaded_part_names(self):
+        """Part names that carry load: all but ``open`` and ``axis``."""
+        return tuple(p for p in self.part_names if p not in (OPEN, AXIS))
+
+    @cached_property
+    def z_min(self):
+        """Height of the lowest vertex [m]."""
+        return float(self.outline[:, 1].min())
+
+    @cached_property
+    def z_max(self):
+        """Height of the highest vertex [m]."""
+        return float(self.outline[:, 1].max())
+
+    @cached_property
+    def is_open(self):
+        """True if any edge is an ``open`` part (the section can spill)."""
+        return OPEN in self.parts
+
+    @cached_property
+    def spill_level(self):
+        """Lowest point of all ``open`` edges [m], or None for a closed section."""
+        if not self.is_open:
+            return None
+        idx = np.array([i for i, p in enumerate(self.parts) if p == OPEN])
+        z = self.outline[:, 1]
+        return float(min(z[idx].min(), z[(idx + 1) % self.n_edges].min()))
+
+    @cached_property
+    def top_level(self):
+        """The highest level the cavity can be filled to without spilling or
+        pressurising: the spill level if open, else the top of the outline [m]."""
+        return self.spill_level if self.is_open else self.z_max
+
+    @cached_property
+    def area(self):
+        """Enclosed area of the outline [m2], positive.
+
+        .. math:: A = \\tfrac12 \\left|\\sum_i (x_i z_{i+1} - x_{i+1} z_i)\\right|
+        """
+        x, z = self.outline[:, 0], self.outline[:, 1]
+        return 0.5 * abs(float(np.dot(x, np.roll(z, -1)) - np.dot(np.roll(x, -1), z)))
+
+    @cached_property
+    def volume_curve(self):
+        """Volumes at the distinct vertex heights (see :func:`core.fill.volume_curve`)."""
+        from .fill import volume_curve
+
+        return volume_curve(self)
+
+    @cached_property
+    def geometry(self):
+        """Level-independent per-edge arrays (:class:`EdgeGeometry`)."""
+        pts = self.outline
+        x0 = np.ascontiguousarray(pts[:, 0])
+        z0 = np.ascontiguousarray(pts[:, 1])
+        dx = np.roll(x0, -1) - x0
+        dz = np.roll(z0, -1) - z0
+        length = np.sqrt(dx * dx + dz * dz)
+        s = self.orientation
+        nx = s * dz / length
+        nz = -s * dx / length
+        z_low = np.minimum(z0, z0 + dz)
+        abs_dz = np.abs(dz)
+        inv_abs_dz = np.full_like(dz, 1e200)
+        np.divide(1.0, abs_dz, out=inv_abs_dz, where=abs_dz > 0)
+        falls = (dz < 0).astype(np.float64)
+        index = {p: k for k, p in enumerate(self.part_names)}
+        part_index = np.fromiter((index[p] for p in self.parts), dtype=np.intp,
+                                 count=len(self.parts))
+        vertex_z = np.append(z0, z0[0])
+        arrays = dict(x0=x0, z0=z0, dx=dx, dz=dz, length=length, nx=nx, nz=nz,
+                      z_low=z_low, inv_abs_dz=inv_abs_dz, falls=falls,
+                      part_index=part_index, vertex_z=vertex_z)
+        for a in arrays.values():
+            a.setflags(write=False)
+        return EdgeGeometry(**arrays)
+
+
+def _check_simple(pts, size):
+    """Raise SectionError unless the closed polygon ``pts`` is simple."""
+    import shapely
+
+    ring = shapely.LinearRing(pts)
+    if shapely.is_simple(ring):
+        return
+    n = pts.shape[0]
+    nxt = np.roll(pts, -1, axis=0)
+    segs = shapely.linestrings(np.stack([pts, nxt], axis=1))
+    tree = shapely.STRtree(segs)
+    left, right = tree.query(segs, predicate="intersects")
+    keep = left < right
+    left, right = left[keep], right[keep]
+    adjacent = (right - left == 1) | ((left == 0) & (right == n - 1))
+    meets = shapely.intersection(segs[left], segs[right])
+    # Neighbouring edges always share their common vertex; they are at fault
+    # only if they overlap along a stretch (the outline doubles back).
+    point_only = shapely.get_type_id(meets) == 0
+    bad = ~(adjacent & point_only)
+    if not bad.any():  # pragma: no cover - shapely said not simple
+        raise SectionError("outline crosses itself")
+    k = int(np.flatnonzero(bad)[0])
+    i, j = int(left[k]), int(right[k])
+    where = shapely.get_coordinates(meets[k])[0]
+    if adjacent[k]:
+        raise SectionError(
+            f"outline doubles back on itself along edges {i} and {j}",
+            edges=(i, j), location=where)
+    raise SectionError(f"outline crosses itself between edges {i} and {j}",
+                       edges=(i, j), location=where)
