@@ -1,0 +1,314 @@
+"""Read and write section files (``*.section.json``, format version 1).
+
+The format is specified in the project's shared spec (``section-format.md``).
+Reading is strict: an unknown key, a value of the wrong type or a newer
+version is refused with a message naming the key; nothing is guessed. Writing
+then reading gives the same case.
+
+Decisions where the spec is silent (also in DEVELOPERS.md):
+
+- ``geometry.width`` is refused on an axisymmetric section (it would be
+  silently meaningless there).
+- ``fill`` is required and holds exactly one of ``level`` and ``volume``.
+- ``fluid.preset`` without a ``temperature`` takes 20 C (fresh water) or
+  10 C and 35 g/kg (seawater).
+- Coordinates are written back in the file's length unit, rounded to 15
+  significant digits so that unit conversion noise does not creep in.
+"""
+
+from __future__ import annotations
+
+import json
+import math
+import os
+import tempfile
+from pathlib import Path
+
+import numpy as np
+
+from . import STANDARD_GRAVITY
+from .case import Case, CaseError
+from .fill import FillError
+from .liquids import LiquidError, liquid_from_spec, liquid_to_spec
+from .section import Section, SectionError
+from .units import UnitError, length_factor
+
+__all__ = [
+    "FORMAT",
+    "VERSION",
+    "SectionFileError",
+    "case_from_dict",
+    "case_to_dict",
+    "read_section_file",
+    "write_section_file",
+    "loads_case",
+    "dumps_case",
+]
+
+FORMAT = "wetline-section"
+VERSION = 1
+SUFFIX = ".section.json"
+
+_TOP_KEYS = {"format", "version", "name", "length_unit", "geometry", "outline",
+             "parts", "fluid", "gravity", "fill"}
+_GEOMETRY_KEYS = {"kind", "width"}
+_FILL_KEYS = {"level", "volume"}
+
+
+class SectionFileError(ValueError):
+    """A section file that cannot be read, with a one-line reason.
+
+    ``edges`` / ``vertices`` / ``location`` carry over from a
+    :class:`~core.section.SectionError`, when that is the cause.
+    """
+
+    def __init__(self, message, *, edges=(), vertices=(), location=None):
+        super().__init__(message)
+        self.edges = tuple(edges)
+        self.vertices = tuple(vertices)
+        self.location = location
+
+
+def _is_number(v):
+    return isinstance(v, (int, float)) and not isinstance(v, bool)
+
+
+def _number(obj, key, where):
+    v = obj[key]
+    if not _is_number(v):
+        raise SectionFileError(f"{where}{key} must be a number, not {json.dumps(v)}")
+    if not math.isfinite(v):
+        raise SectionFileError(f"{where}{key} must be a finite number")
+    return float(v)
+
+
+def _check_keys(obj, allowed, where):
+    if not isinstance(obj, dict):
+        label = where.rstrip(".") or "the file"
+        raise SectionFileError(f"{label} must be a JSON object")
+    for key in obj:
+        if key not in allowed:
+            inside = f" in {where.rstrip('.')}" if where else ""
+            raise SectionFileError(f"unknown key {key!r}{inside}")
+
+
+def case_from_dict(data):
+    """Build a :class:`~core.case.Case` from a parsed section file.
+
+    Raises
+    ------
+    SectionFileError
+        Naming the key or the geometric fault.
+    """
+    _check_keys(data, _TOP_KEYS, "")
+    if data.get("format") != FORMAT:
+        if "format" not in data:
+            raise SectionFileError(f"missing key 'format' (a section file says \"{FORMAT}\")")
+        raise SectionFileError(f"format must be \"{FORMAT}\", not {json.dumps(data['format'])}")
+    if "version" not in data:
+        raise SectionFileError("missing key 'version'")
+    version = data["version"]
+    if not isinstance(version, int) or isinstance(version, bool) or version < 1:
+        raise SectionFileError(f"version must be a whole number >= 1, not {json.dumps(version)}")
+    if version > VERSION:
+        raise SectionFileError(
+            f"section file version {version} is newer than this program reads "
+            f"(up to {VERSION}); use a newer Wetline")
+
+    name = data.get("name", "")
+    if not isinstance(name, str):
+        raise SectionFileError("name must be text")
+    unit = data.get("length_unit", "m")
+    if not isinstance(unit, str):
+        raise SectionFileError("length_unit must be text such as \"m\" or \"mm\"")
+    try:
+        scale = length_factor(unit)
+    except UnitError as exc:
+        raise SectionFileError(f"length_unit: {exc}") from None
+
+    if "geometry" not in data:
+        raise SectionFileError("missing key 'geometry'")
+    geometry = data["geometry"]
+    _check_keys(geometry, _GEOMETRY_KEYS, "geometry.")
+    if "kind" not in geometry:
+        raise SectionFileError("missing key 'kind' in geometry")
+    kind = geometry["kind"]
+    if kind not in ("plane", "axisymmetric"):
+        raise SectionFileError(
+            f"geometry.kind must be \"plane\" or \"axisymmetric\", not {json.dumps(kind)}")
+    width = 1.0
+    if "width" in geometry:
+        if kind == "axisymmetric":
+            raise SectionFileError("geometry.width applies to plane sections only")
+        width = _number(geometry, "width", "geometry.")
+        if width <= 0:
+            raise SectionFileError(f"geometry.width must be positive, not {width:g}")
+
+    if "outline" not in data:
+        raise SectionFileError("missing key 'outline'")
+    outline = data["outline"]
+    if not isinstance(outline, list):
+        raise SectionFileError("outline must be a list of [x, z] pairs")
+    for i, pt in enumerate(outline):
+        if (not isinstance(pt, list) or len(pt) != 2
+                or not all(_is_number(c) for c in pt)):
+            raise SectionFileError(f"outline vertex {i} must be an [x, z] pair of numbers, "
+                                   f"not {json.dumps(pt)}", vertices=(i,))
+    parts = data.get("parts")
+    if parts is not None:
+        if not isinstance(parts, list) or not all(isinstance(p, str) for p in parts):
+            raise SectionFileError("parts must be a list of names, one per edge")
+    try:
+        pts = np.array(outline, dtype=np.float64).reshape(-1, 2) * scale
+        section = Section.build(pts, parts=parts, kind=kind, width=width * scale,
+                                name=name)
+    except SectionError as exc:
+        raise SectionFileError(str(exc), edges=exc.edges, vertices=exc.vertices,
+                               location=exc.location) from None
+
+    if "fluid" not in data:
+        raise SectionFileError("missing key 'fluid'")
+    try:
+        liquid = liquid_from_spec(data["fluid"])
+    except LiquidError as exc:
+        raise SectionFileError(str(exc)) from None
+
+    gravity = STANDARD_GRAVITY
+    if "gravity" in data:
+        gravity = _number(data, "gravity", "")
+        if gravity <= 0:
+            raise SectionFileError(f"gravity must be positive, not {gravity:g}")
+
+    if "fill" not in data:
+        raise SectionFileError("missing key 'fill' (give \"level\" or \"volume\")")
+    fill = data["fill"]
+    _check_keys(fill, _FILL_KEYS, "fill.")
+    if len(fill) != 1:
+        raise SectionFileError("fill must give exactly one of \"level\" and \"volume\"")
+    level = volume = None
+    if "level" in fill:
+        level = _number(fill, "level", "fill.") * scale
+    else:
+        volume = _number(fill, "volume", "fill.")
+        if volume < 0:
+            raise SectionFileError(f"fill.volume must be >= 0, not {volume:g}")
+    try:
+        return Case(section=section, liquid=liquid, gravity=gravity, fill_level=level,
+                    fill_volume=volume, length_unit=unit)
+    except (CaseError, FillError) as exc:
+        raise SectionFileError(str(exc)) from None
+
+
+def _rounded(v):
+    """Shortest float that prints within 15 significant digits of ``v``."""
+    r = float(f"{v:.15g}")
+    return int(r) if r.is_integer() and abs(r) < 2 ** 53 else r
+
+
+def case_to_dict(case):
+    """The section-file object of ``case`` (version 1)."""
+    scale = length_factor(case.length_unit)
+    s = case.section
+    geometry = {"kind": s.kind}
+    if s.kind == "plane":
+        geometry["width"] = _rounded(s.width / scale)
+    data = {
+        "format": FORMAT,
+        "version": VERSION,
+        "name": s.name,
+        "length_unit": case.length_unit,
+        "geometry": geometry,
+        "outline": [[_rounded(x / scale), _rounded(z / scale)] for x, z in s.outline.tolist()],
+        "parts": list(s.parts),
+        "fluid": liquid_to_spec(case.liquid),
+        "gravity": case.gravity,
+    }
+    if case.fill_level is not None:
+        data["fill"] = {"level": _rounded(case.fill_level / scale)}
+    else:
+        data["fill"] = {"volume": case.fill_volume}
+    return data
+
+
+def dumps_case(case):
+    """The section file text of ``case``: JSON, one vertex per line."""
+    data = case_to_dict(case)
+    outline = data.pop("outline")
+    parts = data.pop("parts")
+    fill = data.pop("fill")
+    lines = ["{"]
+    body = [f"  {json.dumps(k)}: {json.dumps(v)}" for k, v in data.items()]
+    body.append('  "outline": [\n' + ",\n".join(f"    {json.dumps(p)}" for p in outline) + "\n  ]")
+    body.append(f'  "parts": {json.dumps(parts)}')
+    body.append(f'  "fill": {json.dumps(fill)}')
+    lines.append(",\n".join(body))
+    lines.append("}")
+    return "\n".join(lines) + "\n"
+
+
+def loads_case(text, source="section file"):
+    """Parse section file text into a :class:`~core.case.Case`."""
+    try:
+        data = json.loads(text)
+    except json.JSONDecodeError as exc:
+        raise SectionFileError(
+            f"{source} is not valid JSON (line {exc.lineno}, column {exc.colno}: {exc.msg})"
+        ) from None
+    return case_from_dict(data)
+
+
+def read_section_file(path):
+    """Read a section file.
+
+    Parameters
+    ----------
+    path : str or os.PathLike
+
+    Returns
+    -------
+    Case
+
+    Raises
+    ------
+    SectionFileError
+        With a message that starts with the file name and says what is wrong.
+    """
+    path = Path(path)
+    try:
+        raw = path.read_bytes()
+    except FileNotFoundError:
+        raise SectionFileError(f"{path}: no such file") from None
+    except IsADirectoryError:
+        raise SectionFileError(f"{path}: is a folder, not a section file") from None
+    except OSError as exc:
+        raise SectionFileError(f"{path}: cannot be read ({exc.strerror})") from None
+    try:
+        text = raw.decode("utf-8-sig")
+    except UnicodeDecodeError:
+        raise SectionFileError(f"{path}: is not a text (UTF-8) file") from None
+    try:
+        return loads_case(text, source="the file")
+    except SectionFileError as exc:
+        raise SectionFileError(f"{path.name}: {exc}", edges=exc.edges,
+                               vertices=exc.vertices, location=exc.location) from None
+
+
+def write_section_file(case, path):
+    """Write ``case`` to ``path`` atomically (a temporary file in the same
+    folder, then a rename), so a failed save never leaves a half file."""
+    path = Path(path)
+    text = dumps_case(case)
+    fd, tmp = tempfile.mkstemp(prefix=f".{path.name}.", suffix=".tmp",
+                               dir=str(path.parent or "."))
+    try:
+        with os.fdopen(fd, "w", encoding="utf-8", newline="\n") as fh:
+            fh.write(text)
+            fh.flush()
+            os.fsync(fh.fileno())
+        os.replace(tmp, path)
+    except BaseException:
+        try:
+            os.unlink(tmp)
+        except OSError:
+            pass
+        raise

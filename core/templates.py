@@ -1,0 +1,189 @@
+"""Parametric sections: the usual container shapes from a few dimensions.
+
+Each template is a :class:`Template` with named dimensions [m] and defaults;
+``template.build(**dims)`` returns a validated :class:`~core.section.Section`
+and ``template.default_level(section)`` a sensible first fill. The GUI lists
+:data:`TEMPLATES`; the bundled sample sections are made from them too.
+"""
+
+from __future__ import annotations
+
+from dataclasses import dataclass
+from typing import Callable
+
+from .section import Section, SectionError
+
+__all__ = ["Dimension", "Template", "TEMPLATES", "template"]
+
+
+@dataclass(frozen=True)
+class Dimension:
+    """One dimension of a template: key, label for people, default [m]."""
+
+    key: str
+    label: str
+    default: float
+
+
+@dataclass(frozen=True)
+class Template:
+    """A parametric section.
+
+    Attributes
+    ----------
+    key : str
+        Short identifier (``"open_tank"``).
+    title : str
+        Name shown to people.
+    description : str
+        One line on what it models.
+    kind : str
+        ``"plane"`` or ``"axisymmetric"``.
+    dimensions : tuple of Dimension
+    """
+
+    key: str
+    title: str
+    description: str
+    kind: str
+    dimensions: tuple
+    _outline: Callable
+    _level: Callable
+
+    def defaults(self):
+        """Default dimensions, ``{key: value [m]}``."""
+        return {d.key: d.default for d in self.dimensions}
+
+    def build(self, name=None, width=1.0, **dims):
+        """The section for the given dimensions [m] (defaults for any left out).
+
+        Raises
+        ------
+        SectionError
+            For a dimension that is not positive or shapes that do not fit
+            (an outlet wider than the top ...).
+        """
+        values = self.defaults()
+        for key, v in dims.items():
+            if key not in values:
+                raise SectionError(f"{self.title} has no dimension {key!r}")
+            values[key] = float(v)
+        labels = {d.key: d.label for d in self.dimensions}
+        for key, v in values.items():
+            if not v > 0:
+                raise SectionError(f"{labels[key]} must be positive, not {v:g}")
+        outline, parts = self._outline(**values)
+        return Section.build(outline, parts=parts, kind=self.kind,
+                             width=width if self.kind == "plane" else 1.0,
+                             name=self.title if name is None else name)
+
+    def default_level(self, section):
+        """A first fill level for a section built from this template [m]."""
+        return float(self._level(section))
+
+
+def _need(cond, message):
+    if not cond:
+        raise SectionError(message)
+
+
+def _open_tank(width, height):
+    return ([[0, 0], [width, 0], [width, height], [0, height]],
+            ["floor", "wall", "open", "wall"])
+
+
+def _flared_hopper(top_width, outlet_width, hopper_height, upright_height):
+    _need(outlet_width < top_width, "the outlet must be narrower than the top")
+    a = (top_width - outlet_width) / 2
+    top = hopper_height + upright_height
+    return ([[a, 0], [a + outlet_width, 0], [top_width, hopper_height], [top_width, top],
+             [0, top], [0, hopper_height]],
+            ["floor", "hopper", "wall", "open", "wall", "hopper"])
+
+
+def _chamber_under_riser(chamber_width, chamber_height, riser_width, riser_height):
+    _need(riser_width < chamber_width, "the riser must be narrower than the chamber")
+    a = (chamber_width - riser_width) / 2
+    b = a + riser_width
+    h, t = chamber_height, chamber_height + riser_height
+    return ([[0, 0], [chamber_width, 0], [chamber_width, h], [b, h], [b, t], [a, t],
+             [a, h], [0, h]],
+            ["floor", "wall", "roof", "riser", "open", "riser", "roof", "wall"])
+
+
+def _sump_with_lid(well_width, well_depth, shaft_width, shaft_height):
+    _need(shaft_width < well_width, "the access shaft must be narrower than the wet well")
+    d, t = well_depth, well_depth + shaft_height
+    return ([[0, 0], [well_width, 0], [well_width, d], [shaft_width, d], [shaft_width, t],
+             [0, t]],
+            ["floor", "wall", "lid", "wall", "open", "wall"])
+
+
+def _closed_tank(width, height):
+    return ([[0, 0], [width, 0], [width, height], [0, height]],
+            ["floor", "wall", "roof", "wall"])
+
+
+def _cone_hopper(radius, outlet_radius, cone_height, shell_height):
+    _need(outlet_radius < radius, "the outlet must be smaller than the shell")
+    t = cone_height + shell_height
+    return ([[0, 0], [outlet_radius, 0], [radius, cone_height], [radius, t], [0, t]],
+            ["floor", "cone", "shell", "open", "axis"])
+
+
+TEMPLATES = {
+    t.key: t for t in (
+        Template("open_tank", "Open rectangular tank",
+                 "A flat floor, two upright walls, open at the top.", "plane",
+                 (Dimension("width", "Inside width", 3.0),
+                  Dimension("height", "Wall height", 2.5)),
+                 _open_tank, lambda s: 0.8 * s.top_level),
+        Template("flared_hopper", "Flared hopper with outlet gate",
+                 "Sloping sides down to a small outlet gate, which is the floor.", "plane",
+                 (Dimension("top_width", "Top width", 4.0),
+                  Dimension("outlet_width", "Outlet gate width", 0.6),
+                  Dimension("hopper_height", "Sloping part height", 2.5),
+                  Dimension("upright_height", "Upright part height", 1.5)),
+                 _flared_hopper, lambda s: 0.9 * s.top_level),
+        Template("chamber_under_riser", "Chamber under a narrow riser",
+                 "A wide chamber whose roof is pushed up by the head in a narrow riser.",
+                 "plane",
+                 (Dimension("chamber_width", "Chamber width", 4.0),
+                  Dimension("chamber_height", "Chamber height", 2.0),
+                  Dimension("riser_width", "Riser width", 0.8),
+                  Dimension("riser_height", "Riser height", 3.0)),
+                 _chamber_under_riser, lambda s: s.top_level - 0.5),
+        Template("sump_with_lid", "Pump sump with overhanging lid",
+                 "A wet well whose lid overhangs the water, reached by a narrower shaft.",
+                 "plane",
+                 (Dimension("well_width", "Wet well width", 2.4),
+                  Dimension("well_depth", "Wet well depth", 1.6),
+                  Dimension("shaft_width", "Access shaft width", 1.9),
+                  Dimension("shaft_height", "Shaft height above the lid", 1.2)),
+                 _sump_with_lid, lambda s: s.top_level - 0.6),
+        Template("closed_tank", "Closed tank under a standpipe",
+                 "A sealed box; the level may stand above its roof (a standpipe head).",
+                 "plane",
+                 (Dimension("width", "Inside width", 3.0),
+                  Dimension("height", "Inside height", 2.0)),
+                 _closed_tank, lambda s: s.z_max + 1.5),
+        Template("cone_hopper", "Cone hopper with cylindrical shell",
+                 "A vertical silo-type vessel: cone down to an outlet gate, cylinder above.",
+                 "axisymmetric",
+                 (Dimension("radius", "Shell radius", 1.5),
+                  Dimension("outlet_radius", "Outlet gate radius", 0.2),
+                  Dimension("cone_height", "Cone height", 2.0),
+                  Dimension("shell_height", "Shell height", 2.5)),
+                 _cone_hopper, lambda s: 0.9 * s.top_level),
+    )
+}
+"""All templates by key, in the order a menu lists them."""
+
+
+def template(key):
+    """The template called ``key``; SectionError naming the known ones."""
+    try:
+        return TEMPLATES[key]
+    except KeyError:
+        raise SectionError(
+            f"no template {key!r}; known: {', '.join(TEMPLATES)}") from None
