@@ -8,9 +8,10 @@ plain floats, so the numerics never touch pint objects.
 
 Factors are rounded to 15 significant digits after pint computes them. pint
 chains definitions (foot = 12 inch = yard / 3 ...), which leaves the last
-binary digit off (0.30479999999999996 m for a foot); rounding to 15 digits
-restores the exact decimal definitions (0.3048 m, 0.0254 m) and moves any
-other factor by less than one part in 1e15.
+binary digits off (0.30479999999999996 m for a foot, 0.02831684659199999 m3
+for a cubic foot); rounding to 15 digits restores the exact decimal
+definitions (0.3048 m, 0.0254 m, 0.028316846592 m3, 4.4482216152605 N) and
+moves any other factor by less than 5e-15 of its value.
 
 References
 ----------
@@ -169,7 +170,7 @@ class DisplayUnits:
 
     Examples
     --------
-    >>> US.to_display(6894.757293168361, "pressure")
+    >>> US.to_display(0.3048, "length")
     1.0
     >>> SI.label("force_per_length")
     'kN/m'
