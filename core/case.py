@@ -15,8 +15,27 @@ from .fill import FillError, capacity, level_for_volume
 from .hydrostatics import solve
 from .liquids import Liquid, fresh_water
 from .section import Section
+from .uplift import DEFAULT_REQUIRED_FACTOR, PartResistance
 
-__all__ = ["Case", "CaseError"]
+__all__ = ["Case", "CaseError", "ReportInfo"]
+
+
+@dataclass(frozen=True)
+class ReportInfo:
+    """Fields of a calculation sheet's header, kept with the case."""
+
+    project: str = ""
+    job_reference: str = ""
+    prepared_by: str = ""
+
+    def __post_init__(self):
+        for name in ("project", "job_reference", "prepared_by"):
+            if not isinstance(getattr(self, name), str):
+                raise CaseError(f"report {name.replace('_', ' ')} must be text")
+
+    @property
+    def is_empty(self):
+        return not (self.project or self.job_reference or self.prepared_by)
 
 
 class CaseError(ValueError):
@@ -41,6 +60,13 @@ class Case:
     length_unit : str
         The unit the section file states its coordinates in (``"m"``,
         ``"mm"``, ``"ft"`` ...); kept for saving.
+    resistances : tuple of (str, PartResistance)
+        What holds each named part down, for the uplift check, sorted by
+        part name (see :mod:`core.uplift`).
+    required_uplift_factor : float
+        Required factor against uplift [].
+    report : ReportInfo
+        Calculation sheet header fields.
     """
 
     section: Section
@@ -49,8 +75,22 @@ class Case:
     fill_level: float | None = None
     fill_volume: float | None = None
     length_unit: str = "m"
+    resistances: tuple = ()
+    required_uplift_factor: float = DEFAULT_REQUIRED_FACTOR
+    report: ReportInfo = ReportInfo()
 
     def __post_init__(self):
+        res = self.resistances
+        if isinstance(res, dict):
+            res = tuple(res.items())
+        res = tuple(sorted((str(k), v) for k, v in res))
+        for k, v in res:
+            if not isinstance(v, PartResistance):
+                raise CaseError(f"resistance of part {k!r} must be a PartResistance")
+        object.__setattr__(self, "resistances", res)
+        f = self.required_uplift_factor
+        if isinstance(f, bool) or not isinstance(f, (int, float)) or not math.isfinite(f) or f <= 0:
+            raise CaseError(f"required uplift factor must be a positive number, not {f!r}")
         g = self.gravity
         if isinstance(g, bool) or not isinstance(g, (int, float)) or not math.isfinite(g) or g <= 0:
             raise CaseError(f"gravity must be a positive number, not {g!r}")
@@ -82,7 +122,10 @@ class Case:
         return (self.section == other.section and self.liquid == other.liquid
                 and self.gravity == other.gravity and self.fill_level == other.fill_level
                 and self.fill_volume == other.fill_volume
-                and self.length_unit == other.length_unit)
+                and self.length_unit == other.length_unit
+                and self.resistances == other.resistances
+                and self.required_uplift_factor == other.required_uplift_factor
+                and self.report == other.report)
 
     __hash__ = None
 
@@ -117,6 +160,39 @@ class Case:
             return replace(self, section=section, fill_volume=None,
                            fill_level=section.top_level)
         return replace(self, section=section)
+
+    @property
+    def resistance_map(self):
+        """``{part: PartResistance}`` for the uplift check."""
+        return dict(self.resistances)
+
+    @property
+    def uses_version_2(self):
+        """True if the case holds data that only format version 2 can store."""
+        return bool(self.resistances or not self.report.is_empty
+                    or self.required_uplift_factor != DEFAULT_REQUIRED_FACTOR)
+
+    def uplift(self, solution=None):
+        """The uplift check of every part with a resistance entered
+        (list of :class:`~core.uplift.UpliftResult`)."""
+        from .uplift import uplift_check
+
+        return uplift_check(self, self.resistance_map, self.required_uplift_factor, solution)
+
+    def with_resistance(self, part, resistance):
+        """Copy with ``part`` held down by ``resistance`` (None removes it)."""
+        res = self.resistance_map
+        if resistance is None:
+            res.pop(part, None)
+        else:
+            res[part] = resistance
+        return replace(self, resistances=tuple(res.items()))
+
+    def with_required_uplift_factor(self, factor):
+        return replace(self, required_uplift_factor=float(factor))
+
+    def with_report(self, report):
+        return replace(self, report=report)
 
     def with_liquid(self, liquid):
         return replace(self, liquid=liquid)

@@ -16,7 +16,7 @@ from . import STANDARD_GRAVITY
 from .fill import _clipped, _green_sum
 from .section import FLOOR
 
-__all__ = ["LevelTable", "level_table", "DEFAULT_STEPS"]
+__all__ = ["LevelTable", "level_table", "part_down_at", "DEFAULT_STEPS"]
 
 DEFAULT_STEPS = 51
 """Default number of levels in a table (50 equal steps)."""
@@ -126,17 +126,7 @@ def level_table(section, density, gravity=STANDARD_GRAVITY, steps=DEFAULT_STEPS,
         h = levels[i:i + rows, None]
         f, ta = _clipped(geo, h)
         volume[i:i + rows] = _green_sum(section, f, ta)
-        a = np.maximum(h - geo.vertex_z, 0.0)
-        a0, a1 = a[:, :n], a[:, 1:]
-        wl = f * geo.length
-        if section.is_axisymmetric:
-            ra = ta * geo.dx + geo.x0
-            rb = f * geo.dx + ra
-            q = ((2.0 * a0 + a1) * ra + (a0 + 2.0 * a1) * rb) * wl
-            fz = q * ((2.0 * np.pi / 6.0) * rg) * geo.nz
-        else:
-            fz = (wl * (a0 + a1)) * (0.5 * rg * section.width) * geo.nz
-        part_fz[i:i + rows] = fz @ onehot
+        part_fz[i:i + rows] = _edge_fz(section, h, f, ta, rg) @ onehot
     part_down = {name: -part_fz[:, k] for k, name in enumerate(names)}
     zero = np.zeros(levels.size)
     floor = part_down.get(FLOOR, zero)
@@ -144,3 +134,57 @@ def level_table(section, density, gravity=STANDARD_GRAVITY, steps=DEFAULT_STEPS,
     return LevelTable(levels=levels, volume=volume, fluid_weight=rg * volume,
                       floor_force=floor, support_reaction=support, part_down=part_down,
                       max_pressure=rg * np.maximum(levels - section.z_min, 0.0))
+
+
+def _edge_fz(section, h, f, ta, rg, idx=None):
+    """Vertical force on each edge [N] for levels ``h`` (an (M, 1) column),
+    given the clipped fractions ``f`` and starts ``ta`` of the same edges;
+    ``idx`` restricts the edges (f and ta then hold only those)."""
+    geo = section.geometry
+    n = section.n_edges
+    if idx is None:
+        vz0, vz1 = geo.vertex_z[:n], geo.vertex_z[1:]
+        x0, dx, length, nz = geo.x0, geo.dx, geo.length, geo.nz
+    else:
+        vz0, vz1 = geo.vertex_z[idx], geo.vertex_z[idx + 1]
+        x0, dx, length, nz = geo.x0[idx], geo.dx[idx], geo.length[idx], geo.nz[idx]
+    a0 = np.maximum(h - vz0, 0.0)
+    a1 = np.maximum(h - vz1, 0.0)
+    wl = f * length
+    if section.is_axisymmetric:
+        ra = ta * dx + x0
+        rb = f * dx + ra
+        q = ((2.0 * a0 + a1) * ra + (a0 + 2.0 * a1) * rb) * wl
+        return q * ((2.0 * np.pi / 6.0) * rg) * nz
+    return (wl * (a0 + a1)) * (0.5 * rg * section.width) * nz
+
+
+def part_down_at(section, part, levels, density, gravity=STANDARD_GRAVITY):
+    """Downward load on one part at many levels [N], from its own edges only.
+
+    Parameters
+    ----------
+    section : Section
+    part : str
+        A loaded part name of ``section``.
+    levels : array_like
+        (M,) free-surface heights [m] (not capped).
+    density : float
+        [kg/m3]
+    gravity : float
+        [m/s2]
+
+    Returns
+    -------
+    numpy.ndarray
+        (M,) ``-fz`` summed over the part's edges [N].
+    """
+    idx = np.flatnonzero(np.asarray(section.parts) == part)
+    if idx.size == 0:
+        raise ValueError(f"the section has no part {part!r}")
+    levels = np.asarray(levels, dtype=np.float64).ravel()
+    geo = section.geometry
+    h = levels[:, None]
+    f = np.clip((h - geo.z_low[idx]) * geo.inv_abs_dz[idx], 0.0, 1.0)
+    ta = (1.0 - f) * geo.falls[idx]
+    return -_edge_fz(section, h, f, ta, float(density) * float(gravity), idx).sum(axis=1)

@@ -1,4 +1,4 @@
-"""Read and write section files (``*.section.json``, format version 1).
+"""Read and write section files (``*.section.json``, format versions 1 and 2).
 
 The format is specified in the project's shared spec (``section-format.md``).
 Reading is strict: an unknown key, a value of the wrong type or a newer
@@ -12,6 +12,12 @@ Decisions where the spec is silent (also in DEVELOPERS.md):
 - ``fill`` is required and holds exactly one of ``level`` and ``volume``.
 - ``fluid.preset`` without a ``temperature`` takes 20 C (fresh water) or
   10 C and 35 g/kg (seawater).
+- Version 2 (Wetline's extension, documented in ``docs/section-format-v2.md``)
+  adds ``uplift`` (required factor and each part's self-weight and
+  holding-down resistance) and ``report`` (calculation sheet header fields).
+  Version 1 files read as version 2 files without them. A case is written
+  as version 1 whenever it holds nothing that needs version 2, so files stay
+  readable by tools that know only version 1.
 - Coordinates are written back in the file's length unit, rounded to 15
   significant digits so that unit conversion noise does not creep in.
 """
@@ -27,11 +33,12 @@ from pathlib import Path
 import numpy as np
 
 from . import STANDARD_GRAVITY
-from .case import Case, CaseError
+from .case import Case, CaseError, ReportInfo
 from .fill import FillError
 from .liquids import LiquidError, liquid_from_spec, liquid_to_spec
 from .section import Section, SectionError
 from .units import UnitError, length_factor
+from .uplift import DEFAULT_REQUIRED_FACTOR, PartResistance
 
 __all__ = [
     "FORMAT",
@@ -46,13 +53,18 @@ __all__ = [
 ]
 
 FORMAT = "wetline-section"
-VERSION = 1
+VERSION = 2
+"""The newest version this program reads and writes."""
 SUFFIX = ".section.json"
 
 _TOP_KEYS = {"format", "version", "name", "length_unit", "geometry", "outline",
              "parts", "fluid", "gravity", "fill"}
 _GEOMETRY_KEYS = {"kind", "width"}
 _FILL_KEYS = {"level", "volume"}
+_V2_KEYS = {"uplift", "report"}
+_UPLIFT_KEYS = {"required_factor", "parts"}
+_RESISTANCE_KEYS = {"self_weight", "holding_down"}
+_REPORT_KEYS = {"project", "job_reference", "prepared_by"}
 
 
 class SectionFileError(ValueError):
@@ -100,7 +112,7 @@ def case_from_dict(data):
     SectionFileError
         Naming the key or the geometric fault.
     """
-    _check_keys(data, _TOP_KEYS, "")
+    _check_keys(data, _TOP_KEYS | _V2_KEYS, "")
     if data.get("format") != FORMAT:
         if "format" not in data:
             raise SectionFileError(f"missing key 'format' (a section file says \"{FORMAT}\")")
@@ -114,6 +126,12 @@ def case_from_dict(data):
         raise SectionFileError(
             f"section file version {version} is newer than this program reads "
             f"(up to {VERSION}); use a newer Wetline")
+
+    if version < 2:
+        for key in _V2_KEYS:
+            if key in data:
+                raise SectionFileError(
+                    f"key {key!r} needs section file version 2 (this file says version 1)")
 
     name = data.get("name", "")
     if not isinstance(name, str):
@@ -192,11 +210,51 @@ def case_from_dict(data):
         volume = _number(fill, "volume", "fill.")
         if volume < 0:
             raise SectionFileError(f"fill.volume must be >= 0, not {volume:g}")
+    resistances, factor = _read_uplift(data.get("uplift", {}), section)
+    report = _read_report(data.get("report", {}))
     try:
         return Case(section=section, liquid=liquid, gravity=gravity, fill_level=level,
-                    fill_volume=volume, length_unit=unit)
+                    fill_volume=volume, length_unit=unit, resistances=resistances,
+                    required_uplift_factor=factor, report=report)
     except (CaseError, FillError) as exc:
         raise SectionFileError(str(exc)) from None
+
+
+def _read_uplift(uplift, section):
+    """Resistances by part and the required factor from a version 2 file."""
+    _check_keys(uplift, _UPLIFT_KEYS, "uplift.")
+    factor = DEFAULT_REQUIRED_FACTOR
+    if "required_factor" in uplift:
+        factor = _number(uplift, "required_factor", "uplift.")
+        if factor <= 0:
+            raise SectionFileError(f"uplift.required_factor must be positive, not {factor:g}")
+    parts = uplift.get("parts", {})
+    if not isinstance(parts, dict):
+        raise SectionFileError("uplift.parts must be an object of part names")
+    resistances = []
+    for name, res in parts.items():
+        where = f"uplift.parts.{name}."
+        if name not in section.loaded_part_names:
+            raise SectionFileError(
+                f"uplift.parts names {name!r}, which is not a loaded part of the outline "
+                f"(parts: {', '.join(section.loaded_part_names)})")
+        _check_keys(res, _RESISTANCE_KEYS, where)
+        values = {}
+        for key in _RESISTANCE_KEYS:
+            if key in res:
+                values[key] = _number(res, key, where)
+                if values[key] < 0:
+                    raise SectionFileError(f"{where}{key} must be >= 0, not {values[key]:g}")
+        resistances.append((name, PartResistance(**values)))
+    return tuple(resistances), factor
+
+
+def _read_report(report):
+    _check_keys(report, _REPORT_KEYS, "report.")
+    for key, v in report.items():
+        if not isinstance(v, str):
+            raise SectionFileError(f"report.{key} must be text")
+    return ReportInfo(**report)
 
 
 def _rounded(v):
@@ -206,7 +264,8 @@ def _rounded(v):
 
 
 def case_to_dict(case):
-    """The section-file object of ``case`` (version 1)."""
+    """The section-file object of ``case``: version 1 unless the case holds
+    uplift or report data, which need version 2."""
     scale = length_factor(case.length_unit)
     s = case.section
     geometry = {"kind": s.kind}
@@ -214,7 +273,7 @@ def case_to_dict(case):
         geometry["width"] = _rounded(s.width / scale)
     data = {
         "format": FORMAT,
-        "version": VERSION,
+        "version": 2 if case.uses_version_2 else 1,
         "name": s.name,
         "length_unit": case.length_unit,
         "geometry": geometry,
@@ -227,6 +286,17 @@ def case_to_dict(case):
         data["fill"] = {"level": _rounded(case.fill_level / scale)}
     else:
         data["fill"] = {"volume": case.fill_volume}
+    if case.uses_version_2:
+        uplift = {"required_factor": case.required_uplift_factor}
+        if case.resistances:
+            uplift["parts"] = {name: {"self_weight": r.self_weight,
+                                      "holding_down": r.holding_down}
+                               for name, r in case.resistances}
+        data["uplift"] = uplift
+        if not case.report.is_empty:
+            r = case.report
+            data["report"] = {"project": r.project, "job_reference": r.job_reference,
+                              "prepared_by": r.prepared_by}
     return data
 
 
@@ -236,11 +306,13 @@ def dumps_case(case):
     outline = data.pop("outline")
     parts = data.pop("parts")
     fill = data.pop("fill")
+    tail = {k: data.pop(k) for k in ("uplift", "report") if k in data}
     lines = ["{"]
     body = [f"  {json.dumps(k)}: {json.dumps(v)}" for k, v in data.items()]
     body.append('  "outline": [\n' + ",\n".join(f"    {json.dumps(p)}" for p in outline) + "\n  ]")
     body.append(f'  "parts": {json.dumps(parts)}')
     body.append(f'  "fill": {json.dumps(fill)}')
+    body += [f"  {json.dumps(k)}: {json.dumps(v)}" for k, v in tail.items()]
     lines.append(",\n".join(body))
     lines.append("}")
     return "\n".join(lines) + "\n"

@@ -1,0 +1,253 @@
+"""Uplift check: is each lifted part held down with enough margin?
+
+A part (a lid, a roof, a whole container on its supports ...) pushed up by
+the liquid needs holding down by its own weight and any extra resistance
+(bolts, ballast, a cast-in anchor). For each part with resistance entered,
+the check compares
+
+.. math:: \\text{factor} = \\frac{G + R}{U}
+
+with the required factor, where U is the upward load of the liquid on the
+part (``-down`` where positive), G the part's self-weight and R the extra
+holding-down resistance, at the current level and at the worst level in the
+fill range (the level of greatest uplift).
+
+The required factor is an input. Its default, 1/0.9 = 1.11, follows EN 1997-1
+(Eurocode 7) for the uplift limit state UPL, clause 2.4.7.4 eq. (2.8),
+V_dst,d <= G_stb,d + R_d, with the recommended partial factors of Annex A,
+Table A.15: gamma_G,dst = 1.0 on the liquid (as a permanent action) and
+gamma_G,stb = 0.9 on self-weight, so that G >= U / 0.9. National Annexes may
+change these values; US practice uses factors of safety of about 1.1 to 1.3
+against flotation depending on the load case (USACE EM 1110-2-2100 sec. 3-8;
+values from memory). The governing code sets the value.
+
+Units: self-weight and resistance of a plane section's part are per metre of
+width [N/m] and are multiplied by the section's width here, like the liquid
+loads; for axisymmetric sections they are totals [N].
+"""
+
+from __future__ import annotations
+
+import math
+from dataclasses import dataclass
+
+import numpy as np
+
+from . import STANDARD_GRAVITY
+from .level_table import part_down_at
+
+__all__ = [
+    "DEFAULT_REQUIRED_FACTOR",
+    "REQUIRED_FACTOR_SOURCE",
+    "UPLIFT_CAUTION",
+    "PartResistance",
+    "UpliftResult",
+    "fill_range",
+    "uplift_check",
+    "worst_uplift",
+]
+
+DEFAULT_REQUIRED_FACTOR = 1.0 / 0.9
+"""Default required factor against uplift [] (EN 1997-1 UPL, see module notes)."""
+
+REQUIRED_FACTOR_SOURCE = (
+    "default 1.11 = 1/0.9: EN 1997-1 (Eurocode 7) UPL, 2.4.7.4 eq. 2.8, recommended "
+    "partial factors of Annex A Table A.15 (gamma_G,dst = 1.0, gamma_G,stb = 0.9)")
+UPLIFT_CAUTION = "The governing code and its National Annex set the required factor."
+
+
+@dataclass(frozen=True)
+class PartResistance:
+    """What holds a part down.
+
+    Attributes
+    ----------
+    self_weight : float
+        Weight of the part [N/m of width for plane sections, N for
+        axisymmetric], >= 0.
+    holding_down : float
+        Extra holding-down resistance: bolts, ballast ... (same units), >= 0.
+    """
+
+    self_weight: float = 0.0
+    holding_down: float = 0.0
+
+    def __post_init__(self):
+        for name in ("self_weight", "holding_down"):
+            v = getattr(self, name)
+            if isinstance(v, bool) or not isinstance(v, (int, float)) or not math.isfinite(v):
+                raise ValueError(f"{name.replace('_', ' ')} must be a number, not {v!r}")
+            if v < 0:
+                raise ValueError(f"{name.replace('_', ' ')} must be >= 0, not {v:g}")
+            object.__setattr__(self, name, float(v))
+
+    @property
+    def total(self):
+        """Self-weight plus holding-down resistance [N/m or N]."""
+        return self.self_weight + self.holding_down
+
+
+@dataclass(frozen=True)
+class UpliftResult:
+    """Uplift check of one part.
+
+    Attributes
+    ----------
+    part : str
+    resistance : float
+        G + R for the section [N] (times the width for plane sections).
+    required_factor : float
+        []
+    uplift : float
+        Upward load at the current level [N] (0 if the part is pressed down).
+    factor : float
+        resistance / uplift at the current level [] (inf without uplift).
+    worst_level : float
+        The level in the fill range with the greatest uplift [m].
+    worst_uplift : float
+        Upward load at that level [N].
+    worst_factor : float
+        resistance / worst_uplift [].
+    """
+
+    part: str
+    resistance: float
+    required_factor: float
+    uplift: float
+    factor: float
+    worst_level: float
+    worst_uplift: float
+    worst_factor: float
+
+    @property
+    def ok(self):
+        """True if the worst factor meets the required factor."""
+        return self.worst_factor >= self.required_factor
+
+    @property
+    def ok_now(self):
+        """True if the factor at the current level meets the required one."""
+        return self.factor >= self.required_factor
+
+    @property
+    def verdict(self):
+        """"OK" or "NOT OK" at the worst level, for reports."""
+        return "OK" if self.ok else "NOT OK"
+
+
+def _ratio(resistance, uplift):
+    if uplift <= 0:
+        return math.inf
+    return resistance / uplift
+
+
+def fill_range(section, level):
+    """The range of levels the check covers [m]: from empty to the spill
+    level (open sections) or to the higher of the roof and ``level``
+    (closed sections, where a standpipe head may stand above the roof)."""
+    top = section.top_level if section.is_open else max(section.z_max, float(level))
+    return section.z_min, top
+
+
+def worst_uplift(section, part, density, gravity=STANDARD_GRAVITY, *, z_lo=None, z_hi=None):
+    """Greatest upward load on ``part`` over a range of levels, and where.
+
+    The part's downward load is a polynomial in the level between the heights
+    of its own vertices (degree 2 plane, 3 axisymmetric). In each band the
+    polynomial is fitted through 4 exact values and its stationary points
+    found; the candidates (band ends and stationary points) are evaluated
+    exactly and the largest upward load wins.
+
+    Parameters
+    ----------
+    section : Section
+    part : str
+    density : float
+        [kg/m3]
+    gravity : float
+        [m/s2]
+    z_lo, z_hi : float, optional
+        The range [m]; default :func:`fill_range` at the top level.
+
+    Returns
+    -------
+    level : float
+        [m]
+    uplift : float
+        Upward load there [N], >= 0.
+    """
+    if z_lo is None or z_hi is None:
+        lo, hi = fill_range(section, section.top_level)
+        z_lo = lo if z_lo is None else z_lo
+        z_hi = hi if z_hi is None else z_hi
+    idx = np.flatnonzero(np.asarray(section.parts) == part)
+    zs = section.outline[:, 1]
+    heights = np.unique(np.concatenate([zs[idx], zs[(idx + 1) % section.n_edges]]))
+    inner = heights[(heights > z_lo) & (heights < z_hi)]
+    bounds = np.concatenate([[z_lo], inner, [z_hi]])
+    lo, hi = bounds[:-1], bounds[1:]
+    u = np.array([0.0, 1.0 / 3.0, 2.0 / 3.0, 1.0])
+    nodes = lo[:, None] + (hi - lo)[:, None] * u
+    y = -part_down_at(section, part, nodes.ravel(), density, gravity).reshape(nodes.shape)
+    # Cubic through the 4 nodes of each band, as a0 + a1 u + a2 u^2 + a3 u^3.
+    d1 = (y[:, 1] - y[:, 0]) * 3.0
+    d2 = (y[:, 2] - 2.0 * y[:, 1] + y[:, 0]) * 4.5
+    d3 = (y[:, 3] - 3.0 * y[:, 2] + 3.0 * y[:, 1] - y[:, 0]) * 4.5
+    a1 = d1 - d2 / 3.0 + 2.0 * d3 / 9.0
+    a2 = d2 - d3
+    a3 = d3
+    candidates = [bounds]
+    for k in range(lo.size):
+        # roots of a1 + 2 a2 u + 3 a3 u^2 inside (0, 1)
+        roots = np.roots([3.0 * a3[k], 2.0 * a2[k], a1[k]]) if (a3[k] or a2[k]) else []
+        for r in np.atleast_1d(roots):
+            if abs(r.imag) < 1e-12 and 0.0 < r.real < 1.0:
+                candidates.append([lo[k] + (hi[k] - lo[k]) * r.real])
+    cand = np.unique(np.concatenate(candidates))
+    up = -part_down_at(section, part, cand, density, gravity)
+    k = int(np.argmax(up))
+    return float(cand[k]), max(float(up[k]), 0.0)
+
+
+def uplift_check(case, resistances, required_factor=DEFAULT_REQUIRED_FACTOR, solution=None):
+    """Check every part that has a resistance entered.
+
+    Parameters
+    ----------
+    case : core.case.Case
+    resistances : mapping of str to PartResistance
+        Per part name; parts not in the section are ignored.
+    required_factor : float
+        Required factor against uplift [], > 0.
+    solution : core.hydrostatics.Solution, optional
+        The case's solution at its current level, if already computed.
+
+    Returns
+    -------
+    list of UpliftResult
+        In the section's part order.
+    """
+    required_factor = float(required_factor)
+    if not (math.isfinite(required_factor) and required_factor > 0):
+        raise ValueError(f"required factor must be positive, not {required_factor:g}")
+    sol = case.solve() if solution is None else solution
+    section = case.section
+    scale = 1.0 if section.is_axisymmetric else section.width
+    z_lo, z_hi = fill_range(section, sol.level)
+    out = []
+    for name in section.loaded_part_names:
+        res = resistances.get(name)
+        if res is None:
+            continue
+        resistance = res.total * scale
+        load = sol.parts[name]
+        uplift = max(-load.down, 0.0)
+        wl, wu = worst_uplift(section, name, case.liquid.density, case.gravity,
+                              z_lo=z_lo, z_hi=z_hi)
+        if uplift > wu:  # the current level is the worst (closed: head above range)
+            wl, wu = sol.level, uplift
+        out.append(UpliftResult(part=name, resistance=resistance,
+                                required_factor=required_factor, uplift=uplift,
+                                factor=_ratio(resistance, uplift), worst_level=wl,
+                                worst_uplift=wu, worst_factor=_ratio(resistance, wu)))
+    return out
