@@ -1,0 +1,100 @@
+"""Undo commands: every user edit of the document, with readable text.
+
+Each command keeps the document state before and after (immutable
+:class:`core.case.Case` values or :class:`app.display.DisplayChoice`), so
+undo returns the document exactly. Commands given the same ``merge_key``
+one after another merge into one undo step: the nudges of one vertex, the
+steps of one slider drag.
+"""
+
+from __future__ import annotations
+
+from PySide6.QtGui import QUndoCommand
+
+__all__ = ["CaseCommand", "UnitsCommand", "DiagramScaleCommand"]
+
+_CASE_ID = 1001
+_UNITS_ID = 1002
+_SCALE_ID = 1003
+
+
+class CaseCommand(QUndoCommand):
+    """Replace the document's case.
+
+    Parameters
+    ----------
+    document : app.document.Document
+    case : core.case.Case
+        The case after the edit.
+    text : str
+        What the edit did, for the Edit menu ("Move vertex 3").
+    merge_key : hashable or None
+        Consecutive commands with the same key merge into one step.
+    """
+
+    def __init__(self, document, case, text, merge_key=None):
+        super().__init__(text)
+        self._doc = document
+        self._old = document.case
+        self._new = case
+        self._key = merge_key
+
+    def id(self):
+        return -1 if self._key is None else _CASE_ID
+
+    def mergeWith(self, other):
+        if not isinstance(other, CaseCommand) or self._key is None or other._key != self._key:
+            return False
+        self._new = other._new
+        self.setText(other.text())
+        if self._new == self._old:
+            self.setObsolete(True)
+        return True
+
+    def redo(self):
+        self._doc.set_case(self._new)
+
+    def undo(self):
+        self._doc.set_case(self._old)
+
+
+class UnitsCommand(QUndoCommand):
+    """Switch the display units ("Units: US customary, in")."""
+
+    def __init__(self, document, choice):
+        super().__init__(f"Units: {choice.title}")
+        self._doc = document
+        self._old = document.units
+        self._new = choice
+
+    def redo(self):
+        self._doc.set_units(self._new)
+
+    def undo(self):
+        self._doc.set_units(self._old)
+
+
+class DiagramScaleCommand(QUndoCommand):
+    """Change the pressure-diagram scale; consecutive changes merge."""
+
+    def __init__(self, document, scale, text):
+        super().__init__(text)
+        self._doc = document
+        self._old = document.diagram_scale
+        self._new = scale
+
+    def id(self):
+        return _SCALE_ID
+
+    def mergeWith(self, other):
+        if not isinstance(other, DiagramScaleCommand):
+            return False
+        self._new = other._new
+        self.setText(other.text())
+        return True
+
+    def redo(self):
+        self._doc.set_diagram_scale(self._new)
+
+    def undo(self):
+        self._doc.set_diagram_scale(self._old)
