@@ -3,7 +3,7 @@
 Headless commands for batch work and scripts; they import no Qt (except
 ``export``, which paints the diagram):
 
-- ``wetline solve FILE [--level L | --volume V] [--units si|us] [--json]``
+- ``wetline solve FILE [--level L | --volume V] [--units si|us] [--json | --csv]``
 - ``wetline table FILE [--steps N] [--units si|us] [--csv]``
 - ``wetline export FILE --png OUT [--level L | --volume V] [--units si|us] [--size WxH]``
 
@@ -16,11 +16,11 @@ standard error, never a traceback.
 from __future__ import annotations
 
 import argparse
-import csv
-import io
 import json
 import math
 import sys
+
+from core.report_tables import fmt
 
 __all__ = ["main"]
 
@@ -57,6 +57,8 @@ def _parser():
                     help="units of the readable table (JSON is always SI)")
     sp.add_argument("--json", action="store_true",
                     help="print the results record (SI) instead of a table")
+    sp.add_argument("--csv", action="store_true",
+                    help="print the per-edge results as CSV (units in the header)")
 
     sp = sub.add_parser("table", help="print totals at levels from empty to the top")
     sp.add_argument("file", metavar="FILE")
@@ -100,24 +102,6 @@ def _load(path, level=None, volume=None):
     return case
 
 
-def fmt(v, digits=5):
-    """A number for a table: ``digits`` significant figures, no exponent
-    for ordinary magnitudes, ``-`` for None/NaN."""
-    if v is None or (isinstance(v, float) and math.isnan(v)):
-        return "-"
-    v = float(v)
-    if v == 0:
-        return "0"
-    mag = math.floor(math.log10(abs(v)))
-    if -4 <= mag < 9:
-        decimals = max(digits - 1 - mag, 0)
-        text = f"{v:.{decimals}f}"
-        if "." in text:
-            text = text.rstrip("0").rstrip(".")
-        return "0" if text in ("-0", "") else text
-    return f"{v:.{digits - 1}e}"
-
-
 def _table(rows, header, align=None):
     widths = [max(len(str(r[i])) for r in [header] + rows) for i in range(len(header))]
     align = align or ["<"] + [">"] * (len(header) - 1)
@@ -138,80 +122,51 @@ def _force_units(section, units):
 
 
 # ----------------------------------------------------------------- solve
+def _render(table, align=None):
+    """Text lines of a report table, numbers formatted for people."""
+    rows = [[fmt(v) if not isinstance(v, int) else str(v) for v in r] for r in table.rows]
+    return [table.title] + ["  " + line for line in _table(rows, list(table.header), align)]
+
+
 def solve_text(case, units_name="si"):
     """The readable table of ``wetline solve``."""
+    from core.report_tables import edges_table, parts_table, totals_table, uplift_table
     from core.results import CAUTIONS
+    from core.uplift import UPLIFT_CAUTION
     from core.units import display_units
 
     u = display_units(units_name)
     sol = case.solve()
     sec = sol.section
-    L, P, F = u.label("length"), u.label("pressure"), u.label("force")
     flabel, fnote = _force_units(sec, u)
-
-    def ln(v):
-        return fmt(u.to_display(v, "length"))
-
-    def pr(v):
-        return fmt(u.to_display(v, "pressure"))
-
-    def fo(v):
-        return None if v is None else fmt(u.to_display(v, "force"))
-
     liquid = case.liquid
     lines = [f"{sec.name or 'Section'}",
              f"  {sec.kind} section, {sec.n_edges} edges; forces in {flabel} {fnote}",
              f"  liquid: {liquid.name}, {fmt(u.to_display(liquid.density, 'density'))} "
              f"{u.label('density')} ({liquid.source})",
-             f"  gravity: {fmt(case.gravity, 7)} m/s2",
-             f"  level: {ln(sol.level)} {L}"
-             + (f" (requested {ln(sol.requested_level)} {L})"
-                if sol.level != sol.requested_level else "")
-             + (f"; spill level {ln(sec.spill_level)} {L}" if sec.is_open
-                else f"; closed, top {ln(sec.z_max)} {L}"),
-             ""]
-    support = fo(sol.support_reaction)
-    if sol.support_reaction < 0:
-        support += " (held down)"
-    totals = [["volume", fmt(u.to_display(sol.volume, "volume")), u.label("volume")],
-              ["fluid weight", fo(sol.fluid_weight), F],
-              ["floor force", fo(sol.floor_force), F],
-              ["support reaction", support, F],
-              ["max pressure", pr(sol.max_pressure), P]]
-    lines += ["Totals"] + ["  " + r for r in _table(totals, ["", "value", "unit"],
+             f"  gravity: {fmt(case.gravity, 7)} m/s2", ""]
+    totals = totals_table(sol, u)
+    rows = []
+    for name, value, unit in totals.rows:
+        text = fmt(value)
+        if name == "support reaction" and sol.support_reaction < 0:
+            text += " (held down)"
+        if name == "level" and sol.level != sol.requested_level:
+            text += " (capped)"
+        rows.append([name, text, unit])
+    lines += ["Totals"] + ["  " + r for r in _table(rows, ["", "value", "unit"],
                                                      ["<", ">", "<"])]
     lines.append("")
-    prows = []
-    for name, p in sol.parts.items():
-        prows.append([name, fo(p.fx) if p.fx is not None else "-", fo(p.fz), fo(p.down),
-                      "uplift" if p.down < 0 else ""])
-    lines += ["Parts"] + ["  " + r for r in _table(
-        prows, ["part", f"fx [{F}]", f"fz [{F}]", f"down [{F}]", ""])]
+    lines += _render(parts_table(sol, u))
     lines.append("")
-    axi = sec.is_axisymmetric
-    header = ["#", "part", f"start [{L}]", f"end [{L}]", f"wetted [{L}]",
-              f"p start [{P}]", f"p end [{P}]"]
-    header += ([f"fz [{F}]", f"hoop start [{u.label('force_per_length')}]",
-                f"hoop end [{u.label('force_per_length')}]"] if axi else
-               [f"fx [{F}]", f"fz [{F}]", f"resultant [{F}]", f"centre of pressure [{L}]"])
-    erows = []
-    pts = sec.outline
-    n = sec.n_edges
-    for i in range(n):
-        j = (i + 1) % n
-        row = [str(i), sec.parts[i], f"({ln(pts[i, 0])}, {ln(pts[i, 1])})",
-               f"({ln(pts[j, 0])}, {ln(pts[j, 1])})", ln(sol.wetted_length[i]),
-               pr(sol.p_start[i]), pr(sol.p_end[i])]
-        if axi:
-            fpl = u.factor("force_per_length")
-            row += [fo(sol.fz[i]), fmt(sol.hoop_start[i] / fpl), fmt(sol.hoop_end[i] / fpl)]
-        else:
-            cp = sol.centre_of_pressure[i]
-            row += [fo(sol.fx[i]), fo(sol.fz[i]), fo(sol.resultant[i]),
-                    "-" if not math.isfinite(cp[0]) else f"({ln(cp[0])}, {ln(cp[1])})"]
-        erows.append(row)
-    lines += ["Edges"] + ["  " + r for r in _table(erows, header, [">", "<"] + [">"] * (len(header) - 2))]
+    lines += _render(edges_table(sol, u), [">", "<"] + [">"] * 14)
     lines.append("")
+    uplift = uplift_table(case, u, sol)
+    if uplift.rows:
+        lines += _render(uplift)
+        lines.append(f"  required factor {fmt(case.required_uplift_factor, 4)}; "
+                     f"{UPLIFT_CAUTION}")
+        lines.append("")
     if sol.warnings:
         lines += ["Warnings"] + [f"  - {w}" for w in sol.warnings] + [""]
     lines.append(f"Caution: {CAUTIONS}")
@@ -220,55 +175,42 @@ def solve_text(case, units_name="si"):
 
 def _cmd_solve(args, out):
     case = _load(args.file, args.level, args.volume)
+    if args.json and args.csv:
+        raise CommandError("give --json or --csv, not both")
     if args.json:
         from core.results import results_record
 
         json.dump(results_record(case), out, indent=2, allow_nan=False)
         out.write("\n")
+    elif args.csv:
+        from core.report_tables import edges_table, to_csv
+        from core.units import display_units
+
+        out.write(to_csv(edges_table(case.solve(), display_units(args.units))))
     else:
         out.write(solve_text(case, args.units))
     return 0
 
 
 # ----------------------------------------------------------------- table
-def table_rows(case, steps, units_name="si"):
-    """Header (with units) and rows of the level-load table, display units."""
-    from core.level_table import level_table
+def _cmd_table(args, out):
+    from core.report_tables import level_load_table, to_csv
     from core.units import display_units
 
-    u = display_units(units_name)
-    t = level_table(case.section, case.liquid.density, case.gravity, steps)
-    F, L = u.label("force"), u.label("length")
-    quantity = {"level": ("length", L), "volume": ("volume", u.label("volume")),
-                "max_pressure": ("pressure", u.label("pressure"))}
-    header, cols = [], []
-    for name, arr in t.columns():
-        q, lab = quantity.get(name, ("force", F))
-        header.append(f"{name.replace('_', ' ')} [{lab}]")
-        cols.append(u.to_display(arr, q))
-    rows = [[float(c[k]) for c in cols] for k in range(t.levels.size)]
-    return header, rows
-
-
-def _cmd_table(args, out):
     case = _load(args.file)
     steps = args.steps if args.steps is not None else (51 if args.csv else 21)
     if steps < 2:
         raise CommandError(f"--steps must be at least 2, not {steps}")
     if steps > 100_000:
         raise CommandError(f"--steps must be at most 100000, not {steps}")
-    header, rows = table_rows(case, steps, args.units)
+    table = level_load_table(case, display_units(args.units), steps)
     if args.csv:
-        buf = io.StringIO()
-        w = csv.writer(buf, lineterminator="\n")
-        w.writerow(header)
-        for r in rows:
-            w.writerow([repr(v + 0.0) for v in r])
-        out.write(buf.getvalue())
+        out.write(to_csv(table))
     else:
         out.write(f"{case.section.name or 'Section'}: loads against level "
                   f"({case.liquid.name}, {fmt(case.liquid.density)} kg/m3)\n")
-        for line in _table([[fmt(v) for v in r] for r in rows], header, [">"] * len(header)):
+        rows = [[fmt(v) for v in r] for r in table.rows]
+        for line in _table(rows, list(table.header), [">"] * len(table.header)):
             out.write(line + "\n")
     return 0
 

@@ -548,6 +548,10 @@ def liquid_from_spec(spec: dict) -> Liquid:
         density = _spec_number(spec, "density")
         if density <= 0.0:
             raise LiquidError(f"fluid density must be positive, not {density:g} kg/m3")
+        if name is not None:
+            listed = LISTED_LIQUIDS.get(name)
+            if listed is not None and listed.density == density:
+                return listed  # keeps the listed value's source
         return custom_liquid(density, "custom liquid" if name is None else name)
     if "preset" not in spec:
         raise LiquidError("fluid needs a 'density' or a 'preset'")
@@ -582,9 +586,10 @@ def liquid_to_spec(liquid: Liquid) -> dict:
 
     Fresh water and seawater are written as presets with their inputs, so
     the file re-computes them; every other liquid as ``name`` and
-    ``density``. ``liquid_from_spec(liquid_to_spec(x)) == x`` for presets and
-    custom liquids; a listed liquid comes back as a custom liquid with the
-    same name and density (its source and temperature are not stored).
+    ``density``. ``liquid_from_spec(liquid_to_spec(x)) == x`` for presets,
+    custom and listed liquids: a name and density that match a listed liquid
+    exactly are read back as that liquid, with its source; the file never
+    depends on the list (a changed list reads it as a custom liquid).
 
     Parameters
     ----------

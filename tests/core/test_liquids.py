@@ -380,11 +380,17 @@ def test_spec_writes_presets_with_their_inputs():
     assert liquid_to_spec(custom_liquid(1100.0, "brine")) == {"name": "brine", "density": 1100.0}
 
 
-def test_listed_liquid_comes_back_as_custom():
+def test_listed_liquid_is_written_as_name_and_density_and_recognised_on_reading():
     for liquid in LISTED_LIQUIDS.values():
         spec = liquid_to_spec(liquid)
         assert spec == {"name": liquid.name, "density": liquid.density}
-        assert liquid_from_spec(spec) == custom_liquid(liquid.density, liquid.name)
+        assert liquid_from_spec(spec) == liquid  # the listed source comes back too
+
+
+def test_listed_name_with_another_density_is_a_custom_liquid():
+    liquid = next(iter(LISTED_LIQUIDS.values()))
+    spec = {"name": liquid.name, "density": liquid.density + 1.0}
+    assert liquid_from_spec(spec) == custom_liquid(liquid.density + 1.0, liquid.name)
 
 
 @given(
