@@ -1,0 +1,82 @@
+"""Shared result tables and their CSV: the numbers must be the record's."""
+
+import csv
+import io
+import math
+from pathlib import Path
+
+import pytest
+
+from core.report_tables import (edges_table, fmt, level_load_table, parts_table, to_csv,
+                                totals_table)
+from core.results import results_record
+from core.section_file import read_section_file
+from core.units import display_units
+
+ROOT = Path(__file__).resolve().parents[2]
+SAMPLES = sorted((ROOT / "sample_sections").glob("*.section.json"))
+
+
+def _csv(table):
+    rows = list(csv.reader(io.StringIO(to_csv(table))))
+    return rows[0], rows[1:]
+
+
+@pytest.mark.parametrize("path", SAMPLES, ids=lambda p: p.name)
+def test_edge_csv_sums_match_the_json_record(path):
+    case = read_section_file(path)
+    sol = case.solve()
+    rec = results_record(case, sol)
+    header, rows = _csv(edges_table(sol, display_units("si")))
+    assert header[0] == "edge" and all("[" in h for h in header[2:])
+    k = header.index("fz [kN]")
+    fz_sum = sum(float(r[k]) for r in rows) * 1000.0
+    assert fz_sum == pytest.approx(sum(e["fz"] for e in rec["edges"]), rel=1e-12, abs=1e-6)
+    floor = sum(float(r[k]) for r in rows if r[1] == "floor") * 1000.0
+    assert floor == pytest.approx(-rec["floor_force"], rel=1e-12, abs=1e-6)
+    if "fx [kN]" in header:
+        kx = header.index("fx [kN]")
+        for r, e in zip(rows, rec["edges"]):
+            assert float(r[kx]) * 1000.0 == pytest.approx(e["fx"], rel=1e-12, abs=1e-9)
+
+
+def test_us_units_convert_with_nist_factors():
+    # NIST SP 811 App. B: 1 psi = 6894.757 Pa, 1 lbf = 4.448222 N, 1 ft = 0.3048 m.
+    case = read_section_file(ROOT / "sample_sections" / "open_tank.section.json")
+    sol = case.solve()
+    t = totals_table(sol, display_units("us"))
+    values = {r[0]: r[1] for r in t.rows}
+    assert values["max pressure"] == pytest.approx(sol.max_pressure / 6894.757293168361)
+    assert values["floor force"] == pytest.approx(sol.floor_force / 4.4482216152605)
+    assert values["level"] == pytest.approx(sol.level / 0.3048)
+
+
+def test_parts_table_marks_uplift():
+    case = read_section_file(ROOT / "sample_sections" / "sump_with_lid.section.json")
+    t = parts_table(case.solve(), display_units("si"))
+    notes = {r[0]: r[-1] for r in t.rows}
+    assert notes["lid"] == "uplift" and notes["floor"] == ""
+
+
+def test_level_load_csv_weight_equals_floor_plus_supports():
+    case = read_section_file(ROOT / "sample_sections" / "chamber_under_riser.section.json")
+    header, rows = _csv(level_load_table(case, display_units("si"), steps=9))
+    w, f, s = (header.index(h) for h in ("fluid weight [kN]", "floor force [kN]",
+                                          "support reaction [kN]"))
+    for r in rows:
+        assert float(r[f]) + float(r[s]) == pytest.approx(float(r[w]), rel=1e-9, abs=1e-9)
+
+
+def test_undefined_values_are_empty_csv_cells():
+    case = read_section_file(ROOT / "sample_sections" / "open_tank.section.json")
+    header, rows = _csv(edges_table(case.solve(), display_units("si")))
+    dry = [r for r in rows if r[1] == "open"][0]
+    assert dry[header.index("cp x [m]")] == ""
+
+
+@pytest.mark.parametrize("value, text", [
+    (44129.925, "44130"), (1.5, "1.5"), (0.0, "0"), (-0.0, "0"), (None, "-"),
+    (float("nan"), "-"), (math.inf, "inf"), (123456789012.0, "1.2346e+11"),
+])
+def test_fmt(value, text):
+    assert fmt(value) == text
