@@ -219,8 +219,8 @@ class SectionCanvas(pg.PlotWidget):
                                         symbol=None)
         self._sketch.setZValue(45)
         vb.addItem(self._sketch)
-        self._handles = VertexHandles(self._pick_vertex)
-        vb.addItem(self._handles)
+        self.handles = VertexHandles(self._pick_vertex)
+        vb.addItem(self.handles)
         self._selected = pg.ScatterPlotItem(size=13, pen=pg.mkPen("#000000", width=2),
                                             brush=pg.mkBrush(HIGHLIGHT_COLOUR))
         self._selected.setZValue(41)
@@ -242,9 +242,9 @@ class SectionCanvas(pg.PlotWidget):
         document.unitsChanged.connect(self._on_unitsChanged)
         document.diagramScaleChanged.connect(self._on_diagramScaleChanged)
         document.selectionChanged.connect(self._on_selectionChanged)
-        self._handles.dragStarted.connect(self._on_dragStarted)
-        self._handles.dragMoved.connect(self._on_dragMoved)
-        self._handles.dragFinished.connect(self._on_dragFinished)
+        self.handles.dragStarted.connect(self._on_dragStarted)
+        self.handles.dragMoved.connect(self._on_dragMoved)
+        self.handles.dragFinished.connect(self._on_dragFinished)
         self.scene().sigMouseMoved.connect(self._on_mouseMoved)
         self.scene().sigMouseClicked.connect(self._on_mouseClicked)
         self._first_fit = True
@@ -353,11 +353,11 @@ class SectionCanvas(pg.PlotWidget):
             curve.setPen(pg.mkPen(colour, width=width, style=style))
             curve.setData(x, z)
         if len(outline) <= MAX_HANDLES:
-            self._handles.setData(pos=np.asarray(outline))
-            self._handles.show()
+            self.handles.setData(pos=np.asarray(outline))
+            self.handles.show()
         else:
-            self._handles.setData(pos=np.empty((0, 2)))
-            self._handles.hide()
+            self.handles.setData(pos=np.empty((0, 2)))
+            self.handles.hide()
 
     def _draw_draft(self):
         draft = self._doc.draft
@@ -429,6 +429,8 @@ class SectionCanvas(pg.PlotWidget):
             for seg in shapely.get_parts(shapely.intersection(self._polygon, line)):
                 if seg.geom_type == "LineString":
                     c = shapely.get_coordinates(seg)
+                    if len(c) < 2:
+                        continue
                     sx += [c[0, 0], c[-1, 0]]
                     sz += [h, h]
             if not sx:  # level above a closed section's roof: a standpipe head
