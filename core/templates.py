@@ -57,6 +57,9 @@ class Template:
     def build(self, name=None, width=1.0, **dims):
         """The section for the given dimensions [m] (defaults for any left out).
 
+        ``width`` is the section's out-of-plane width [m] (plane only); no
+        template has a dimension of that name, so the two never collide.
+
         Raises
         ------
         SectionError
@@ -64,6 +67,8 @@ class Template:
             (an outlet wider than the top ...).
         """
         values = self.defaults()
+        if any(d.key in ("name", "width") for d in self.dimensions):  # pragma: no cover
+            raise AssertionError("a template dimension shadows a build() argument")
         for key, v in dims.items():
             if key not in values:
                 raise SectionError(f"{self.title} has no dimension {key!r}")
@@ -87,8 +92,8 @@ def _need(cond, message):
         raise SectionError(message)
 
 
-def _open_tank(width, height):
-    return ([[0, 0], [width, 0], [width, height], [0, height]],
+def _open_tank(tank_width, height):
+    return ([[0, 0], [tank_width, 0], [tank_width, height], [0, height]],
             ["floor", "wall", "open", "wall"])
 
 
@@ -119,8 +124,8 @@ def _sump_with_lid(well_width, well_depth, shaft_width, shaft_height):
             ["floor", "wall", "lid", "wall", "open", "wall"])
 
 
-def _closed_tank(width, height):
-    return ([[0, 0], [width, 0], [width, height], [0, height]],
+def _closed_tank(tank_width, height):
+    return ([[0, 0], [tank_width, 0], [tank_width, height], [0, height]],
             ["floor", "wall", "roof", "wall"])
 
 
@@ -135,7 +140,7 @@ TEMPLATES = {
     t.key: t for t in (
         Template("open_tank", "Open rectangular tank",
                  "A flat floor, two upright walls, open at the top.", "plane",
-                 (Dimension("width", "Inside width", 3.0),
+                 (Dimension("tank_width", "Inside width", 3.0),
                   Dimension("height", "Wall height", 2.5)),
                  _open_tank, lambda s: 0.8 * s.top_level),
         Template("flared_hopper", "Flared hopper with outlet gate",
@@ -164,7 +169,7 @@ TEMPLATES = {
         Template("closed_tank", "Closed tank under a standpipe",
                  "A sealed box; the level may stand above its roof (a standpipe head).",
                  "plane",
-                 (Dimension("width", "Inside width", 3.0),
+                 (Dimension("tank_width", "Inside width", 3.0),
                   Dimension("height", "Inside height", 2.0)),
                  _closed_tank, lambda s: s.z_max + 1.5),
         Template("cone_hopper", "Cone hopper with cylindrical shell",

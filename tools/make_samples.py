@@ -18,7 +18,7 @@ OUT = Path(__file__).resolve().parent.parent / "sample_sections"
 
 # file stem, template, dimensions [m], name, liquid, fill level [m], file unit
 SAMPLES = [
-    ("open_tank", "open_tank", dict(width=6.0, height=3.2),
+    ("open_tank", "open_tank", dict(tank_width=6.0, height=3.2),
      "Settled-water holding tank, filter block", fresh_water(12.0), 2.8, "m"),
     ("flared_hopper", "flared_hopper",
      dict(top_width=3.6, outlet_width=0.45, hopper_height=2.2, upright_height=1.0),
@@ -29,7 +29,7 @@ SAMPLES = [
     ("sump_with_lid", "sump_with_lid",
      dict(well_width=2.4, well_depth=1.6, shaft_width=1.9, shaft_height=1.2),
      "Pump sump, inlet works north bay", fresh_water(20.0), 2.2, "m"),
-    ("closed_tank", "closed_tank", dict(width=3.0, height=2.0),
+    ("closed_tank", "closed_tank", dict(tank_width=3.0, height=2.0),
      "Break-pressure chamber under a header-tank standpipe", fresh_water(10.0), 4.5, "m"),
     ("cone_hopper", "cone_hopper",
      dict(radius=1.2, outlet_radius=0.15, cone_height=1.6, shell_height=2.4),

@@ -277,12 +277,12 @@ def test_new_from_template(make_window, monkeypatch, settle):
     assert w.actions_by_name["axi"].isChecked()
     bad = TemplateDialog(w.doc.units)
     bad.select("open_tank")
-    bad.fields["width"].setText("-1")
+    bad.fields["tank_width"].setText("-1")
     bad.accept()
     assert "positive" in bad.error.text() and bad.result_section is None
     wide = TemplateDialog(w.doc.units)
     wide.select("open_tank")
-    wide.fields["width"].setText("5")
+    wide.fields["tank_width"].setText("5")
     wide.width_field.setText("2")
     wide.accept()
     assert wide.result_section.outline[:, 0].max() == 5.0
