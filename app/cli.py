@@ -1,11 +1,14 @@
 """The ``wetline`` command line.
 
 Headless commands for batch work and scripts; they import no Qt (except
-``export``, which paints the diagram):
+``export --png``, which paints the diagram):
 
 - ``wetline solve FILE [--level L | --volume V] [--units si|us] [--json | --csv]``
 - ``wetline table FILE [--steps N] [--units si|us] [--csv]``
-- ``wetline export FILE --png OUT [--level L | --volume V] [--units si|us] [--size WxH]``
+- ``wetline export FILE [--png OUT] [--dxf OUT] [--level L | --volume V] [--units si|us]
+  [--size WxH]`` (``--png`` and/or ``--dxf``)
+- ``wetline import DRAWING.dxf -o OUT.section.json [--choose N|HANDLE|LAYER] [--unit U]
+  [--axisymmetric] [--liquid-density RHO] [--level L]``
 
 ``wetline`` alone, or ``wetline FILE``, opens the desktop program.
 
@@ -24,7 +27,7 @@ from core.report_tables import fmt
 
 __all__ = ["main"]
 
-COMMANDS = ("solve", "table", "export")
+COMMANDS = ("solve", "table", "export", "import")
 
 
 class CommandError(Exception):
@@ -67,13 +70,35 @@ def _parser():
     sp.add_argument("--units", choices=("si", "us"), default="si")
     sp.add_argument("--csv", action="store_true", help="comma-separated values with units in the header")
 
-    sp = sub.add_parser("export", help="draw the pressure diagram to a PNG file")
+    sp = sub.add_parser("export", help="draw the pressure diagram to a PNG file and/or "
+                                       "write the outline to a DXF file")
     sp.add_argument("file", metavar="FILE")
-    sp.add_argument("--png", required=True, metavar="OUT", help="the PNG file to write")
+    sp.add_argument("--png", metavar="OUT", help="the PNG file to write")
+    sp.add_argument("--dxf", metavar="OUT",
+                    help="the DXF file to write: the outline, each edge on a layer "
+                         "named after its part, in the file's length unit")
     fill_options(sp)
     sp.add_argument("--units", choices=("si", "us"), default="si")
     sp.add_argument("--size", default=None, metavar="WxH",
                     help="image size in pixels (default 3508x2480: A4 landscape at 300 dpi)")
+
+    sp = sub.add_parser("import", help="make a section file from a closed polyline "
+                                       "in a DXF drawing")
+    sp.add_argument("file", metavar="DRAWING", help="a DXF file")
+    sp.add_argument("-o", "--output", required=True, metavar="OUT",
+                    help="the *.section.json file to write")
+    sp.add_argument("--choose", metavar="N|HANDLE|LAYER",
+                    help="which closed polyline, when there are several: its number "
+                         "(as listed), handle or layer")
+    sp.add_argument("--unit", metavar="U",
+                    help="drawing unit (mm, cm, m, in, ft ...); default: the unit the "
+                         "drawing states, or mm if it states none")
+    sp.add_argument("--axisymmetric", action="store_true",
+                    help="the outline is a half-section about x = 0 (x is the radius)")
+    sp.add_argument("--liquid-density", type=float, metavar="RHO",
+                    help="liquid density [kg/m3] (default: fresh water at 20 C)")
+    sp.add_argument("--level", type=float, metavar="L",
+                    help="fill level in the drawing unit (default: the top of the outline)")
     return p
 
 
@@ -217,6 +242,8 @@ def _cmd_table(args, out):
 
 # ----------------------------------------------------------------- export
 def _cmd_export(args, out):
+    if args.png is None and args.dxf is None:
+        raise CommandError("give --png OUT and/or --dxf OUT")
     size = None
     if args.size is not None:
         try:
@@ -225,11 +252,56 @@ def _cmd_export(args, out):
             raise CommandError(f"--size must look like 3508x2480, not {args.size!r}") from None
         size = (w, h)
     case = _load(args.file, args.level, args.volume)
-    from app.export_png import export_png
+    if args.dxf is not None:
+        from core.dxf_io import write_outline
 
-    kwargs = {} if size is None else {"size": size}
-    export_png(case, args.png, units=args.units, **kwargs)
-    out.write(f"wrote {args.png}\n")
+        write_outline(case.section, args.dxf, unit=case.length_unit)
+        out.write(f"wrote {args.dxf}\n")
+    if args.png is not None:
+        from app.export_png import export_png
+
+        kwargs = {} if size is None else {"size": size}
+        export_png(case, args.png, units=args.units, **kwargs)
+        out.write(f"wrote {args.png}\n")
+    return 0
+
+
+# ----------------------------------------------------------------- import
+def _cmd_import(args, out):
+    from pathlib import Path
+
+    from core.case import Case
+    from core.dxf_io import choose_outline, list_outlines
+    from core.liquids import custom_liquid, fresh_water
+    from core.section_file import write_section_file
+    from core.units import length_factor
+
+    drawing = Path(args.file)
+    outlines = list_outlines(drawing, unit=args.unit)
+    outline = choose_outline(outlines, args.choose, source=drawing.name)
+    section = outline.to_section(kind="axisymmetric" if args.axisymmetric else "plane",
+                                 name=drawing.stem)
+    if args.liquid_density is None:
+        liquid = fresh_water(20.0)
+    else:
+        if not math.isfinite(args.liquid_density) or args.liquid_density <= 0:
+            raise CommandError(f"--liquid-density must be a positive number of kg/m3, "
+                               f"not {args.liquid_density:g}")
+        liquid = custom_liquid(args.liquid_density)
+    if args.level is None:
+        level = section.top_level
+    elif not math.isfinite(args.level):
+        raise CommandError(f"--level must be a finite number, not {args.level}")
+    else:
+        level = args.level * length_factor(outline.unit)
+    case = Case(section=section, liquid=liquid, fill_level=level,
+                length_unit=outline.unit)
+    write_section_file(case, args.output)
+    for w in outline.warnings:
+        print(f"warning: {w}", file=sys.stderr)
+    parts = "parts from the drawing's part layers" if outline.parts else "all parts 'wall'"
+    out.write(f"wrote {args.output}: polyline #{outline.index} on layer {outline.layer}, "
+              f"{outline.n_vertices} vertices in {outline.unit}, {parts}\n")
     return 0
 
 
@@ -245,7 +317,8 @@ def main(argv):
         from app.gui import launch
 
         return launch(argv[0] if argv else None)
-    handlers = {"solve": _cmd_solve, "table": _cmd_table, "export": _cmd_export}
+    handlers = {"solve": _cmd_solve, "table": _cmd_table, "export": _cmd_export,
+                "import": _cmd_import}
     try:
         args = _parser().parse_args(argv)
         if args.command is None:

@@ -18,6 +18,10 @@ Modules, one concern each:
 - :mod:`core.section_file`: read and write ``*.section.json`` files.
 - :mod:`core.results`: the results record of ``wetline solve --json``.
 - :mod:`core.templates`: parametric sections (open tank, hopper ...).
+- :mod:`core.uplift`: the uplift check of lifted parts.
+- :mod:`core.report_tables`: result tables in display units (CLI, CSV, sheet).
+- :mod:`core.dxf_io`: outlines from and to DXF drawings.
+- :mod:`core.coordinates`: coordinate lists pasted from a spreadsheet or CSV.
 """
 
 STANDARD_GRAVITY = 9.80665
