@@ -178,8 +178,8 @@ def volume_curve(section):
     zmin = heights[0]
     span = heights[-1] - zmin
     x0, dx, dz = geo.x0, geo.dx, geo.dz
-    x1 = x0 + dx
-    z1 = z + dz
+    x1 = np.roll(x0, -1)
+    z1 = np.roll(z, -1)
     up = dz > 0
     zl = np.where(up, z, z1) - zmin
     zh = np.where(up, z1, z) - zmin

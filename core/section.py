@@ -328,13 +328,15 @@ class Section:
         pts = self.outline
         x0 = np.ascontiguousarray(pts[:, 0])
         z0 = np.ascontiguousarray(pts[:, 1])
-        dx = np.roll(x0, -1) - x0
-        dz = np.roll(z0, -1) - z0
+        x1 = np.roll(x0, -1)
+        z1 = np.roll(z0, -1)
+        dx = x1 - x0
+        dz = z1 - z0
         length = np.sqrt(dx * dx + dz * dz)
         s = self.orientation
         nx = s * dz / length
         nz = -s * dx / length
-        z_low = np.minimum(z0, z0 + dz)
+        z_low = np.minimum(z0, z1)  # not z0 + dz, which may miss z1 by an ulp
         abs_dz = np.abs(dz)
         inv_abs_dz = np.full_like(dz, 1e200)
         np.divide(1.0, abs_dz, out=inv_abs_dz, where=abs_dz > 0)

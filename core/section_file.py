@@ -18,8 +18,9 @@ Decisions where the spec is silent (also in DEVELOPERS.md):
   Version 1 files read as version 2 files without them. A case is written
   as version 1 whenever it holds nothing that needs version 2, so files stay
   readable by tools that know only version 1.
-- Coordinates are written back in the file's length unit, rounded to 15
-  significant digits so that unit conversion noise does not creep in.
+- Coordinates are written back in the file's length unit as the shortest
+  decimal that reads back to exactly the same value in metres (15 digits
+  where they suffice), so unit conversion noise never creeps in.
 """
 
 from __future__ import annotations
@@ -257,10 +258,31 @@ def _read_report(report):
     return ReportInfo(**report)
 
 
-def _rounded(v):
-    """Shortest float that prints within 15 significant digits of ``v``."""
-    r = float(f"{v:.15g}")
-    return int(r) if r.is_integer() and abs(r) < 2 ** 53 else r
+def _file_number(v, scale=1.0):
+    """The number to write for the SI value ``v`` in a unit of ``scale`` [m]:
+    the shortest decimal (15, 16 or 17 significant digits, or a neighbouring
+    float) that reads back times ``scale`` as exactly ``v``, so that writing
+    then reading gives the same section. Whole numbers are written as such."""
+    y = v / scale
+    cand = None
+    for digits in (15, 16, 17):
+        c = float(f"{y:.{digits}g}")
+        if c * scale == v:
+            cand = c
+            break
+    if cand is None:
+        lo = hi = y
+        for _ in range(4):
+            lo, hi = math.nextafter(lo, -math.inf), math.nextafter(hi, math.inf)
+            for c in (lo, hi):
+                if c * scale == v:
+                    cand = c
+                    break
+            if cand is not None:
+                break
+        else:  # pragma: no cover - no float reads back exactly; nearest
+            cand = float(f"{y:.17g}")
+    return int(cand) if cand.is_integer() and abs(cand) < 2 ** 53 else cand
 
 
 def case_to_dict(case):
@@ -270,20 +292,21 @@ def case_to_dict(case):
     s = case.section
     geometry = {"kind": s.kind}
     if s.kind == "plane":
-        geometry["width"] = _rounded(s.width / scale)
+        geometry["width"] = _file_number(s.width, scale)
     data = {
         "format": FORMAT,
         "version": 2 if case.uses_version_2 else 1,
         "name": s.name,
         "length_unit": case.length_unit,
         "geometry": geometry,
-        "outline": [[_rounded(x / scale), _rounded(z / scale)] for x, z in s.outline.tolist()],
+        "outline": [[_file_number(x, scale), _file_number(z, scale)]
+                    for x, z in s.outline.tolist()],
         "parts": list(s.parts),
         "fluid": liquid_to_spec(case.liquid),
         "gravity": case.gravity,
     }
     if case.fill_level is not None:
-        data["fill"] = {"level": _rounded(case.fill_level / scale)}
+        data["fill"] = {"level": _file_number(case.fill_level, scale)}
     else:
         data["fill"] = {"volume": case.fill_volume}
     if case.uses_version_2:

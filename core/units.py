@@ -25,6 +25,7 @@ from __future__ import annotations
 
 import dataclasses
 import functools
+import re
 from dataclasses import dataclass
 
 import pint
@@ -104,6 +105,10 @@ def length_factor(unit: str) -> float:
 def _length_factor(unit: str) -> float:
     if not unit:
         raise UnitError("no length unit given")
+    # One unit name only: pint would also take expressions ("m/1", "m**1")
+    # and ignore stray punctuation ("mm!"), which a file must not rely on.
+    if not re.fullmatch(r"[A-Za-z_]+", unit):
+        raise UnitError(f"unknown length unit '{unit}'")
     try:
         parsed = ureg.parse_units(unit)
     # pint's parser raises assorted types for malformed text (UndefinedUnitError,
