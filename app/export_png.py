@@ -25,7 +25,9 @@ with ``QT_QPA_PLATFORM=offscreen`` and from the command line:
 Fonts and line widths scale with the image, so the default A4-at-300-dpi
 image and a small 800 x 600 one are both legible. :func:`export_png` writes
 the image atomically (a temporary file in the same folder, then a rename);
-:func:`export_command` is the ``wetline export`` entry point.
+:func:`export_command` is the ``wetline export`` entry point. The scene
+paints on any QPaintDevice (``_Scene.paint``) or with a caller's painter
+(``_Scene.draw``): :mod:`app.export_svg` and :mod:`app.report_pdf` use it.
 
 Values inside are SI (m, Pa, N); they are converted only for the labels,
 through :mod:`core.units`.
@@ -712,8 +714,25 @@ class _Scene:
         return f"over the section width of {self.length(s.width)}"
 
     # ------------------------------------------------------------ layout
-    def paint(self, image):
-        p = QPainter(image)
+    def paint(self, device):
+        """Paint the scene on ``device``: a QImage, a QSvgGenerator, a
+        QPdfWriter ... The scene is laid out for ``size``; a device of
+        another size gets it scaled to its own width and height."""
+        p = QPainter(device)
+        if not p.isActive():
+            raise ExportError("cannot paint the diagram: the output could not be opened")
+        try:
+            sx, sy = device.width() / self.w, device.height() / self.h
+            if (sx, sy) != (1.0, 1.0):
+                p.scale(sx, sy)
+            self.draw(p)
+        finally:
+            p.end()
+
+    def draw(self, p):
+        """Paint with the active painter ``p``, whose coordinates span
+        (0, 0) to the scene's (width, height)."""
+        p.save()
         try:
             p.setRenderHint(QPainter.RenderHint.Antialiasing, True)
             p.setRenderHint(QPainter.RenderHint.TextAntialiasing, True)
@@ -757,7 +776,7 @@ class _Scene:
             else:
                 p.drawLine(QLineF(panel.left(), panel.top(), panel.right(), panel.top()))
         finally:
-            p.end()
+            p.restore()
 
     # ------------------------------------------------------- title block
     def _blocks(self):
