@@ -1,12 +1,16 @@
 """The ``wetline`` command line.
 
 Headless commands for batch work and scripts; they import no Qt (except
-``export --png``, which paints the diagram):
+``export --png/--svg`` and ``report``, which paint):
 
 - ``wetline solve FILE [--level L | --volume V] [--units si|us] [--json | --csv]``
 - ``wetline table FILE [--steps N] [--units si|us] [--csv]``
-- ``wetline export FILE [--png OUT] [--dxf OUT] [--level L | --volume V] [--units si|us]
-  [--size WxH]`` (``--png`` and/or ``--dxf``)
+- ``wetline export FILE [--png OUT] [--svg OUT] [--dxf OUT] [--level L | --volume V]
+  [--units si|us] [--size WxH]`` (at least one of ``--png``, ``--svg``, ``--dxf``)
+- ``wetline report FILE [FILE ...] -o OUT [--level L | --volume V] [--units si|us]``: the
+  PDF calculation sheet; with several files OUT is a folder (made if missing) that gets
+  ``<stem>.pdf`` for each, with progress on standard error, and a bad file is reported
+  (``error: FILE: ...``) while the others still finish (exit status 2 if any failed)
 - ``wetline import DRAWING.dxf -o OUT.section.json [--choose N|HANDLE|LAYER] [--unit U]
   [--axisymmetric] [--liquid-density RHO] [--level L]``
 
@@ -27,7 +31,7 @@ from core.report_tables import fmt
 
 __all__ = ["main"]
 
-COMMANDS = ("solve", "table", "export", "import")
+COMMANDS = ("solve", "table", "export", "import", "report")
 
 
 class CommandError(Exception):
@@ -70,17 +74,28 @@ def _parser():
     sp.add_argument("--units", choices=("si", "us"), default="si")
     sp.add_argument("--csv", action="store_true", help="comma-separated values with units in the header")
 
-    sp = sub.add_parser("export", help="draw the pressure diagram to a PNG file and/or "
-                                       "write the outline to a DXF file")
+    sp = sub.add_parser("export", help="draw the pressure diagram to a PNG and/or SVG file "
+                                       "and/or write the outline to a DXF file")
     sp.add_argument("file", metavar="FILE")
     sp.add_argument("--png", metavar="OUT", help="the PNG file to write")
+    sp.add_argument("--svg", metavar="OUT", help="the SVG (vector) file to write")
     sp.add_argument("--dxf", metavar="OUT",
                     help="the DXF file to write: the outline, each edge on a layer "
                          "named after its part, in the file's length unit")
     fill_options(sp)
     sp.add_argument("--units", choices=("si", "us"), default="si")
     sp.add_argument("--size", default=None, metavar="WxH",
-                    help="image size in pixels (default 3508x2480: A4 landscape at 300 dpi)")
+                    help="image size in pixels (default: PNG 3508x2480, A4 landscape at "
+                         "300 dpi; SVG 1600x1131)")
+
+    sp = sub.add_parser("report", help="write the PDF calculation sheet of one or more "
+                                       "section files")
+    sp.add_argument("files", nargs="+", metavar="FILE", help="*.section.json files")
+    sp.add_argument("-o", "--output", required=True, metavar="OUT",
+                    help="the PDF to write (one FILE), or a folder for <stem>.pdf of each "
+                         "FILE (several; made if missing)")
+    fill_options(sp)
+    sp.add_argument("--units", choices=("si", "us"), default="si")
 
     sp = sub.add_parser("import", help="make a section file from a closed polyline "
                                        "in a DXF drawing")
@@ -242,8 +257,8 @@ def _cmd_table(args, out):
 
 # ----------------------------------------------------------------- export
 def _cmd_export(args, out):
-    if args.png is None and args.dxf is None:
-        raise CommandError("give --png OUT and/or --dxf OUT")
+    if args.png is None and args.dxf is None and args.svg is None:
+        raise CommandError("give at least one of --png OUT, --svg OUT and --dxf OUT")
     size = None
     if args.size is not None:
         try:
@@ -263,6 +278,106 @@ def _cmd_export(args, out):
         kwargs = {} if size is None else {"size": size}
         export_png(case, args.png, units=args.units, **kwargs)
         out.write(f"wrote {args.png}\n")
+    if args.svg is not None:
+        from app.export_svg import export_svg
+
+        kwargs = {} if size is None else {"size": size}
+        export_svg(case, args.svg, units=args.units, **kwargs)
+        out.write(f"wrote {args.svg}\n")
+    return 0
+
+
+# ----------------------------------------------------------------- report
+def _stem(path):
+    """``sump`` for ``.../sump.section.json`` (else the name without its suffix)."""
+    from pathlib import Path
+
+    name = Path(path).name
+    for suffix in (".section.json", ".json"):
+        if name.lower().endswith(suffix) and len(name) > len(suffix):
+            return name[: -len(suffix)]
+    return Path(name).stem or name
+
+
+class _Progress:
+    """Progress of a batch on standard error: a bar redrawn in place on a
+    terminal, one plain line per file otherwise."""
+
+    def __init__(self, total, stream):
+        self.total, self.stream = total, stream
+        self.tty = bool(getattr(stream, "isatty", lambda: False)())
+
+    def start(self, k, name):
+        if self.tty:
+            width = 24
+            done = int(width * (k - 1) / self.total)
+            bar = "#" * done + "-" * (width - done)
+            self.stream.write(f"\r[{bar}] {k}/{self.total} {name[:40]:<40}")
+            self.stream.flush()
+
+    def finish(self, k, name, ok):
+        if self.tty:
+            if k == self.total:
+                self.stream.write(f"\r[{'#' * 24}] {k}/{self.total} done{' ' * 37}\n")
+        else:
+            self.stream.write(f"[{k}/{self.total}] {name} ... {'ok' if ok else 'failed'}\n")
+        self.stream.flush()
+
+    def message(self, text):
+        if self.tty:
+            self.stream.write("\r\033[K")
+        self.stream.write(text + "\n")
+        self.stream.flush()
+
+
+def _cmd_report(args, out):
+    from pathlib import Path
+
+    from app.report_pdf import write_report
+
+    files = list(args.files)
+    if len(files) == 1:
+        case = _load(files[0], args.level, args.volume)
+        write_report(case, args.output, units=args.units)
+        out.write(f"wrote {args.output}\n")
+        return 0
+    folder = Path(args.output)
+    if folder.exists() and not folder.is_dir():
+        raise CommandError(f"{folder} is not a folder (with several FILEs, -o names a folder)")
+    try:
+        folder.mkdir(parents=True, exist_ok=True)
+    except OSError as exc:
+        raise CommandError(f"cannot make the folder {folder}: {exc.strerror or exc}") from None
+    progress = _Progress(len(files), sys.stderr)
+    failed, written, targets = [], 0, {}
+    for k, path in enumerate(files, start=1):
+        name = Path(path).name
+        progress.start(k, name)
+        target = folder / f"{_stem(path)}.pdf"
+        problem = None
+        try:
+            if target in targets:
+                raise CommandError(f"gives the same sheet name {target.name} as "
+                                   f"{targets[target]}")
+            targets[target] = path
+            write_report(_load(path, args.level, args.volume), target, units=args.units)
+        except (CommandError, ValueError) as exc:
+            problem = str(exc)
+        except OSError as exc:
+            problem = str(exc.strerror or exc)
+        progress.finish(k, name, problem is None)
+        if problem is None:
+            written += 1
+        else:
+            failed.append(path)
+            # Messages from reading a file often start with its name already.
+            if problem.startswith(f"{name}: "):
+                problem = problem[len(name) + 2:]
+            progress.message(f"error: {path}: {problem}")
+    out.write(f"wrote {written} of {len(files)} sheets to {folder}\n")
+    if failed:
+        print(f"failed: {len(failed)} of {len(files)}: {', '.join(failed)}", file=sys.stderr)
+        return 2
     return 0
 
 
@@ -318,7 +433,7 @@ def main(argv):
 
         return launch(argv[0] if argv else None)
     handlers = {"solve": _cmd_solve, "table": _cmd_table, "export": _cmd_export,
-                "import": _cmd_import}
+                "import": _cmd_import, "report": _cmd_report}
     try:
         args = _parser().parse_args(argv)
         if args.command is None:
