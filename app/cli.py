@@ -258,7 +258,7 @@ def _cmd_table(args, out):
 # ----------------------------------------------------------------- export
 def _cmd_export(args, out):
     if args.png is None and args.dxf is None and args.svg is None:
-        raise CommandError("give at least one of --png OUT, --svg OUT and --dxf OUT")
+        raise CommandError("give --png OUT, --svg OUT and/or --dxf OUT")
     size = None
     if args.size is not None:
         try:

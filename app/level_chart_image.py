@@ -124,6 +124,7 @@ def _font(px, bold=False):
     f.setPixelSize(max(1, int(round(px))))
     if bold:
         f.setWeight(QFont.Weight.Bold)
+    f.setFeature(QFont.Tag("liga"), 0)  # text reads back as typed (PDF, SVG)
     return f
 
 

@@ -543,6 +543,8 @@ def _font(pt, bold=False, family=FONT_FAMILY):
     f.setPointSizeF(pt)
     if bold:
         f.setWeight(QFont.Weight.Bold)
+    # No "fi"/"fl" ligatures: the text must read back (and search) as typed.
+    f.setFeature(QFont.Tag("liga"), 0)
     return f
 
 
