@@ -119,6 +119,9 @@ def _write_atomic(target, folder, data):
     try:
         with os.fdopen(fd, "wb") as fh:
             fh.write(data)
+        mask = os.umask(0)  # mkstemp makes 0600: give the usual mode of a new file
+        os.umask(mask)
+        os.chmod(tmp, 0o666 & ~mask)
         os.replace(tmp, target)
     except OSError as exc:
         try:
