@@ -37,10 +37,7 @@ from __future__ import annotations
 
 import datetime
 import math
-import os
-import tempfile
 from dataclasses import dataclass
-from pathlib import Path
 
 import numpy as np
 from PySide6.QtCore import QLineF, QPointF, QRectF, Qt
@@ -56,6 +53,7 @@ from PySide6.QtGui import (
     QPolygonF,
 )
 
+from core.atomic_write import WriteError, atomic_path, check_target
 from core.section import AXIS, FLOOR, OPEN
 from core.units import display_units, length_factor
 
@@ -225,6 +223,8 @@ class _Fonts:
     def _make(px, bold=False):
         f = QFont(FONT_FAMILY)
         f.setPixelSize(max(1, int(round(px))))
+        # no ligatures: "fl" must stay two letters in a PDF's extracted text
+        f.setFeature(QFont.Tag("liga"), 0)
         if bold:
             f.setWeight(QFont.Weight.Bold)
         return f
@@ -1579,36 +1579,15 @@ def export_png(case, path, *, level=None, units="si", size=DEFAULT_SIZE, date=No
         folder in the way, no permission, disk full), naming the problem.
     """
     w, h = _check_size(size)
-    target = Path(os.fspath(path))
-    folder = target.parent if str(target.parent) else Path(".")
-    if target.name in ("", ".", ".."):
-        raise ExportError(f"cannot write the PNG to {str(target)!r}: give a file name")
-    if not folder.is_dir():
-        if folder.exists():
-            raise ExportError(f"cannot write {target}: {folder} is not a folder")
-        raise ExportError(f"cannot write {target}: the folder {folder} does not exist")
-    if target.is_dir():
-        raise ExportError(f"cannot write {target}: it is a folder")
-    image = render_diagram(case, level=level, units=units, size=(w, h), date=date)
     try:
-        fd, tmp = tempfile.mkstemp(prefix=f".{target.name}.", suffix=".tmp", dir=str(folder))
-    except OSError as exc:
-        raise ExportError(f"cannot write {target}: {exc.strerror or exc}") from None
-    os.close(fd)
-    try:
-        if not image.save(tmp, "PNG"):
-            raise ExportError(f"cannot write {target}: saving the PNG failed "
-                              "(disk full or no permission?)")
-        try:
-            os.replace(tmp, target)
-        except OSError as exc:
-            raise ExportError(f"cannot write {target}: {exc.strerror or exc}") from None
-    except BaseException:
-        try:
-            os.unlink(tmp)
-        except OSError:
-            pass
-        raise
+        check_target(path, "the PNG")
+        image = render_diagram(case, level=level, units=units, size=(w, h), date=date)
+        with atomic_path(path) as tmp:
+            if not image.save(tmp, "PNG"):
+                raise ExportError(f"cannot write {path}: saving the PNG failed "
+                                  "(disk full or no permission?)")
+    except WriteError as exc:
+        raise ExportError(str(exc)) from None
 
 
 def export_command(path_in, png_out, *, level=None, units="si", size=None):

@@ -16,13 +16,11 @@ and renamed over the target.
 from __future__ import annotations
 
 import math
-import os
-import tempfile
-from pathlib import Path
 
 from PySide6.QtCore import QBuffer, QByteArray, QIODevice, QRectF, QSize
 from PySide6.QtSvg import QSvgGenerator
 
+from core.atomic_write import WriteError, check_target, write_atomically
 from core.units import display_units
 
 from .export_png import ExportError, _check_size, _ensure_app, _program, _Scene
@@ -97,41 +95,9 @@ def export_svg(case, path, *, level=None, units="si", size=DEFAULT_SVG_SIZE, dat
         folder, a folder in the way, no permission, disk full). Nothing is
         left behind on failure.
     """
-    target = Path(os.fspath(path))
-    folder = target.parent if str(target.parent) else Path(".")
-    if target.name in ("", ".", ".."):
-        raise ExportError(f"cannot write the SVG to {str(target)!r}: give a file name")
-    if not folder.is_dir():
-        if folder.exists():
-            raise ExportError(f"cannot write {target}: {folder} is not a folder")
-        raise ExportError(f"cannot write {target}: the folder {folder} does not exist")
-    if target.is_dir():
-        raise ExportError(f"cannot write {target}: it is a folder")
-    data = render_svg(case, level=level, units=units, size=size, date=date)
-    _write_atomic(target, folder, data)
-
-
-def _write_atomic(target, folder, data):
     try:
-        fd, tmp = tempfile.mkstemp(prefix=f".{target.name}.", suffix=".tmp", dir=str(folder))
-    except OSError as exc:
-        raise ExportError(f"cannot write {target}: {exc.strerror or exc}") from None
-    try:
-        with os.fdopen(fd, "wb") as fh:
-            fh.write(data)
-        mask = os.umask(0)  # mkstemp makes 0600: give the usual mode of a new file
-        os.umask(mask)
-        os.chmod(tmp, 0o666 & ~mask)
-        os.replace(tmp, target)
-    except OSError as exc:
-        try:
-            os.unlink(tmp)
-        except OSError:
-            pass
-        raise ExportError(f"cannot write {target}: {exc.strerror or exc}") from None
-    except BaseException:
-        try:
-            os.unlink(tmp)
-        except OSError:
-            pass
-        raise
+        check_target(path, "the SVG")
+        data = render_svg(case, level=level, units=units, size=size, date=date)
+        write_atomically(path, data)
+    except WriteError as exc:
+        raise ExportError(str(exc)) from None

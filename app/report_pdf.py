@@ -37,9 +37,6 @@ from __future__ import annotations
 import datetime
 import html
 import math
-import os
-import tempfile
-from pathlib import Path
 
 from PySide6.QtCore import QBuffer, QByteArray, QIODevice, QLineF, QMarginsF, QRectF, QSizeF, Qt
 from PySide6.QtGui import (
@@ -54,6 +51,7 @@ from PySide6.QtGui import (
     QTextDocument,
 )
 
+from core.atomic_write import WriteError, check_target, write_atomically
 from core.report_tables import edges_table, fmt, parts_table, totals_table, uplift_table
 from core.results import ASSUMPTIONS, CAUTIONS
 from core.uplift import DEFAULT_REQUIRED_FACTOR, REQUIRED_FACTOR_SOURCE, UPLIFT_CAUTION
@@ -772,38 +770,9 @@ def write_report(case, path, *, level=None, units="si", date=None, progress=None
     core.units.UnitError
         For an unknown unit system.
     """
-    target = Path(os.fspath(path))
-    folder = target.parent if str(target.parent) else Path(".")
-    if target.name in ("", ".", ".."):
-        raise ReportError(f"cannot write the PDF to {str(target)!r}: give a file name")
-    if not folder.is_dir():
-        if folder.exists():
-            raise ReportError(f"cannot write {target}: {folder} is not a folder")
-        raise ReportError(f"cannot write {target}: the folder {folder} does not exist")
-    if target.is_dir():
-        raise ReportError(f"cannot write {target}: it is a folder")
-    data = report_pdf_bytes(case, level=level, units=units, date=date, progress=progress)
     try:
-        fd, tmp = tempfile.mkstemp(prefix=f".{target.name}.", suffix=".tmp", dir=str(folder))
-    except OSError as exc:
-        raise ReportError(f"cannot write {target}: {exc.strerror or exc}") from None
-    try:
-        with os.fdopen(fd, "wb") as fh:
-            fh.write(data)
-        _umask_mode(tmp)
-        os.replace(tmp, target)
-    except BaseException as exc:
-        try:
-            os.unlink(tmp)
-        except OSError:
-            pass
-        if isinstance(exc, OSError):
-            raise ReportError(f"cannot write {target}: {exc.strerror or exc}") from None
-        raise
-
-
-def _umask_mode(path):
-    """Give a temporary file the mode a new file would get (mkstemp makes 0600)."""
-    mask = os.umask(0)
-    os.umask(mask)
-    os.chmod(path, 0o666 & ~mask)
+        check_target(path, "the PDF")
+        data = report_pdf_bytes(case, level=level, units=units, date=date, progress=progress)
+        write_atomically(path, data)
+    except WriteError as exc:
+        raise ReportError(str(exc)) from None

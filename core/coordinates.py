@@ -39,7 +39,7 @@ import re
 
 import numpy as np
 
-from .units import UnitError, length_factor
+from .units import UnitError, length_factor, to_si_exactly
 
 __all__ = ["CoordinateError", "parse_coordinates", "format_coordinates"]
 
@@ -188,7 +188,7 @@ def parse_coordinates(text, *, unit="m"):
         rows.pop()  # the closing vertex repeats the first
     if len(rows) < 3:
         raise CoordinateError(f"found {len(rows)} vertices, need at least 3")
-    outline = np.array([(r[1], r[2]) for r in rows], dtype=np.float64) * scale
+    outline = to_si_exactly(np.array([(r[1], r[2]) for r in rows], dtype=np.float64), scale)
     parts = tuple((r[3] or DEFAULT_PART) for r in rows) if named else None
     return outline, parts
 

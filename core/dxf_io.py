@@ -61,8 +61,6 @@ tan(included angle / 4), positive counter-clockwise).
 from __future__ import annotations
 
 import math
-import os
-import tempfile
 from dataclasses import dataclass
 from pathlib import Path
 
@@ -72,7 +70,8 @@ import numpy as np
 from ezdxf.lldxf.validator import INVALID_LAYER_NAME_CHARACTERS
 
 from .section import Section, SectionError
-from .units import UnitError, length_factor, ureg
+from .atomic_write import atomic_path
+from .units import UnitError, length_factor, to_si_exactly, ureg
 
 __all__ = [
     "ARC_SAGITTA_RATIO",
@@ -549,7 +548,7 @@ def _scan(path, unit, arc_tolerance):
             warnings.append(f"{_plural(missing, 'edge')} of this Wetline outline "
                             "{} no part line; parts not recovered (all 'wall')".format(
                                 "has" if missing == 1 else "have"))
-        vertices = pts * scale
+        vertices = to_si_exactly(pts, scale)
         vertices.setflags(write=False)
         x, z = vertices[:, 0], vertices[:, 1]
         area = 0.5 * abs(float(np.dot(x, np.roll(z, -1)) - np.dot(np.roll(x, -1), z)))
@@ -830,15 +829,5 @@ def write_outline(section, path, *, unit="m"):
     doc.set_modelspace_vport(height=1.2 * span,
                              center=(float(lo[0] + hi[0]) / 2, float(lo[1] + hi[1]) / 2))
 
-    fd, tmp = tempfile.mkstemp(prefix=f".{path.name}.", suffix=".tmp",
-                               dir=str(path.parent or "."))
-    os.close(fd)
-    try:
+    with atomic_path(path) as tmp:
         doc.saveas(tmp)
-        os.replace(tmp, path)
-    except BaseException:
-        try:
-            os.unlink(tmp)
-        except OSError:
-            pass
-        raise

@@ -28,7 +28,6 @@ from dataclasses import dataclass
 
 import numpy as np
 
-from .section import Section
 
 __all__ = [
     "FillError",

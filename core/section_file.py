@@ -18,22 +18,23 @@ Decisions where the spec is silent (also in DEVELOPERS.md):
   Version 1 files read as version 2 files without them. A case is written
   as version 1 whenever it holds nothing that needs version 2, so files stay
   readable by tools that know only version 1.
-- Coordinates are written back in the file's length unit as the shortest
-  decimal that reads back to exactly the same value in metres (15 digits
-  where they suffice), so unit conversion noise never creeps in.
+- Lengths in another unit are converted to metres with a correctly rounded
+  decimal product (2300 mm is exactly the float 2.3 m), and written back as
+  the shortest decimal that reads back to exactly the same metres (15 digits
+  where they suffice), so saving and reading never changes a section.
 """
 
 from __future__ import annotations
 
 import json
 import math
-import os
-import tempfile
+from decimal import Decimal, localcontext
 from pathlib import Path
 
 import numpy as np
 
 from . import STANDARD_GRAVITY
+from .atomic_write import write_atomically
 from .case import Case, CaseError, ReportInfo
 from .fill import FillError
 from .liquids import LiquidError, liquid_from_spec, liquid_to_spec
@@ -178,8 +179,12 @@ def case_from_dict(data):
         if not isinstance(parts, list) or not all(isinstance(p, str) for p in parts):
             raise SectionFileError("parts must be a list of names, one per edge")
     try:
-        pts = np.array(outline, dtype=np.float64).reshape(-1, 2) * scale
-        section = Section.build(pts, parts=parts, kind=kind, width=width * scale,
+        pts = np.array(outline, dtype=np.float64).reshape(-1, 2)
+        if scale != 1.0 and np.isfinite(pts).all():
+            # from the parsed numbers themselves: they remember their text
+            pts = np.array([[_to_metres(x, scale), _to_metres(z, scale)] for x, z in outline],
+                           dtype=np.float64).reshape(-1, 2)
+        section = Section.build(pts, parts=parts, kind=kind, width=_to_metres(width, scale),
                                 name=name)
     except SectionError as exc:
         raise SectionFileError(str(exc), edges=exc.edges, vertices=exc.vertices,
@@ -206,7 +211,7 @@ def case_from_dict(data):
         raise SectionFileError("fill must give exactly one of \"level\" and \"volume\"")
     level = volume = None
     if "level" in fill:
-        level = _number(fill, "level", "fill.") * scale
+        level = _to_metres(_number(fill, "level", "fill."), scale)
     else:
         volume = _number(fill, "volume", "fill.")
         if volume < 0:
@@ -258,31 +263,51 @@ def _read_report(report):
     return ReportInfo(**report)
 
 
-def _file_number(v, scale=1.0):
-    """The number to write for the SI value ``v`` in a unit of ``scale`` [m]:
-    the shortest decimal (15, 16 or 17 significant digits, or a neighbouring
-    float) that reads back times ``scale`` as exactly ``v``, so that writing
-    then reading gives the same section. Whole numbers are written as such."""
-    y = v / scale
-    cand = None
-    for digits in (15, 16, 17):
-        c = float(f"{y:.{digits}g}")
-        if c * scale == v:
-            cand = c
-            break
-    if cand is None:
-        lo = hi = y
-        for _ in range(4):
-            lo, hi = math.nextafter(lo, -math.inf), math.nextafter(hi, math.inf)
-            for c in (lo, hi):
-                if c * scale == v:
-                    cand = c
-                    break
-            if cand is not None:
-                break
-        else:  # pragma: no cover - no float reads back exactly; nearest
-            cand = float(f"{y:.17g}")
-    return int(cand) if cand.is_integer() and abs(cand) < 2 ** 53 else cand
+class _Exact(float):
+    """A float read from file text that remembers the text, so a length in
+    another unit converts to metres from the exact decimal written."""
+
+    def __new__(cls, text):
+        self = super().__new__(cls, text)
+        self.text = text
+        return self
+
+
+def _to_metres(value, scale):
+    """``value`` in a unit of ``scale`` metres, converted to metres with one
+    correctly rounded decimal product (a binary multiply can miss by an ulp:
+    2300 * 0.001 = 2.3000000000000003)."""
+    if scale == 1.0:
+        return float(value)
+    exact = Decimal(getattr(value, "text", None) or repr(float(value)))
+    return float(exact * Decimal(repr(scale)))
+
+
+def _decimal_text(d):
+    """Plain JSON text of a Decimal: no trailing zeros, no exponent for
+    ordinary magnitudes."""
+    d = d.normalize()
+    if d == d.to_integral_value() and abs(d) < 2 ** 53:
+        return str(int(d))
+    if -7 <= d.adjusted() < 16:
+        return f"{d:f}"
+    return f"{d:e}"
+
+
+def _length_text(v, scale=1.0):
+    """The number to write for the SI length ``v`` [m] in a unit of ``scale``
+    metres: the shortest decimal (15 significant digits where they suffice,
+    at most 25) that :func:`_to_metres` reads back as exactly ``v``."""
+    if scale == 1.0:
+        return _decimal_text(Decimal(repr(v)))
+    with localcontext() as ctx:
+        ctx.prec = 40
+        y = Decimal(repr(v)) / Decimal(repr(scale))
+        for digits in range(15, 26):
+            text = _decimal_text(Decimal(format(y, f".{digits - 1}e")))
+            if _to_metres(_Exact(text), scale) == v:
+                return text
+    return _decimal_text(y)  # pragma: no cover - 25 digits always suffice
 
 
 def case_to_dict(case):
@@ -292,21 +317,21 @@ def case_to_dict(case):
     s = case.section
     geometry = {"kind": s.kind}
     if s.kind == "plane":
-        geometry["width"] = _file_number(s.width, scale)
+        geometry["width"] = float(_length_text(s.width, scale))
     data = {
         "format": FORMAT,
         "version": 2 if case.uses_version_2 else 1,
         "name": s.name,
         "length_unit": case.length_unit,
         "geometry": geometry,
-        "outline": [[_file_number(x, scale), _file_number(z, scale)]
+        "outline": [[float(_length_text(x, scale)), float(_length_text(z, scale))]
                     for x, z in s.outline.tolist()],
         "parts": list(s.parts),
         "fluid": liquid_to_spec(case.liquid),
         "gravity": case.gravity,
     }
     if case.fill_level is not None:
-        data["fill"] = {"level": _file_number(case.fill_level, scale)}
+        data["fill"] = {"level": float(_length_text(case.fill_level, scale))}
     else:
         data["fill"] = {"volume": case.fill_volume}
     if case.uses_version_2:
@@ -324,27 +349,49 @@ def case_to_dict(case):
 
 
 def dumps_case(case):
-    """The section file text of ``case``: JSON, one vertex per line."""
+    """The section file text of ``case``: JSON, one vertex per line, lengths
+    written so that reading gives back exactly the same case."""
     data = case_to_dict(case)
-    outline = data.pop("outline")
+    scale = length_factor(case.length_unit)
+    s = case.section
+    outline = [f"[{_length_text(x, scale)}, {_length_text(z, scale)}]"
+               for x, z in s.outline.tolist()]
+    data.pop("outline")
+    if "width" in data["geometry"]:
+        data["geometry"] = {"kind": s.kind, "width": _Raw(_length_text(s.width, scale))}
     parts = data.pop("parts")
     fill = data.pop("fill")
+    if "level" in fill:
+        fill = {"level": _Raw(_length_text(case.fill_level, scale))}
     tail = {k: data.pop(k) for k in ("uplift", "report") if k in data}
     lines = ["{"]
-    body = [f"  {json.dumps(k)}: {json.dumps(v)}" for k, v in data.items()]
-    body.append('  "outline": [\n' + ",\n".join(f"    {json.dumps(p)}" for p in outline) + "\n  ]")
+    body = [f"  {json.dumps(k)}: {_dumps(v)}" for k, v in data.items()]
+    body.append('  "outline": [\n' + ",\n".join(f"    {p}" for p in outline) + "\n  ]")
     body.append(f'  "parts": {json.dumps(parts)}')
-    body.append(f'  "fill": {json.dumps(fill)}')
+    body.append(f'  "fill": {_dumps(fill)}')
     body += [f"  {json.dumps(k)}: {json.dumps(v)}" for k, v in tail.items()]
     lines.append(",\n".join(body))
     lines.append("}")
     return "\n".join(lines) + "\n"
 
 
+class _Raw(str):
+    """Number text to write as it is."""
+
+
+def _dumps(obj):
+    """json.dumps for small objects whose numbers may be :class:`_Raw` text."""
+    if isinstance(obj, _Raw):
+        return str(obj)
+    if isinstance(obj, dict):
+        return "{" + ", ".join(f"{json.dumps(k)}: {_dumps(v)}" for k, v in obj.items()) + "}"
+    return json.dumps(obj)
+
+
 def loads_case(text, source="section file"):
     """Parse section file text into a :class:`~core.case.Case`."""
     try:
-        data = json.loads(text)
+        data = json.loads(text, parse_float=_Exact)
     except json.JSONDecodeError as exc:
         raise SectionFileError(
             f"{source} is not valid JSON (line {exc.lineno}, column {exc.colno}: {exc.msg})"
@@ -390,20 +437,11 @@ def read_section_file(path):
 
 def write_section_file(case, path):
     """Write ``case`` to ``path`` atomically (a temporary file in the same
-    folder, then a rename), so a failed save never leaves a half file."""
-    path = Path(path)
-    text = dumps_case(case)
-    fd, tmp = tempfile.mkstemp(prefix=f".{path.name}.", suffix=".tmp",
-                               dir=str(path.parent or "."))
-    try:
-        with os.fdopen(fd, "w", encoding="utf-8", newline="\n") as fh:
-            fh.write(text)
-            fh.flush()
-            os.fsync(fh.fileno())
-        os.replace(tmp, path)
-    except BaseException:
-        try:
-            os.unlink(tmp)
-        except OSError:
-            pass
-        raise
+    folder, then a rename), so a failed save never leaves a half file.
+
+    Raises
+    ------
+    core.atomic_write.WriteError
+        An OSError naming the file and the reason.
+    """
+    write_atomically(path, dumps_case(case))

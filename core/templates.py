@@ -100,8 +100,9 @@ def _open_tank(tank_width, height):
 def _flared_hopper(top_width, outlet_width, hopper_height, upright_height):
     _need(outlet_width < top_width, "the outlet must be narrower than the top")
     a = (top_width - outlet_width) / 2
+    b = (top_width + outlet_width) / 2
     top = hopper_height + upright_height
-    return ([[a, 0], [a + outlet_width, 0], [top_width, hopper_height], [top_width, top],
+    return ([[a, 0], [b, 0], [top_width, hopper_height], [top_width, top],
              [0, top], [0, hopper_height]],
             ["floor", "hopper", "wall", "open", "wall", "hopper"])
 
@@ -109,7 +110,7 @@ def _flared_hopper(top_width, outlet_width, hopper_height, upright_height):
 def _chamber_under_riser(chamber_width, chamber_height, riser_width, riser_height):
     _need(riser_width < chamber_width, "the riser must be narrower than the chamber")
     a = (chamber_width - riser_width) / 2
-    b = a + riser_width
+    b = (chamber_width + riser_width) / 2
     h, t = chamber_height, chamber_height + riser_height
     return ([[0, 0], [chamber_width, 0], [chamber_width, h], [b, h], [b, t], [a, t],
              [a, h], [0, h]],

@@ -25,15 +25,19 @@ from __future__ import annotations
 
 import dataclasses
 import functools
+import math
 import re
 from dataclasses import dataclass
+from decimal import Decimal
 
+import numpy as np
 import pint
 
 __all__ = [
     "ureg",
     "UnitError",
     "length_factor",
+    "to_si_exactly",
     "DisplayUnit",
     "DisplayUnits",
     "QUANTITIES",
@@ -118,6 +122,42 @@ def _length_factor(unit: str) -> float:
     if parsed.dimensionality != _METRE.dimensionality:
         raise UnitError(f"'{unit}' is not a length unit")
     return _round_factor(ureg.Quantity(1.0, parsed).m_as(_METRE))
+
+
+def to_si_exactly(values, factor):
+    """``values * factor``, each product correctly rounded.
+
+    A binary multiply can miss the nearest float by an ulp (2300 * 0.001 is
+    2.3000000000000003, not 2.3); this takes the decimal product of the
+    shortest representations, so 2300 mm is exactly the float 2.3 m and a
+    value saved back in mm reads as the same number.
+
+    Parameters
+    ----------
+    values : float or array_like
+        Values in the unit of ``factor``.
+    factor : float
+        SI value of one unit (e.g. :func:`length_factor`) [SI].
+
+    Returns
+    -------
+    float or numpy.ndarray
+        [SI]
+
+    Examples
+    --------
+    >>> to_si_exactly(2300.0, 0.001), 2300.0 * 0.001
+    (2.3, 2.3000000000000003)
+    """
+    if factor == 1.0:
+        return values if np.ndim(values) else float(values)
+    f = Decimal(repr(float(factor)))
+    if np.ndim(values) == 0:
+        return float(Decimal(repr(float(values))) * f)
+    arr = np.asarray(values, dtype=np.float64)
+    flat = [float(Decimal(repr(v)) * f) if math.isfinite(v) else v * factor
+            for v in arr.ravel().tolist()]
+    return np.array(flat, dtype=np.float64).reshape(arr.shape)
 
 
 QUANTITIES = (

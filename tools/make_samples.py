@@ -6,6 +6,7 @@ stay in step with the GUI's. Run from the repository root:
     python tools/make_samples.py
 """
 
+from decimal import Decimal
 from pathlib import Path
 
 from core.case import Case
@@ -16,7 +17,15 @@ from core.units import length_factor
 
 OUT = Path(__file__).resolve().parent.parent / "sample_sections"
 
-# file stem, template, dimensions [m], name, liquid, fill level [m], file unit
+
+def ft(v):
+    """Feet to metres, correctly rounded (as reading a file in ft does)."""
+    return float(Decimal(str(v)) * Decimal("0.3048"))
+
+
+# file stem, template, dimensions [m], name, liquid, fill level [m], file unit;
+# plane sections are 1 m wide (results per metre run) except the one in feet,
+# which is 1 ft wide (results per foot run).
 SAMPLES = [
     ("open_tank", "open_tank", dict(tank_width=6.0, height=3.2),
      "Settled-water holding tank, filter block", fresh_water(12.0), 2.8, "m"),
@@ -35,16 +44,16 @@ SAMPLES = [
      dict(radius=1.2, outlet_radius=0.15, cone_height=1.6, shell_height=2.4),
      "Ferric dosing tank, cone-bottomed", listed_liquid("ferric chloride 40 %"), 3.5, "m"),
     ("seawater_intake_bay", "sump_with_lid",
-     dict(well_width=14 * 0.3048, well_depth=10 * 0.3048, shaft_width=9 * 0.3048,
-          shaft_height=8 * 0.3048),
-     "Seawater intake bay under a pump deck", seawater(10.0, 35.0), 14 * 0.3048, "ft"),
+     dict(well_width=ft(14), well_depth=ft(10), shaft_width=ft(9), shaft_height=ft(8)),
+     "Seawater intake bay under a pump deck", seawater(10.0, 35.0), ft(14), "ft"),
 ]
 
 
 def main():
     OUT.mkdir(exist_ok=True)
     for stem, key, dims, name, liquid, level, unit in SAMPLES:
-        section = TEMPLATES[key].build(name=name, **dims)
+        width = ft(1) if unit == "ft" else 1.0
+        section = TEMPLATES[key].build(name=name, width=width, **dims)
         case = Case(section=section, liquid=liquid, fill_level=level, length_unit=unit)
         path = OUT / f"{stem}.section.json"
         write_section_file(case, path)

@@ -118,7 +118,7 @@ def test_export_dxf_then_import_gives_the_same_section(tmp_path, capsys, path):
 def test_export_needs_png_or_dxf(capsys):
     status, _, err = run(capsys, "export", SAMPLES[0])
     assert status == 2
-    assert err == "error: give --png OUT and/or --dxf OUT\n"
+    assert err == "error: give --png OUT, --svg OUT and/or --dxf OUT\n"
 
 
 @pytest.mark.parametrize("argv, words", [

@@ -12,6 +12,7 @@ import pytest  # noqa: E402
 from PySide6.QtGui import QColor, QImage  # noqa: E402
 
 from app import export_png as ex  # noqa: E402
+import core.atomic_write as atomic_write  # noqa: E402
 from app.export_png import (  # noqa: E402
     CAUTION,
     DEFAULT_SIZE,
@@ -285,7 +286,7 @@ def test_failed_rename_removes_the_temporary_file(tmp_path, monkeypatch):
     def refuse(src, dst):
         raise PermissionError(13, "Permission denied")
 
-    monkeypatch.setattr(ex.os, "replace", refuse)
+    monkeypatch.setattr(atomic_write.os, "replace", refuse)
     out = tmp_path / "x.png"
     with pytest.raises(ExportError, match="Permission denied"):
         export_png(template_case("open_tank"), out, size=SMALL)
