@@ -154,6 +154,18 @@ class Solution:
         return max(self.level - self.section.z_max, 0.0)
 
 
+def checked_density_and_gravity(density, gravity):
+    """``(density, gravity)`` as floats; ValueError unless both are positive
+    finite numbers [kg/m3], [m/s2]."""
+    density = float(density)
+    gravity = float(gravity)
+    if not (np.isfinite(density) and density > 0):
+        raise ValueError(f"density must be positive, not {density:g}")
+    if not (np.isfinite(gravity) and gravity > 0):
+        raise ValueError(f"gravity must be positive, not {gravity:g}")
+    return density, gravity
+
+
 def resolve_level(section, level):
     """The level actually used for a requested one, and warnings.
 
@@ -236,12 +248,7 @@ def solve(section, level, density, gravity=STANDARD_GRAVITY):
     >>> round(float(r.fx[1]), 3), round(float(r.centre_of_pressure[1, 1]), 12)
     (44129.925, 1.0)
     """
-    density = float(density)
-    gravity = float(gravity)
-    if not (np.isfinite(density) and density > 0):
-        raise ValueError(f"density must be positive, not {density:g}")
-    if not (np.isfinite(gravity) and gravity > 0):
-        raise ValueError(f"gravity must be positive, not {gravity:g}")
+    density, gravity = checked_density_and_gravity(density, gravity)
     h, warnings = resolve_level(section, level)
     geo = section.geometry
     n = section.n_edges

@@ -14,6 +14,7 @@ import numpy as np
 
 from . import STANDARD_GRAVITY
 from .fill import _clipped, _green_sum
+from .hydrostatics import checked_density_and_gravity
 from .section import FLOOR
 
 __all__ = ["LevelTable", "level_table", "part_down_at", "DEFAULT_STEPS"]
@@ -95,12 +96,7 @@ def level_table(section, density, gravity=STANDARD_GRAVITY, steps=DEFAULT_STEPS,
     >>> t.levels.tolist(), t.volume.tolist()
     ([0.0, 1.0, 2.0, 3.0], [0.0, 2.0, 4.0, 6.0])
     """
-    density = float(density)
-    gravity = float(gravity)
-    if not (np.isfinite(density) and density > 0):
-        raise ValueError(f"density must be positive, not {density:g}")
-    if not (np.isfinite(gravity) and gravity > 0):
-        raise ValueError(f"gravity must be positive, not {gravity:g}")
+    density, gravity = checked_density_and_gravity(density, gravity)
     if levels is None:
         steps = int(steps)
         if steps < 2:
