@@ -25,7 +25,7 @@ with ``QT_QPA_PLATFORM=offscreen`` and from the command line:
 Fonts and line widths scale with the image, so the default A4-at-300-dpi
 image and a small 800 x 600 one are both legible. :func:`export_png` writes
 the image atomically (a temporary file in the same folder, then a rename);
-:func:`export_command` is the ``wetline export`` entry point. The scene
+``wetline export FILE --png OUT`` (:mod:`app.cli`) calls it. The scene
 paints on any QPaintDevice (``_Scene.paint``) or with a caller's painter
 (``_Scene.draw``): :mod:`app.export_svg` and :mod:`app.report_pdf` use it.
 
@@ -63,7 +63,6 @@ __all__ = [
     "MAX_SIDE",
     "MIN_SIDE",
     "ExportError",
-    "export_command",
     "export_png",
     "render_diagram",
 ]
@@ -1588,36 +1587,3 @@ def export_png(case, path, *, level=None, units="si", size=DEFAULT_SIZE, date=No
                                   "(disk full or no permission?)")
     except WriteError as exc:
         raise ExportError(str(exc)) from None
-
-
-def export_command(path_in, png_out, *, level=None, units="si", size=None):
-    """``wetline export FILE --png OUT [--level L] [--units si|us] [--size WxH]``.
-
-    Parameters
-    ----------
-    path_in : str or os.PathLike
-        The section file.
-    png_out : str or os.PathLike
-        The PNG to write.
-    level : float, optional
-        Free-surface height in the FILE's length unit (as ``fill.level``).
-    units : str
-        ``"si"`` or ``"us"``.
-    size : (int, int), optional
-        Image size [px]; default :data:`DEFAULT_SIZE`.
-
-    Raises
-    ------
-    core.section_file.SectionFileError, ExportError
-        Both ValueError subclasses with a one-line message.
-    """
-    from core.section_file import read_section_file
-
-    display_units(units)  # an unknown system fails before any work
-    case = read_section_file(path_in)
-    if level is not None:
-        level = float(level)
-        if not math.isfinite(level):
-            raise ExportError(f"level must be a finite number, not {level}")
-        case = case.with_level(level * length_factor(case.length_unit))
-    export_png(case, png_out, units=units, size=DEFAULT_SIZE if size is None else size)

@@ -17,7 +17,6 @@ from app.export_png import (  # noqa: E402
     CAUTION,
     DEFAULT_SIZE,
     ExportError,
-    export_command,
     export_png,
     render_diagram,
 )
@@ -299,7 +298,9 @@ def test_bad_level_is_refused():
 
 
 # ---------------------------------------------------------- command line
-def test_export_command_reads_the_file_and_converts_the_level(tmp_path, monkeypatch):
+def test_export_command_reads_the_file_and_converts_the_level(tmp_path, monkeypatch, capsys):
+    from app.cli import main
+
     case = template_case("open_tank").with_length_unit("mm")
     src = tmp_path / "tank.section.json"
     write_section_file(case, src)
@@ -310,32 +311,40 @@ def test_export_command_reads_the_file_and_converts_the_level(tmp_path, monkeypa
         seen.update(case=case, path=path, **kwargs)
 
     monkeypatch.setattr(ex, "export_png", fake_export)
-    export_command(src, tmp_path / "out.png", level=1200, units="us", size=(900, 700))
-    assert seen["case"].fill_level == pytest.approx(1.2)
+    out = str(tmp_path / "out.png")
+    assert main(["export", str(src), "--png", out, "--level", "1200", "--units", "us",
+                 "--size", "900x700"]) == 0
+    assert seen["case"].fill_level == 1.2  # 1200 mm, converted exactly
     assert seen["units"] == "us"
     assert seen["size"] == (900, 700)
-    export_command(src, tmp_path / "out.png")
-    assert seen["size"] == DEFAULT_SIZE
-    assert seen["case"].fill_level == pytest.approx(read_section_file(src).fill_level)
+    seen.clear()
+    assert main(["export", str(src), "--png", out]) == 0
+    assert "size" not in seen  # export_png's own default, A4 at 300 dpi
+    assert seen["case"].fill_level == read_section_file(src).fill_level
 
 
-def test_export_command_writes_a_png(tmp_path):
+def test_export_command_writes_a_png(tmp_path, capsys):
+    from app.cli import main
+
     src = tmp_path / "sump.section.json"
     write_section_file(template_case("sump_with_lid"), src)
     out = tmp_path / "sump.png"
-    export_command(src, out, level=2.0, size=SMALL)
+    assert main(["export", str(src), "--png", str(out), "--level", "2",
+                 "--size", f"{SMALL[0]}x{SMALL[1]}"]) == 0
     assert_drawn(out, SMALL)
 
 
-def test_export_command_refuses_bad_input(tmp_path):
-    from core.section_file import SectionFileError
+def test_export_command_refuses_bad_input(tmp_path, capsys):
+    from app.cli import main
 
-    with pytest.raises(SectionFileError, match="no such file"):
-        export_command(tmp_path / "none.section.json", tmp_path / "x.png")
+    assert main(["export", str(tmp_path / "none.section.json"), "--png",
+                 str(tmp_path / "x.png")]) == 2
+    assert "no such file" in capsys.readouterr().err
     src = tmp_path / "t.section.json"
     write_section_file(template_case("open_tank"), src)
-    with pytest.raises(ExportError, match="finite"):
-        export_command(src, tmp_path / "x.png", level=float("inf"))
-    with pytest.raises(ValueError, match="unit system"):
-        export_command(src, tmp_path / "x.png", units="imperial")
+    assert main(["export", str(src), "--png", str(tmp_path / "x.png"), "--level", "inf"]) == 2
+    assert "finite" in capsys.readouterr().err
+    assert main(["export", str(src), "--png", str(tmp_path / "x.png"), "--units",
+                 "imperial"]) == 2
+    assert "invalid choice" in capsys.readouterr().err
     assert sorted(p.name for p in tmp_path.iterdir()) == ["t.section.json"]
