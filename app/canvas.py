@@ -27,6 +27,7 @@ from core.section import AXIS, FLOOR, OPEN, Section, SectionError
 from . import editing
 from .diagram import (arrow_strokes, auto_scale, diagram_polygons, part_runs,
                       pressure_arrows, run_resultants, wetted_edges)
+from .grid import LightGrid
 from .display import format_number
 
 __all__ = ["SectionCanvas", "VertexHandles", "part_colour", "RESERVED_PART_CHOICES"]
@@ -54,7 +55,7 @@ HIGHLIGHT_COLOUR = "#f2b705"
 FAULT_COLOUR = "#d00000"
 MAX_HANDLES = 3000
 """Above this many vertices the handles are hidden (edit in the table)."""
-MAX_PRESSURE_LABELS = 24
+MAX_PRESSURE_LABELS = 16
 MAX_RESULTANT_LABELS = 30
 
 
@@ -164,7 +165,7 @@ class SectionCanvas(pg.PlotWidget):
 
         plot = self.getPlotItem()
         plot.setAspectLocked(True)
-        plot.showGrid(x=True, y=True, alpha=0.18)
+        self._grid = LightGrid(plot.getViewBox())
         plot.setMenuEnabled(False)
         plot.hideButtons()
         self.setMouseTracking(True)

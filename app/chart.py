@@ -15,6 +15,7 @@ from PySide6.QtCore import Qt
 from core.section import FLOOR
 
 from .canvas import part_colour
+from .grid import LightGrid
 
 __all__ = ["LoadChart"]
 
@@ -30,7 +31,7 @@ class LoadChart(pg.PlotWidget):
         super().__init__(parent, background="w")
         self._doc = document
         plot = self.getPlotItem()
-        plot.showGrid(x=True, y=True, alpha=0.18)
+        self._grid = LightGrid(plot.getViewBox())
         plot.setMenuEnabled(False)
         plot.hideButtons()
         self._legend = plot.addLegend(offset=(8, 8), labelTextSize="8pt")
@@ -38,11 +39,11 @@ class LoadChart(pg.PlotWidget):
         self.cursor = pg.InfiniteLine(angle=90, movable=False,
                                       pen=pg.mkPen("#d04a02", width=1.5))
         self.cursor_label = pg.TextItem(color="#d04a02", anchor=(0, 0))
-        plot.addItem(self.cursor)
-        plot.addItem(self.cursor_label)
+        plot.addItem(self.cursor, ignoreBounds=True)
+        plot.addItem(self.cursor_label, ignoreBounds=True)
         self._zero = pg.InfiniteLine(angle=0, movable=False, pos=0,
                                      pen=pg.mkPen("#888888", width=1))
-        plot.addItem(self._zero)
+        plot.addItem(self._zero, ignoreBounds=True)
         document.levelTableReady.connect(self._on_levelTableReady)
         document.solved.connect(self._on_solved)
         document.unitsChanged.connect(self._on_unitsChanged)

@@ -14,8 +14,13 @@ import numpy as np
 
 from core.section import AXIS, OPEN
 
-__all__ = ["WettedEdges", "wetted_edges", "auto_scale", "diagram_polygons",
+__all__ = ["WettedEdges", "wetted_edges", "auto_scale", "diagram_polygons", "chain_starts",
            "pressure_arrows", "arrow_strokes", "PartRun", "part_runs", "run_resultants"]
+
+
+KINK_COS = 0.985
+"""Cosine of the angle between neighbouring edges above which the diagram
+does not return to the wall at their common vertex (about 10 degrees)."""
 
 
 @dataclass(frozen=True)
@@ -69,45 +74,80 @@ def auto_scale(section, max_pressure, fraction=0.3):
 
 
 def diagram_polygons(w, scale):
-    """The diagrams as one point list for a path: per wetted edge the
-    polygon wall A, A + pa n, B + pb n, wall B, A (5 points). Returns x, z and
-    ``connect`` (False after each polygon's last point)."""
+    """The diagrams as few polygons: one per chain of consecutive wetted
+    edges (wall points forward, then the diagram's outer edge back), so a
+    wall of ten thousand edges fills as one polygon (a path of thousands of
+    small overlapping polygons takes hundreds of ms to fill).
+
+    Returns x, z and ``connect`` (False after each polygon's last point),
+    for :func:`pyqtgraph.arrayToQPath`.
+    """
     m = w.index.size
-    x = np.empty((m, 5))
-    z = np.empty((m, 5))
-    x[:, 0] = x[:, 4] = w.ax
-    z[:, 0] = z[:, 4] = w.az
-    x[:, 1] = w.ax + w.pa * scale * w.nx
-    z[:, 1] = w.az + w.pa * scale * w.nz
-    x[:, 2] = w.bx + w.pb * scale * w.nx
-    z[:, 2] = w.bz + w.pb * scale * w.nz
-    x[:, 3] = w.bx
-    z[:, 3] = w.bz
-    connect = np.ones((m, 5), dtype=bool)
-    connect[:, 4] = False
-    return x.ravel(), z.ravel(), connect.ravel()
+    if m == 0:
+        e = np.empty(0)
+        return e, e, np.empty(0, dtype=bool)
+    # Each chain: its outer edge forward (outer A, outer B of every edge,
+    # dipping to the wall vertex at real kinks so the corner between two
+    # diagrams stays empty), then back along the wall. Dipping at every
+    # vertex would be exact too, but a path doubling back ten thousand
+    # times fills a hundred times slower.
+    starts = chain_starts(w)
+    kink = np.zeros(m, dtype=bool)  # after edge k
+    kink[:-1] = (w.nx[:-1] * w.nx[1:] + w.nz[:-1] * w.nz[1:]) < KINK_COS
+    nan = np.full(m, np.nan)
+    fx = np.column_stack([w.ax + w.pa * scale * w.nx, w.bx + w.pb * scale * w.nx,
+                          np.where(kink, w.bx, nan)])
+    fz = np.column_stack([w.az + w.pa * scale * w.nz, w.bz + w.pb * scale * w.nz,
+                          np.where(kink, w.bz, nan)])
+    bounds = np.append(starts, m)
+    xs, zs, cs = [], [], []
+    for k0, k1 in zip(bounds[:-1], bounds[1:]):
+        ox = fx[k0:k1].ravel()
+        oz = fz[k0:k1].ravel()
+        keep = ~np.isnan(ox)
+        keep[-1] = False  # the chain's end is added with the wall below
+        x = np.concatenate([w.ax[k0:k0 + 1], ox[keep], w.bx[k1 - 1:k1], w.bx[k0:k1][::-1],
+                            w.ax[k0:k0 + 1]])
+        z = np.concatenate([w.az[k0:k0 + 1], oz[keep], w.bz[k1 - 1:k1], w.bz[k0:k1][::-1],
+                            w.az[k0:k0 + 1]])
+        c = np.ones(x.size, dtype=bool)
+        c[-1] = False
+        xs.append(x)
+        zs.append(z)
+        cs.append(c)
+    return np.concatenate(xs), np.concatenate(zs), np.concatenate(cs)
 
 
-def pressure_arrows(w, scale, count=48, limit=2000):
-    """Arrow tails (on the wall), tips (at the diagram edge) for about
-    ``count`` arrows spread evenly over the wetted perimeter (at most
-    ``limit``). Returns tail_x, tail_z, tip_x, tip_z."""
+def chain_starts(w):
+    """Positions in ``w`` where a chain of joined wetted edges starts (the
+    previous wetted edge is not the previous edge, or they do not meet).
+    The arrays are used in order; a chain wrapping past the last edge is
+    split there."""
+    m = w.index.size
+    if m == 0:
+        return np.empty(0, dtype=np.intp)
+    size = max(float(np.ptp(np.concatenate([w.ax, w.bx]))),
+               float(np.ptp(np.concatenate([w.az, w.bz]))), 1e-300)
+    joined = np.zeros(m, dtype=bool)
+    joined[1:] = ((w.index[1:] == w.index[:-1] + 1)
+                  & (np.abs(w.ax[1:] - w.bx[:-1]) <= 1e-12 * size)
+                  & (np.abs(w.az[1:] - w.bz[:-1]) <= 1e-12 * size))
+    return np.flatnonzero(~joined)
+
+
+def pressure_arrows(w, scale, count=48):
+    """Tails (on the wall) and tips (at the diagram's outer edge) of
+    ``count`` arrows spread evenly along the wetted perimeter, whatever the
+    number of edges. Returns tail_x, tail_z, tip_x, tip_z."""
     length = np.sqrt((w.bx - w.ax) ** 2 + (w.bz - w.az) ** 2)
     total = float(length.sum())
     if total <= 0:
         e = np.empty(0)
         return e, e, e, e
-    spacing = total / count
-    k = np.floor(length / spacing).astype(np.intp)
-    k = np.maximum(k, 1)
-    if k.sum() > limit:
-        k = np.zeros_like(k)
-        k[np.linspace(0, k.size - 1, limit).astype(np.intp)] = 1
-    edge = np.repeat(np.arange(k.size), k)
-    # Position j of k along each edge: (j + 0.5) / k.
-    start = np.cumsum(k) - k
-    j = np.arange(edge.size) - start[edge]
-    t = (j + 0.5) / k[edge]
+    cum = np.cumsum(length)
+    s = (np.arange(count) + 0.5) * (total / count)
+    edge = np.minimum(np.searchsorted(cum, s, side="right"), length.size - 1)
+    t = (s - (cum[edge] - length[edge])) / np.where(length[edge] > 0, length[edge], 1.0)
     px = w.ax[edge] + t * (w.bx[edge] - w.ax[edge])
     pz = w.az[edge] + t * (w.bz[edge] - w.az[edge])
     p = w.pa[edge] + t * (w.pb[edge] - w.pa[edge])

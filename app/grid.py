@@ -1,0 +1,54 @@
+"""Light background grid lines for the plots, as one line-pairs curve.
+
+pyqtgraph's axis grid and GridItem cost several milliseconds per repaint
+offscreen; a few dozen plain line segments, recomputed only when the view
+range changes, cost almost nothing.
+"""
+
+from __future__ import annotations
+
+import math
+
+import numpy as np
+import pyqtgraph as pg
+
+__all__ = ["LightGrid", "nice_step"]
+
+
+def nice_step(span, target=10):
+    """A 1-2-5 step giving about ``target`` intervals over ``span``."""
+    if not span > 0 or not math.isfinite(span):
+        return 1.0
+    raw = span / target
+    mag = 10 ** math.floor(math.log10(raw))
+    for m in (1, 2, 5, 10):
+        if raw <= m * mag:
+            return m * mag
+    return 10 * mag
+
+
+class LightGrid(pg.PlotCurveItem):
+    """Grid lines following the view box's range."""
+
+    def __init__(self, viewbox, colour="#e6e9ee"):
+        super().__init__(connect="pairs", skipFiniteCheck=True, pen=pg.mkPen(colour, width=1))
+        self.setZValue(-100)
+        self._vb = viewbox
+        viewbox.addItem(self, ignoreBounds=True)
+        viewbox.sigRangeChanged.connect(self._on_rangeChanged)
+        self._on_rangeChanged()
+
+    def _on_rangeChanged(self, *_):
+        (x0, x1), (y0, y1) = self._vb.viewRange()
+        xs = self._lines(x0, x1)
+        ys = self._lines(y0, y1)
+        x = np.concatenate([np.repeat(xs, 2), np.tile([x0, x1], ys.size)])
+        y = np.concatenate([np.tile([y0, y1], xs.size), np.repeat(ys, 2)])
+        self.setData(x, y)
+
+    @staticmethod
+    def _lines(a, b):
+        step = nice_step(b - a)
+        if not (math.isfinite(a) and math.isfinite(b)) or (b - a) / step > 200:
+            return np.empty(0)
+        return np.arange(math.ceil(a / step), math.floor(b / step) + 1) * step
