@@ -456,11 +456,14 @@ class SectionCanvas(pg.PlotWidget):
         self._arrows.setData(ax, az)
 
         self._labels_used = 0
-        self._label_pressures(w, scale, units)
+        self._placed = []
+        px = self._vb.viewPixelSize()
+        self._px = (px[0] or 1e-9, px[1] or 1e-9)
         if self._runs is None or self._runs_section is not section:
             self._runs = part_runs(section)
             self._runs_section = section
         self._draw_resultants(solution, w, size, units)
+        self._label_pressures(w, scale, units)
         if spill is not None:
             self._label(xmax + 2 * margin, spill, "spill level", "#5a6b7d", (0, 0.5))
         if h > zmin:
@@ -486,7 +489,21 @@ class SectionCanvas(pg.PlotWidget):
             return QPainterPath()
         return _path(np.concatenate(xs), np.concatenate(zs), np.concatenate(cs))
 
-    def _label(self, x, z, text, colour, anchor, bold=False):
+    def _free(self, x, z, anchor, text):
+        """True if a label at (x, z) would not cover one already placed
+        (a rough box of the text's size, in pixels)."""
+        wpx = 7.0 * len(text)
+        cx = x / self._px[0] + (0.5 - anchor[0]) * wpx
+        cy = z / self._px[1] - (0.5 - anchor[1]) * 16.0
+        for ox, oy, ow in self._placed:
+            if abs(cx - ox) < 0.5 * (wpx + ow) + 4 and abs(cy - oy) < 18:
+                return False
+        self._placed.append((cx, cy, wpx))
+        return True
+
+    def _label(self, x, z, text, colour, anchor, bold=False, optional=False):
+        if not self._free(x, z, anchor, text) and optional:
+            return None
         if self._labels_used < len(self._labels):
             item = self._labels[self._labels_used]
         else:
@@ -535,7 +552,7 @@ class SectionCanvas(pg.PlotWidget):
             d = p[k] * scale
             self._label(px[k] + d * nx[k], pz[k] + d * nz[k],
                         f"{format_number(units.pressure(p[k]), 3)} {plabel}",
-                        "#8a4a12", (0.5 - 0.5 * nx[k], 0.5 + 0.5 * nz[k]))
+                        "#8a4a12", (0.5 - 0.5 * nx[k], 0.5 + 0.5 * nz[k]), optional=True)
 
     def _draw_resultants(self, solution, w, size, units):
         section = solution.section

@@ -88,6 +88,8 @@ class MainWindow(QMainWindow):
         self._dock("Loads against level", self.chart, Qt.BottomDockWidgetArea)
         self.resizeDocks([self.findChild(QDockWidget, "Loads against level")], [240],
                          Qt.Vertical)
+        self.resizeDocks([self.findChild(QDockWidget, "Fill and liquid"),
+                          self.findChild(QDockWidget, "Results")], [300, 430], Qt.Horizontal)
 
         self.hover = QLabel()
         self.statusBar().addWidget(self.hover, 1)
@@ -219,8 +221,19 @@ class MainWindow(QMainWindow):
         for k in ("new", "open", "save"):
             tb.addAction(a[k])
         tb.addSeparator()
-        tb.addAction(a["undo"])
-        tb.addAction(a["redo"])
+        # Short fixed texts on the toolbar; the Edit menu says what is undone.
+        stack = self.doc.undo_stack
+        tb_undo = QAction("Undo", self)
+        tb_undo.triggered.connect(self.undo)
+        tb_redo = QAction("Redo", self)
+        tb_redo.triggered.connect(stack.redo)
+        stack.canUndoChanged.connect(lambda on: tb_undo.setEnabled(on or self.doc.draft is not None))
+        stack.canRedoChanged.connect(tb_redo.setEnabled)
+        tb_undo.setEnabled(stack.canUndo())
+        tb_redo.setEnabled(stack.canRedo())
+        self._tb_undo = tb_undo
+        tb.addAction(tb_undo)
+        tb.addAction(tb_redo)
         tb.addSeparator()
         tb.addAction(a["draw"])
         tb.addAction(a["fit"])
@@ -280,6 +293,8 @@ class MainWindow(QMainWindow):
 
     def _on_draftChanged(self):
         draft = self.doc.draft
+        if hasattr(self, "_tb_undo"):
+            self._tb_undo.setEnabled(draft is not None or self.doc.undo_stack.canUndo())
         self.actions_by_name["discard"].setEnabled(draft is not None)
         if draft is not None:
             self._status(f"Invalid outline: {draft.error} - results show the last valid "
