@@ -463,12 +463,14 @@ class SectionCanvas(pg.PlotWidget):
             self._runs = part_runs(section)
             self._runs_section = section
         self._draw_resultants(solution, w, size, units)
-        self._label_pressures(w, scale, units)
         if spill is not None:
             self._label(xmax + 2 * margin, spill, "spill level", "#5a6b7d", (0, 0.5))
         if h > zmin:
-            self._label(xmin - margin, h, f"free surface {units.fmt_length(h)}",
+            sx = self._surface.getData()[0]
+            left = float(np.min(sx)) if sx is not None and len(sx) else xmin
+            self._label(left - 0.5 * margin, h, f"free surface {units.fmt_length(h)}",
                         SURFACE_COLOUR, (1, 0.5))
+        self._label_pressures(w, scale, units)
         for item in self._labels[self._labels_used:]:
             if item.isVisible():
                 item.hide()
@@ -502,8 +504,15 @@ class SectionCanvas(pg.PlotWidget):
         return True
 
     def _label(self, x, z, text, colour, anchor, bold=False, optional=False):
-        if not self._free(x, z, anchor, text) and optional:
-            return None
+        if not self._free(x, z, anchor, text):
+            if optional:
+                return None
+            # A label that must show: move it up or down out of the way.
+            for k in (1, -1, 2, -2, 3, -3):
+                dz = k * 18 * self._px[1]
+                if self._free(x, z + dz, anchor, text):
+                    z += dz
+                    break
         if self._labels_used < len(self._labels):
             item = self._labels[self._labels_used]
         else:
