@@ -319,8 +319,11 @@ def test_hover_text_gives_depth_and_pressure(make_window):
 def test_launch_opens_window(qtbot, monkeypatch, no_dialogs):
     from PySide6.QtWidgets import QApplication
 
+    import sys
+
     from app import gui
 
+    monkeypatch.setattr(sys, "excepthook", sys.excepthook)  # launch installs its own
     seen = []
     monkeypatch.setattr(QApplication, "exec", lambda *a: seen.append(
         QApplication.topLevelWidgets()) or 0)
@@ -331,3 +334,30 @@ def test_launch_opens_window(qtbot, monkeypatch, no_dialogs):
         x.doc.set_case(x.doc.case)
         x.close()
         x.deleteLater()
+
+
+def test_excepthook_shows_error_instead_of_exiting(no_dialogs, capsys):
+    from app import gui
+
+    try:
+        raise RuntimeError("boom")
+    except RuntimeError as exc:
+        gui.excepthook(type(exc), exc, exc.__traceback__)
+    assert no_dialogs and "RuntimeError: boom" in no_dialogs[-1][1]
+    assert "boom" in capsys.readouterr().err
+
+
+def test_invalid_drawn_outline_is_marked(make_window, settle):
+    w = make_window()
+    before = w.doc.case
+    c = w.canvas
+    c.set_mode("draw")
+    for p in [(0, 0), (2, 2), (2, 0), (0, 2)]:  # a bow tie: crosses itself
+        c.add_drawn_point(*p)
+    assert not c.finish_drawing()
+    settle(w)
+    assert "crosses itself" in str(w.doc.draft.error)
+    assert w.doc.case is before
+    assert w.actions_by_name["discard"].isEnabled()
+    w.actions_by_name["discard"].trigger()
+    assert w.doc.draft is None
