@@ -361,3 +361,34 @@ def test_invalid_drawn_outline_is_marked(make_window, settle):
     assert w.actions_by_name["discard"].isEnabled()
     w.actions_by_name["discard"].trigger()
     assert w.doc.draft is None
+
+
+def test_real_mouse_drag_moves_vertex_in_one_step(make_window, settle):
+    from PySide6.QtCore import QEvent, QPointF
+    from PySide6.QtGui import QMouseEvent
+    from PySide6.QtWidgets import QApplication
+
+    w = make_window()
+    c = w.canvas
+    vp = c.viewport()
+
+    def at(x, z):
+        return c.mapFromScene(c._vb.mapViewToScene(QPointF(x, z))).toPointF()
+
+    def send(kind, pos, button, buttons):
+        QApplication.sendEvent(vp, QMouseEvent(kind, pos, vp.mapToGlobal(pos), button,
+                                               buttons, Qt.NoModifier))
+
+    x, z = w.doc.section.outline[1]
+    p0, p1 = at(x, z), at(x + 0.5, z)
+    send(QEvent.MouseButtonPress, p0, Qt.LeftButton, Qt.LeftButton)
+    for k in range(1, 11):
+        send(QEvent.MouseMove, QPointF(p0.x() + (p1.x() - p0.x()) * k / 10, p0.y()),
+             Qt.NoButton, Qt.LeftButton)
+    assert w.doc.undo_stack.count() == 0  # live preview only
+    send(QEvent.MouseButtonRelease, p1, Qt.LeftButton, Qt.NoButton)
+    settle(w)
+    pixel = max(c._vb.viewPixelSize())
+    assert w.doc.section.outline[1] == pytest.approx([x + 0.5, z], abs=2 * pixel)
+    assert w.doc.undo_stack.count() == 1
+    assert w.doc.undo_stack.undoText() == "Move vertex 1"
