@@ -25,8 +25,8 @@ from PySide6.QtWidgets import QGraphicsPathItem, QInputDialog, QMenu
 from core.section import AXIS, FLOOR, OPEN, Section, SectionError
 
 from . import editing
-from .diagram import (arrow_strokes, auto_scale, diagram_polygons, part_runs,
-                      pressure_arrows, run_resultants, wetted_edges)
+from .diagram import (arrow_strokes, auto_scale, carrying_edges, diagram_polygons,
+                      part_runs, pressure_arrows, run_resultants, wetted_edges)
 from .grid import LightGrid
 from .display import format_number
 
@@ -445,7 +445,10 @@ class SectionCanvas(pg.PlotWidget):
         else:
             self._spill.setData([], [])
 
-        w = wetted_edges(solution)
+        if getattr(self, "_carries_section", None) is not section:
+            self._carries = carrying_edges(section)
+            self._carries_section = section
+        w = wetted_edges(solution, self._carries)
         scale = self._scale(solution)
         x, z, connect = diagram_polygons(w, scale)
         path = _path(x, z, connect)
@@ -547,7 +550,12 @@ class SectionCanvas(pg.PlotWidget):
         px, pz, p, nx, nz = px[keep], pz[keep], p[keep], nx[keep], nz[keep]
         if p.size == 0:
             return
-        # One label per distinct diagram corner.
+        # At most a few dozen candidates (evenly along the outline, plus the
+        # deepest), then one label per distinct diagram corner.
+        if p.size > 4 * MAX_PRESSURE_LABELS:
+            pick = np.unique(np.append(
+                np.linspace(0, p.size - 1, 4 * MAX_PRESSURE_LABELS).astype(int), np.argmax(p)))
+            px, pz, p, nx, nz = px[pick], pz[pick], p[pick], nx[pick], nz[pick]
         d = p * scale
         key = np.round(np.column_stack([px + d * nx, pz + d * nz]), 9)
         _, first = np.unique(key, axis=0, return_index=True)

@@ -14,7 +14,7 @@ import numpy as np
 
 from core.section import AXIS, OPEN
 
-__all__ = ["WettedEdges", "wetted_edges", "auto_scale", "diagram_polygons", "chain_starts",
+__all__ = ["WettedEdges", "wetted_edges", "auto_scale", "diagram_polygons", "chain_starts", "carrying_edges",
            "pressure_arrows", "arrow_strokes", "PartRun", "part_runs", "run_resultants"]
 
 
@@ -42,16 +42,23 @@ class WettedEdges:
     nz: np.ndarray
 
 
-def wetted_edges(solution):
+def carrying_edges(section):
+    """Boolean mask of the edges that carry load (not ``open`` or ``axis``)."""
+    return np.fromiter((p not in (OPEN, AXIS) for p in section.parts), bool,
+                       count=section.n_edges)
+
+
+def wetted_edges(solution, carries=None):
     """:class:`WettedEdges` of a :class:`core.hydrostatics.Solution`
-    (``open`` and ``axis`` edges left out: nothing there carries load)."""
+    (``open`` and ``axis`` edges left out: nothing there carries load).
+    ``carries`` is :func:`carrying_edges` of the section, if known."""
     section = solution.section
     geo = section.geometry
     h = solution.level
     rg = solution.density * solution.gravity
     f = np.clip((h - geo.z_low) * geo.inv_abs_dz, 0.0, 1.0)
-    carries = np.fromiter((p not in (OPEN, AXIS) for p in section.parts), bool,
-                          count=section.n_edges)
+    if carries is None:
+        carries = carrying_edges(section)
     keep = np.flatnonzero((f > 0) & carries & (solution.wetted_length > 0))
     f = f[keep]
     ta = (1.0 - f) * geo.falls[keep]
@@ -225,14 +232,16 @@ def run_resultants(solution, runs, w=None):
     axi = solution.section.is_axisymmetric
     if w is None:
         w = wetted_edges(solution)
-    pos = {int(e): k for k, e in enumerate(w.index)}
+    pos = np.full(solution.section.n_edges, -1, dtype=np.intp)
+    pos[w.index] = np.arange(w.index.size)
     for run in runs:
-        idx = np.array([e for e in run.edges if e in pos], dtype=np.intp)
+        edges = np.asarray(run.edges, dtype=np.intp)
+        idx = edges[pos[edges] >= 0]
         if idx.size == 0:
             continue
         fz = float(solution.fz[idx].sum())
         if axi:
-            k = np.array([pos[int(e)] for e in idx])
+            k = pos[idx]
             mx = np.concatenate([w.ax[k], w.bx[k]])
             mz = np.concatenate([w.az[k], w.bz[k]])
             length = np.sqrt((w.bx[k] - w.ax[k]) ** 2 + (w.bz[k] - w.az[k]) ** 2)

@@ -392,7 +392,9 @@ class TotalsPanel(QGroupBox):
         held = s.support_reaction < -1e-9 * max(s.fluid_weight, 1e-300)
         v["support"].setText(u.fmt_force(sec, s.support_reaction)
                              + ("  (held down)" if held else ""))
-        v["support"].setStyleSheet("color: #8e24aa; font-weight: 600;" if held else "")
+        if held != getattr(self, "_held", None):  # a style sheet change is costly
+            self._held = held
+            v["support"].setStyleSheet("color: #8e24aa; font-weight: 600;" if held else "")
         v["max_pressure"].setText(u.fmt_pressure(s.max_pressure))
         v["spill"].setText(u.fmt_length(sec.spill_level) if sec.spill_level is not None
                            else "none (closed)")

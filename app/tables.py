@@ -49,12 +49,16 @@ class _Model(QAbstractTableModel):
             return str(section)
         return None
 
-    def refresh(self):
-        """All cells may have changed (same shape)."""
+    def refresh(self, headers=False):
+        """All cells (and the headers, if asked) may have changed; same shape."""
         rows, cols = self.rowCount(), self.columnCount()
         if rows and cols:
-            self.dataChanged.emit(self.index(0, 0), self.index(rows - 1, cols - 1))
-        self.headerDataChanged.emit(Qt.Horizontal, 0, max(cols - 1, 0))
+            self.dataChanged.emit(self.index(0, 0), self.index(rows - 1, cols - 1),
+                                  [Qt.DisplayRole, Qt.ForegroundRole])
+        h = self._headers()
+        if (headers or h != getattr(self, "_shown_headers", None)) and cols:
+            self._shown_headers = h
+            self.headerDataChanged.emit(Qt.Horizontal, 0, cols - 1)
 
 
 class PartsModel(_Model):
@@ -85,7 +89,7 @@ class PartsModel(_Model):
             self.refresh()
 
     def _on_unitsChanged(self):
-        self.refresh()
+        self.refresh(headers=True)
 
     def data(self, index, role=Qt.DisplayRole):
         if not index.isValid():
@@ -151,7 +155,7 @@ class EdgesModel(_Model):
             self.refresh()
 
     def _on_unitsChanged(self):
-        self.refresh()
+        self.refresh(headers=True)
 
     def data(self, index, role=Qt.DisplayRole):
         if not index.isValid():
@@ -216,7 +220,7 @@ class VerticesModel(_Model):
             self.refresh()
 
     def _on_unitsChanged(self):
-        self.refresh()
+        self.refresh(headers=True)
 
     def flags(self, index):
         return Qt.ItemIsEnabled | Qt.ItemIsSelectable | Qt.ItemIsEditable
