@@ -506,6 +506,9 @@ class SectionCanvas(pg.PlotWidget):
         self._placed.append((cx, cy, wpx))
         return True
 
+    def _polygon_section_is(self, section):
+        return self._polygon is not None and getattr(self, "_polygon_section", None) is section
+
     def _label(self, x, z, text, colour, anchor, bold=False, optional=False):
         if not self._free(x, z, anchor, text):
             if optional:
@@ -704,6 +707,9 @@ class SectionCanvas(pg.PlotWidget):
         if sol is None:
             return text
         depth = sol.level - z
+        poly = self._polygon if self._polygon_section_is(sol.section) else None
+        if poly is not None and not shapely.contains_xy(poly, x, z):
+            return text + "   outside the section"
         if depth > 0:
             p = sol.density * sol.gravity * depth
             text += f"   depth {units.fmt_length(depth)}   pressure {units.fmt_pressure(p)}"

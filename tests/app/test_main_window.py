@@ -392,3 +392,8 @@ def test_real_mouse_drag_moves_vertex_in_one_step(make_window, settle):
     assert w.doc.section.outline[1] == pytest.approx([x + 0.5, z], abs=2 * pixel)
     assert w.doc.undo_stack.count() == 1
     assert w.doc.undo_stack.undoText() == "Move vertex 1"
+
+
+def test_hover_outside_the_section_says_so(make_window):
+    w = make_window()
+    assert "outside the section" in w.canvas.describe_point(-1.0, 0.5)
