@@ -6,7 +6,7 @@ from __future__ import annotations
 from PySide6.QtWidgets import (QComboBox, QDialog, QDialogButtonBox, QFormLayout, QLabel,
                                QLineEdit, QVBoxLayout)
 
-from core.section import Section, SectionError
+from core.section import SectionError
 from core.templates import TEMPLATES
 
 from .display import format_number
@@ -26,17 +26,7 @@ def build_from_fields(template, texts, width_text, units, name=""):
         width = units.length_si(parse_number(width_text, "Width"))
         if not width > 0:
             raise ValueError("Width must be positive")
-    # Template.build's own ``width`` keyword (out of the drawing) collides
-    # with a dimension called "width" (open and closed tanks), so the
-    # outline is made from the template's shape function here.
-    values = template.defaults()
-    values.update(dims)
-    for d in template.dimensions:
-        if not values[d.key] > 0:
-            raise SectionError(f"{d.label} must be positive, not {format_number(values[d.key])}")
-    outline, parts = template._outline(**values)
-    section = Section.build(outline, parts=parts, kind=template.kind, width=width,
-                            name=name or template.title)
+    section = template.build(name=name or template.title, width=width, **dims)
     return section, template.default_level(section)
 
 

@@ -268,9 +268,10 @@ class DisplayUnits:
     def from_display(self, value, quantity: str):
         """Convert `value` from this system's unit of `quantity` to SI.
 
-        Inverse of :meth:`to_display`.
+        Inverse of :meth:`to_display`. Each product is correctly rounded
+        (:func:`to_si_exactly`), so a typed 2300 mm is exactly 2.3 m.
         """
-        return value * self.unit(quantity).factor
+        return to_si_exactly(value, self.unit(quantity).factor)
 
     def with_length(self, unit: str) -> "DisplayUnits":
         """A copy showing lengths in `unit` (see :func:`length_display`)."""
