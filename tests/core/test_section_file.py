@@ -470,9 +470,11 @@ def test_a_byte_order_mark_is_accepted(tmp_path):
 
 
 def template_cases():
+    cases = []
     for key, t in TEMPLATES.items():
         s = t.build()
-        yield pytest.param(Case.default(s, t.default_level(s)), id=key)
+        cases.append(pytest.param(Case.default(s, t.default_level(s)), id=key))
+    return cases
 
 
 @pytest.mark.parametrize("case", template_cases())
