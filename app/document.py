@@ -85,6 +85,10 @@ class Document(QObject):
     """The selected edge or vertex changed (shared by canvas and tables)."""
     solved = Signal(object)
     levelTableReady = Signal(object)
+    upliftInputsChanged = Signal()
+    """Part resistances or the required uplift factor changed (no solve needed)."""
+    reportChanged = Signal()
+    """The calculation sheet header fields changed."""
 
     def __init__(self, case, path=None, parent=None, saved=True):
         super().__init__(parent)
@@ -186,6 +190,11 @@ class Document(QObject):
             self.liquidChanged.emit()
         if fill_changed:
             self.fillChanged.emit()
+        if (old.resistances != case.resistances
+                or old.required_uplift_factor != case.required_uplift_factor):
+            self.upliftInputsChanged.emit()
+        if old.report != case.report:
+            self.reportChanged.emit()
         if section_changed or liquid_changed or fill_changed:
             self._need_solve = True
             self._need_table = self._need_table or section_changed or liquid_changed
@@ -210,6 +219,8 @@ class Document(QObject):
         self.sectionChanged.emit()
         self.liquidChanged.emit()
         self.fillChanged.emit()
+        self.upliftInputsChanged.emit()
+        self.reportChanged.emit()
         self.selectionChanged.emit()
         self.pathChanged.emit()
         self._need_solve = self._need_table = True
