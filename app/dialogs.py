@@ -4,10 +4,13 @@ and nothing ever blocks an automated run."""
 
 from __future__ import annotations
 
-from PySide6.QtWidgets import QFileDialog, QMessageBox
+from PySide6.QtCore import Qt
+from PySide6.QtWidgets import QFileDialog, QMessageBox, QProgressDialog
 
 __all__ = ["show_error", "ask_save_changes", "ask_open_path", "ask_save_path",
-           "ask_export_path", "ask_template", "show_about"]
+           "ask_export_path", "ask_template", "show_about", "show_warning",
+           "ask_export_file", "ask_import_file", "ask_dxf_outline", "ask_report_info",
+           "make_progress"]
 
 SECTION_FILTER = "Section files (*.section.json);;JSON files (*.json);;All files (*)"
 
@@ -60,3 +63,60 @@ def ask_template(parent, units, kind=None):
 
 def show_about(parent, text):
     QMessageBox.about(parent, "About Wetline", text)
+
+
+def show_warning(parent, title, text):
+    """Tell the user something was assumed (a drawing without units ...)."""
+    QMessageBox.information(parent, title, text)
+
+
+def ask_export_file(parent, title, suggested, file_filter, extension):
+    """A path to write an export to, ending in ``extension`` (".pdf"), or None."""
+    path, _ = QFileDialog.getSaveFileName(parent, title, suggested, file_filter)
+    if path and not path.lower().endswith(extension):
+        path += extension
+    return path or None
+
+
+def ask_import_file(parent, title, folder, file_filter):
+    """A file to import from, or None."""
+    path, _ = QFileDialog.getOpenFileName(parent, title, folder, file_filter)
+    return path or None
+
+
+def ask_dxf_outline(parent, source, lines):
+    """Which of several closed polylines of drawing ``source`` to import:
+    its index in ``lines`` (one ``describe()`` line each), or None."""
+    from PySide6.QtWidgets import QInputDialog
+
+    item, ok = QInputDialog.getItem(
+        parent, "Choose the outline",
+        f"{source} has {len(lines)} closed polylines. Import which one?", list(lines), 0,
+        False)
+    if not ok:
+        return None
+    return list(lines).index(item)
+
+
+def ask_report_info(parent, report):
+    """Edit the calculation sheet header; the new ReportInfo or None."""
+    from .report_info_dialog import ReportInfoDialog
+
+    dlg = ReportInfoDialog(report, parent)
+    if dlg.exec():
+        return dlg.result_report()
+    return None
+
+
+def make_progress(parent, title, text, steps):
+    """A window-modal progress dialog shown at once (it does not block; the
+    caller moves it and closes it)."""
+    dlg = QProgressDialog(text, "Cancel", 0, steps, parent)
+    dlg.setWindowTitle(title)
+    dlg.setWindowModality(Qt.WindowModal)
+    dlg.setMinimumDuration(0)
+    dlg.setAutoClose(False)
+    dlg.setAutoReset(False)
+    dlg.setValue(0)
+    dlg.show()
+    return dlg

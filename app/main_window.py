@@ -9,8 +9,8 @@ from pathlib import Path
 from PySide6.QtCore import QSettings, Qt
 from PySide6.QtGui import QAction, QActionGroup, QKeySequence
 from PySide6.QtWidgets import (QCheckBox, QComboBox, QDockWidget, QInputDialog, QLabel,
-                               QLineEdit, QMainWindow, QScrollArea, QTabWidget, QToolBar,
-                               QVBoxLayout, QWidget)
+                               QLineEdit, QMainWindow, QScrollArea, QSplitter, QTabWidget,
+                               QToolBar, QVBoxLayout, QWidget)
 
 from core.section import SectionError
 from core.section_file import SectionFileError, read_section_file, write_section_file
@@ -18,10 +18,13 @@ from core.section_file import SectionFileError, read_section_file, write_section
 from . import dialogs, editing
 from .canvas import SectionCanvas
 from .chart import LoadChart
+from .commands import ReportInfoCommand
 from .display import LENGTH_UNITS_OF, DisplayChoice, format_number
 from .document import Document
 from .panels import FillPanel, LiquidPanel, TotalsPanel, parse_number
-from .tables import EdgesTable, PartsTable, VerticesTable
+from .import_export import Transfer
+from .tables import EdgesTable, PartsTable, VerticesPane, VerticesTable
+from .uplift_panel import UpliftPanel
 
 __all__ = ["MainWindow", "CAUTION"]
 
@@ -72,10 +75,27 @@ class MainWindow(QMainWindow):
         self.parts_table = PartsTable(doc)
         self.edges_table = EdgesTable(doc)
         self.vertices_table = VerticesTable(doc, message=self._status)
+        self.uplift_panel = UpliftPanel(doc)
+        self.transfer = Transfer(self)
+        self._build_actions()
+        # The uplift check sits under the loads per part it is about.
+        parts_page = QSplitter(Qt.Vertical)
+        parts_page.setChildrenCollapsible(False)
+        parts_page.addWidget(self.parts_table)
+        uplift_scroll = QScrollArea()
+        uplift_scroll.setWidget(self.uplift_panel)
+        uplift_scroll.setWidgetResizable(True)
+        uplift_scroll.setHorizontalScrollBarPolicy(Qt.ScrollBarAlwaysOff)
+        parts_page.addWidget(uplift_scroll)
+        parts_page.setSizes([125, 400])
+        self.parts_page = parts_page
+        a = self.actions_by_name
+        self.vertices_pane = VerticesPane(
+            self.vertices_table, (a["paste_coords"], a["copy_coords"], a["import_csv"]))
         tabs = QTabWidget()
-        tabs.addTab(self.parts_table, "Parts")
+        tabs.addTab(parts_page, "Parts and uplift")
         tabs.addTab(self.edges_table, "Edges")
-        tabs.addTab(self.vertices_table, "Vertices")
+        tabs.addTab(self.vertices_pane, "Vertices")
         self.tabs = tabs
         right = QWidget()
         rl = QVBoxLayout(right)
@@ -89,11 +109,10 @@ class MainWindow(QMainWindow):
         self.resizeDocks([self.findChild(QDockWidget, "Loads against level")], [240],
                          Qt.Vertical)
         self.resizeDocks([self.findChild(QDockWidget, "Fill and liquid"),
-                          self.findChild(QDockWidget, "Results")], [300, 430], Qt.Horizontal)
+                          self.findChild(QDockWidget, "Results")], [300, 450], Qt.Horizontal)
 
         self.hover = QLabel()
         self.statusBar().addWidget(self.hover, 1)
-        self._build_actions()
         self._build_menus()
         self._build_toolbar()
 
@@ -138,8 +157,34 @@ class MainWindow(QMainWindow):
         a["open"] = self._action("&Open...", self.open_dialog, S.Open)
         a["save"] = self._action("&Save", self.save, S.Save)
         a["save_as"] = self._action("Save &as...", self.save_as, S.SaveAs)
-        a["export"] = self._action("&Export diagram PNG...", self.export_dialog, "Ctrl+E",
+        a["export"] = self._action("Diagram &PNG...", self.export_dialog, "Ctrl+E",
                                    "Export the pressure diagram as a PNG for a calc package")
+        a["export"].setIconText("Export PNG")
+        t = self.transfer
+        a["export_pdf"] = self._action(
+            "Calculation sheet P&DF...", t.export_pdf, "Ctrl+Shift+E",
+            "Write the calculation sheet (inputs, method, results, uplift check, figures)")
+        a["export_svg"] = self._action("Diagram &SVG...", t.export_svg, None,
+                                       "Export the pressure diagram as a vector drawing")
+        a["export_edges_csv"] = self._action(
+            "Per-edge results &CSV...", t.export_edges_csv, None,
+            "Pressures, forces and centres of pressure of every edge, in the display units")
+        a["export_level_csv"] = self._action(
+            "&Loads against level CSV...", t.export_level_csv, None,
+            "Totals at 51 levels from empty to full, in the display units")
+        a["export_dxf"] = self._action(
+            "Outline &DXF...", t.export_dxf, None,
+            "The outline as a closed polyline, each edge on a layer named after its part")
+        a["import_dxf"] = self._action(
+            "Outline from &DXF...", t.import_dxf, "Ctrl+I",
+            "Replace the outline by a closed polyline of a drawing")
+        a["import_csv"] = self._action(
+            "Coordinates from CS&V...", t.import_coordinates, None,
+            "Replace the outline by a list of x, z (and part) in the display length unit")
+        a["import_csv"].setIconText("Import CSV")
+        a["report_info"] = self._action(
+            "Calculation sheet &header...", self.edit_report_info, None,
+            "Project, job reference and prepared by, printed on every page of the sheet")
         a["quit"] = self._action("&Quit", self.close, S.Quit)
         undo = self.doc.undo_stack.createUndoAction(self, "&Undo")
         undo.setShortcut(QKeySequence(S.Undo))
@@ -151,6 +196,13 @@ class MainWindow(QMainWindow):
         a["undo"], a["redo"] = undo, redo
         a["delete"] = self._action("&Delete vertex", self.canvas.delete_selected,
                                    QKeySequence.StandardKey.Delete)
+        a["paste_coords"] = self._action(
+            "&Paste coordinates", t.paste_coordinates, "Ctrl+Shift+V",
+            "Replace the outline by x, z (and part) columns copied from a spreadsheet, "
+            "in the display length unit")
+        a["copy_coords"] = self._action(
+            "&Copy coordinates", t.copy_coordinates, "Ctrl+Shift+C",
+            "Copy the outline as tab-separated x, z, part for a spreadsheet")
         a["discard"] = self._action("Discard invalid outline",
                                     lambda: editing.discard_draft(self.doc))
         a["draw"] = self._action("Draw &new outline", self._toggle_draw, "Ctrl+D",
@@ -188,7 +240,15 @@ class MainWindow(QMainWindow):
         for k in ("save", "save_as"):
             m.addAction(a[k])
         m.addSeparator()
-        m.addAction(a["export"])
+        im = m.addMenu("&Import")
+        for k in ("import_dxf", "import_csv"):
+            im.addAction(a[k])
+        em = m.addMenu("&Export")
+        for k in ("export_pdf", "export", "export_svg", "export_edges_csv",
+                  "export_level_csv", "export_dxf"):
+            em.addAction(a[k])
+        self.import_menu, self.export_menu = im, em
+        m.addAction(a["report_info"])
         m.addSeparator()
         m.addAction(a["quit"])
         m = mb.addMenu("&Edit")
@@ -198,6 +258,9 @@ class MainWindow(QMainWindow):
         m.addAction(a["draw"])
         m.addAction(a["delete"])
         m.addAction(a["discard"])
+        m.addSeparator()
+        m.addAction(a["paste_coords"])
+        m.addAction(a["copy_coords"])
         m = mb.addMenu("&Section")
         m.addAction(a["plane"])
         m.addAction(a["axi"])
@@ -265,6 +328,7 @@ class MainWindow(QMainWindow):
         tb.addWidget(self.scale_unit)
         tb.addSeparator()
         tb.addAction(a["export"])
+        tb.addAction(a["export_pdf"])
 
         self.snap_box.toggled.connect(self._on_snap_toggled)
         self.snap_spacing.editingFinished.connect(self._on_snap_spacing_edited)
@@ -457,14 +521,33 @@ class MainWindow(QMainWindow):
         return self._write(path) if path else False
 
     def _write(self, path):
+        case = self.doc.case
+        # Resistances of parts no longer in the outline (renamed, re-imported)
+        # stay in the document for undo but are not written: the file format
+        # only names loaded parts of its outline.
+        loaded = set(case.section.loaded_part_names)
+        for part, _ in case.resistances:
+            if part not in loaded:
+                case = case.with_resistance(part, None)
         try:
-            write_section_file(self.doc.case, path)
+            write_section_file(case, path)
         except OSError as exc:
             dialogs.show_error(self, "Cannot save", f"{path}: {exc.strerror or exc}")
+            return False
+        except ValueError as exc:
+            dialogs.show_error(self, "Cannot save", f"{path}: {exc}")
             return False
         self.doc.mark_saved(path)
         self._add_recent(path)
         self._status(f"Saved {path}")
+        return True
+
+    def edit_report_info(self):
+        """File > Calculation sheet header: one undo step if anything changed."""
+        report = dialogs.ask_report_info(self, self.doc.case.report)
+        if report is None or report == self.doc.case.report:
+            return False
+        self.doc.undo_stack.push(ReportInfoCommand(self.doc, report))
         return True
 
     def export_dialog(self):
@@ -512,6 +595,7 @@ class MainWindow(QMainWindow):
 
     def closeEvent(self, ev):
         if self.maybe_save():
+            self.transfer.shutdown()
             ev.accept()
         else:
             ev.ignore()

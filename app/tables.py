@@ -12,8 +12,9 @@ from __future__ import annotations
 import numpy as np
 from PySide6.QtCore import QAbstractTableModel, QItemSelectionModel, QModelIndex, Qt
 from PySide6.QtGui import QColor
-from PySide6.QtWidgets import (QAbstractItemView, QComboBox, QHeaderView,
-                               QStyledItemDelegate, QTableView)
+from PySide6.QtWidgets import (QAbstractItemView, QComboBox, QHBoxLayout, QHeaderView,
+                               QStyledItemDelegate, QTableView, QToolButton, QVBoxLayout,
+                               QWidget)
 
 from core.section import AXIS, FLOOR, OPEN
 
@@ -22,7 +23,7 @@ from .display import format_number
 from .panels import parse_number
 
 __all__ = ["PartsModel", "EdgesModel", "VerticesModel", "PartsTable", "EdgesTable",
-           "VerticesTable"]
+           "VerticesTable", "VerticesPane"]
 
 _RIGHT = int(Qt.AlignRight | Qt.AlignVCenter)
 UPLIFT_TEXT = QColor("#8e24aa")
@@ -344,6 +345,7 @@ class PartsTable(QTableView):
         self.setModel(PartsModel(document, self))
         self.setAlternatingRowColors(True)
         self.verticalHeader().hide()
+        self.verticalHeader().setDefaultSectionSize(22)
         self.horizontalHeader().setStretchLastSection(True)
         self.setEditTriggers(QAbstractItemView.NoEditTriggers)
 
@@ -375,3 +377,28 @@ class VerticesTable(QTableView, _SelectionSync):
         self.verticalHeader().setDefaultSectionSize(22)
         self.horizontalHeader().setStretchLastSection(True)
         self._sync_init(document, "vertex")
+
+
+class VerticesPane(QWidget):
+    """The vertex table with a row of buttons above it (paste a coordinate
+    list, copy the outline, import a CSV file): each button shows one of the
+    window's actions, so the menu, its shortcut and the button do the same."""
+
+    def __init__(self, table, actions=(), parent=None):
+        super().__init__(parent)
+        self.table = table
+        lay = QVBoxLayout(self)
+        lay.setContentsMargins(0, 0, 0, 0)
+        lay.setSpacing(2)
+        row = QHBoxLayout()
+        row.setContentsMargins(2, 2, 2, 0)
+        self.buttons = []
+        for action in actions:
+            button = QToolButton()
+            button.setDefaultAction(action)
+            button.setToolButtonStyle(Qt.ToolButtonTextOnly)
+            row.addWidget(button)
+            self.buttons.append(button)
+        row.addStretch(1)
+        lay.addLayout(row)
+        lay.addWidget(table, 1)
