@@ -163,7 +163,8 @@ def _render(table, align=None):
 
 def solve_text(case, units_name="si"):
     """The readable table of ``wetline solve``."""
-    from core.report_tables import edges_table, parts_table, totals_table, uplift_table
+    from core.report_tables import (edges_table, parts_table, totals_table, uplift_table,
+                                    with_note)
     from core.results import CAUTIONS
     from core.uplift import UPLIFT_CAUTION
     from core.units import display_units
@@ -178,15 +179,8 @@ def solve_text(case, units_name="si"):
              f"  liquid: {liquid.name}, {fmt(u.to_display(liquid.density, 'density'))} "
              f"{u.label('density')} ({liquid.source})",
              f"  gravity: {fmt(case.gravity, 7)} m/s2", ""]
-    totals = totals_table(sol, u)
-    rows = []
-    for name, value, unit in totals.rows:
-        text = fmt(value)
-        if name == "support reaction" and sol.support_reaction < 0:
-            text += " (held down)"
-        if name == "level" and sol.level != sol.requested_level:
-            text += " (capped)"
-        rows.append([name, text, unit])
+    rows = [[name, with_note(value, note), unit]
+            for name, value, unit, note in totals_table(sol, u).rows]
     lines += ["Totals"] + ["  " + r for r in _table(rows, ["", "value", "unit"],
                                                      ["<", ">", "<"])]
     lines.append("")

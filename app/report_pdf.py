@@ -52,7 +52,8 @@ from PySide6.QtGui import (
 )
 
 from core.atomic_write import WriteError, check_target, write_atomically
-from core.report_tables import edges_table, fmt, parts_table, totals_table, uplift_table
+from core.report_tables import (edges_table, fmt, parts_table, totals_table, uplift_table,
+                                with_note)
 from core.results import ASSUMPTIONS, CAUTIONS
 from core.uplift import DEFAULT_REQUIRED_FACTOR, REQUIRED_FACTOR_SOURCE, UPLIFT_CAUTION
 from core.units import display_units, length_factor
@@ -365,15 +366,8 @@ class _Sheet:
         s, sol, du, case = self.section, self.sol, self.du, self.case
         out = ["<h2>3 Results</h2>",
                f"<h3>3.1 Totals</h3><p>Forces {_e(self.force_scope())}.</p>"]
-        totals = totals_table(sol, du)
-        rows = []
-        for name, value, unit in totals.rows:
-            text = fmt(value)
-            if name == "support reaction" and sol.support_reaction < 0:
-                text += " (held down)"
-            if name == "level" and sol.level != sol.requested_level:
-                text += " (capped)"
-            rows.append((name, text, unit))
+        rows = [(name, with_note(value, note), unit)
+                for name, value, unit, note in totals_table(sol, du).rows]
         out.append(_table_html(("quantity", "value", "unit"), rows,
                                align=["left", "right", "left"], widths=[40, 30, 30]))
         out.append(f'<p class="note">Check: floor force + support reaction = '

@@ -15,7 +15,7 @@ from dataclasses import dataclass
 
 from .level_table import level_table
 
-__all__ = ["Table", "totals_table", "parts_table", "edges_table", "level_load_table",
+__all__ = ["Table", "totals_table", "with_note", "parts_table", "edges_table", "level_load_table",
            "uplift_table", "to_csv", "fmt"]
 
 
@@ -65,26 +65,36 @@ def _num(v):
 
 
 def totals_table(solution, units):
-    """Volume, weight, floor force, support reaction, max pressure, levels."""
+    """Level, volume, weight, floor force, support reaction, max pressure and
+    the spill level (or the top of a closed section), each with a note for
+    people: "held down" for a negative support reaction, "capped at the spill
+    level" for a level that was capped."""
     u = units
     s = solution.section
     F = u.label("force")
+    L = u.label("length")
+    capped = solution.level != solution.requested_level
     rows = [
-        ("level", _num(u.to_display(solution.level, "length")), u.label("length")),
-        ("volume", _num(u.to_display(solution.volume, "volume")), u.label("volume")),
-        ("fluid weight", _num(u.to_display(solution.fluid_weight, "force")), F),
-        ("floor force", _num(u.to_display(solution.floor_force, "force")), F),
-        ("support reaction", _num(u.to_display(solution.support_reaction, "force")), F),
+        ("level", _num(u.to_display(solution.level, "length")), L,
+         "capped at the spill level" if capped else ""),
+        ("volume", _num(u.to_display(solution.volume, "volume")), u.label("volume"), ""),
+        ("fluid weight", _num(u.to_display(solution.fluid_weight, "force")), F, ""),
+        ("floor force", _num(u.to_display(solution.floor_force, "force")), F, ""),
+        ("support reaction", _num(u.to_display(solution.support_reaction, "force")), F,
+         "held down" if solution.support_reaction < 0 else ""),
         ("max pressure", _num(u.to_display(solution.max_pressure, "pressure")),
-         u.label("pressure")),
+         u.label("pressure"), ""),
     ]
     if s.is_open:
-        rows.append(("spill level", _num(u.to_display(s.spill_level, "length")),
-                     u.label("length")))
+        rows.append(("spill level", _num(u.to_display(s.spill_level, "length")), L, ""))
     else:
-        rows.append(("top of closed section", _num(u.to_display(s.z_max, "length")),
-                     u.label("length")))
-    return Table("Totals", ("quantity", "value", "unit"), tuple(rows))
+        rows.append(("top of closed section", _num(u.to_display(s.z_max, "length")), L, ""))
+    return Table("Totals", ("quantity", "value", "unit", "note"), tuple(rows))
+
+
+def with_note(value, note):
+    """``fmt(value)`` followed by ``(note)`` when there is one."""
+    return f"{fmt(value)} ({note})" if note else fmt(value)
 
 
 def parts_table(solution, units):
