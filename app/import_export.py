@@ -125,6 +125,8 @@ class Transfer(QObject):
         self.progress = None
         self.pdf_result = None
         """(status, text) of the last sheet once handled: ("ok", path) ..."""
+        self._updating = 0
+        self._pending_done = None
 
     # ----------------------------------------------------------- helpers
     def _status(self, text):
@@ -179,8 +181,16 @@ class Transfer(QObject):
         dlg.setLabelText(f"Writing the calculation sheet: {text} ...")
         dlg.setMaximum(steps)
         # setValue on a modal progress dialog processes events, which may
-        # deliver the end of the job (and close the dialog) right here.
-        dlg.setValue(step)
+        # deliver the end of the job right here: that is handled (and the
+        # dialog deleted) only once setValue has returned.
+        self._updating += 1  # a count: progress may arrive inside setValue too
+        try:
+            dlg.setValue(step)
+        finally:
+            self._updating -= 1
+        if not self._updating and self._pending_done is not None:
+            pending, self._pending_done = self._pending_done, None
+            self._on_pdf_done(*pending)
 
     def _close_progress(self):
         dlg, self.progress = self.progress, None
@@ -190,6 +200,9 @@ class Transfer(QObject):
             dlg.deleteLater()
 
     def _on_pdf_done(self, status, text):
+        if self._updating:
+            self._pending_done = (status, text)
+            return
         if self.pdf_job is not None:
             self.pdf_job.wait()  # run() returns right after emitting
         self._close_progress()

@@ -82,6 +82,7 @@ class MainWindow(QMainWindow):
         parts_page = QSplitter(Qt.Vertical)
         parts_page.setChildrenCollapsible(False)
         parts_page.addWidget(self.parts_table)
+        self.parts_table.setMinimumHeight(118)  # the header and three parts
         uplift_scroll = QScrollArea()
         uplift_scroll.setWidget(self.uplift_panel)
         uplift_scroll.setWidgetResizable(True)

@@ -28,12 +28,13 @@ from PySide6.QtWidgets import (QGridLayout, QGroupBox, QHBoxLayout, QLabel, QLin
 
 from core.case import CaseError
 from core.report_tables import fmt
-from core.uplift import DEFAULT_REQUIRED_FACTOR, REQUIRED_FACTOR_SOURCE, UPLIFT_CAUTION
+from core.uplift import (DEFAULT_REQUIRED_FACTOR, REQUIRED_FACTOR_SOURCE, UPLIFT_CAUTION,
+                         UpliftResult, fill_range, worst_uplift)
 
 from .commands import RequiredFactorCommand, ResistanceCommand, resistance_unit
 from .panels import parse_number
 
-__all__ = ["UpliftPanel", "OK_COLOUR", "NOT_OK_COLOUR"]
+__all__ = ["UpliftPanel", "UpliftChecker", "OK_COLOUR", "NOT_OK_COLOUR"]
 
 OK_COLOUR = "#1b7a3a"
 NOT_OK_COLOUR = "#b00020"
@@ -42,16 +43,68 @@ FIELDS = ("self_weight", "holding_down")
 
 
 def verdict_html(ok, factor, level_text=None):
-    """Rich text of one verdict: a coloured tag, the factor and, optionally,
-    the level it applies at."""
+    """Rich text of one verdict: a coloured tag and below it the factor and,
+    optionally, the level it applies at."""
     colour = OK_COLOUR if ok else NOT_OK_COLOUR
     tag = (f'<span style="background-color:{colour}; color:white; font-weight:600;">'
            f'&nbsp;{"OK" if ok else "NOT OK"}&nbsp;</span>')
     value = "no uplift" if math.isinf(factor) else fmt(factor, 3)
-    text = f"{tag} {value}"
+    text = f"{tag}<br>{value}"
     if level_text:
-        text += f'<br><span style="color:{MUTED};">at {html.escape(level_text)}</span>'
+        text += f' <span style="color:{MUTED};">at {html.escape(level_text)}</span>'
     return text
+
+
+class UpliftChecker:
+    """:func:`core.uplift.uplift_check`, remembering each part's worst level.
+
+    The worst level depends on the outline, the liquid and the range of
+    levels, not on the current level (except for a closed section filled
+    above its roof, where the range grows with the level): a slider drag
+    then costs one look-up per part instead of a search over the range,
+    which on a part of hundreds of edges takes milliseconds.
+    """
+
+    def __init__(self):
+        self._key = None
+        self._worst = {}
+
+    def check(self, case, solution):
+        """The same list of :class:`core.uplift.UpliftResult` as
+        ``case.uplift(solution)``."""
+        section = case.section
+        factor = float(case.required_uplift_factor)
+        density, gravity = case.liquid.density, case.gravity
+        z_lo, z_hi = fill_range(section, solution.level)
+        key = (section, density, gravity, z_lo, z_hi)
+        if self._key is None or self._key[0] is not section or self._key[1:] != key[1:]:
+            self._key = key
+            self._worst = {}
+        scale = 1.0 if section.is_axisymmetric else section.width
+        resistances = case.resistance_map
+        out = []
+        for name in section.loaded_part_names:
+            res = resistances.get(name)
+            if res is None:
+                continue
+            resistance = res.total * scale
+            uplift = max(-solution.parts[name].down, 0.0)
+            worst = self._worst.get(name)
+            if worst is None:
+                worst = self._worst[name] = worst_uplift(section, name, density, gravity,
+                                                         z_lo=z_lo, z_hi=z_hi)
+            wl, wu = worst
+            if uplift > wu:  # the current level is the worst (as core does)
+                wl, wu = solution.level, uplift
+            out.append(UpliftResult(
+                part=name, resistance=resistance, required_factor=factor, uplift=uplift,
+                factor=_ratio(resistance, uplift), worst_level=wl, worst_uplift=wu,
+                worst_factor=_ratio(resistance, wu)))
+        return out
+
+
+def _ratio(resistance, uplift):
+    return math.inf if uplift <= 0 else resistance / uplift
 
 
 class _PartRow:
@@ -85,6 +138,7 @@ class UpliftPanel(QGroupBox):
         self._doc = document
         self._rows = {}
         self._parts = None
+        self._checker = UpliftChecker()
         self.results = []
         lay = QVBoxLayout(self)
         self._grid_host = QWidget()
@@ -233,7 +287,7 @@ class UpliftPanel(QGroupBox):
                 case = case.with_section(sol.section)
             except ValueError:
                 return
-        self.results = case.uplift(sol) if case.resistances else []
+        self.results = self._checker.check(case, sol) if case.resistances else []
         by_part = {r.part: r for r in self.results}
         units = doc.units
         force = units.force_label(case.section)

@@ -13,6 +13,7 @@ from PySide6.QtCore import QTimer
 from PySide6.QtWidgets import QApplication, QPushButton
 
 from app import dialogs, editing
+from app.commands import ReportInfoCommand, ResistanceCommand
 from app.display import DisplayChoice
 from core.case import Case, ReportInfo
 from core.dxf_io import read_outline
@@ -32,9 +33,7 @@ def sump_window(make_window, settle):
     w = make_window()
     assert w.open_path(str(SUMP))
     editing.set_liquid(w.doc, custom_liquid(1100.0))  # something an import must keep
-    w.doc.undo_stack.push(
-        __import__("app.commands", fromlist=["x"]).ResistanceCommand(
-            w.doc, "lid", "self_weight", 1800.0))
+    w.doc.undo_stack.push(ResistanceCommand(w.doc, "lid", "self_weight", 1800.0))
     settle(w)
     return w
 
@@ -74,7 +73,7 @@ def test_file_menu_has_import_export_and_header(make_window):
 def test_pdf_sheet_from_the_menu_states_the_uplift_verdict(
         sump_window, qtbot, tmp_path, monkeypatch, no_dialogs):
     w = sump_window
-    w.doc.undo_stack.push(__import__("app.commands", fromlist=["x"]).ReportInfoCommand(
+    w.doc.undo_stack.push(ReportInfoCommand(
         w.doc, ReportInfo("Inlet works upgrade", "C-0417", "design team")))
     out = tmp_path / "calc.pdf"
     asked = []
@@ -196,7 +195,7 @@ def test_export_errors_are_shown(sump_window, tmp_path, no_dialogs):
 def test_dxf_with_two_outlines_asks_and_imports_the_chosen_one(
         sump_window, tmp_path, monkeypatch, no_dialogs, settle):
     w = sump_window
-    before = w.doc.case
+    before, count = w.doc.case, w.doc.undo_stack.count()
     path = drawing(tmp_path, [("HATCH", BOX_MM), ("OUTLINE", SUMP_MM)])
     shown = []
     monkeypatch.setattr(dialogs, "ask_import_file", lambda *a: str(path))
@@ -207,7 +206,7 @@ def test_dxf_with_two_outlines_asks_and_imports_the_chosen_one(
     (source, lines), = shown
     assert source == "sump.dxf" and len(lines) == 2
     assert lines[1].startswith("#1 layer OUTLINE") and "2400 x 2800 mm" in lines[1]
-    assert w.doc.undo_stack.count() == before_count(before, w) + 1
+    assert w.doc.undo_stack.count() == count + 1
     assert w.doc.undo_stack.undoText().startswith("Import outline from sump.dxf (#1")
     assert np.allclose(w.doc.section.outline, np.array(SUMP_MM) / 1000.0)
     assert set(w.doc.section.parts) == {"wall"}
@@ -217,11 +216,6 @@ def test_dxf_with_two_outlines_asks_and_imports_the_chosen_one(
     assert not no_dialogs
     w.undo()
     assert w.doc.case is before
-
-
-def before_count(case, w):
-    return w.doc.undo_stack.count() - 1 if w.doc.case is not case else \
-        w.doc.undo_stack.count()
 
 
 def test_choosing_nothing_keeps_the_document(sump_window, tmp_path, monkeypatch):
@@ -349,3 +343,12 @@ def test_copy_coordinates_pastes_back(sump_window):
     assert text.startswith("x [m]\tz [m]\tpart")
     w.transfer.paste_coordinates()
     assert w.doc.section == before.section
+
+
+def test_closing_the_window_while_a_sheet_is_written_stops_it_cleanly(
+        sump_window, tmp_path, no_dialogs):
+    w = sump_window
+    job = w.transfer.export_pdf_to(tmp_path / "calc.pdf")
+    assert w.close()
+    assert not job.isRunning() and w.transfer.progress is None
+    assert not no_dialogs

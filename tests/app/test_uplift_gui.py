@@ -3,6 +3,7 @@
 import json
 from pathlib import Path
 
+import numpy as np
 import pytest
 from PySide6.QtCore import Qt
 
@@ -233,3 +234,23 @@ def test_a_renamed_part_keeps_its_resistance_out_of_the_file(
     assert read_section_file(path).resistances == ()
     w.undo()
     assert w.uplift_panel.edit("lid", "self_weight").text() == "1.8"
+
+
+@pytest.mark.parametrize("name", ["sump_with_lid", "closed_tank", "cone_hopper",
+                                  "chamber_under_riser"])
+def test_remembered_worst_levels_match_the_core_check(name):
+    """The panel's checker keeps each part's worst level while only the fill
+    changes; its results equal core's at every level, above a closed roof too."""
+    from app.uplift_panel import UpliftChecker
+    from core.uplift import PartResistance
+
+    case = read_section_file(SAMPLES / f"{name}.section.json")
+    for part in case.section.loaded_part_names:
+        case = case.with_resistance(part, PartResistance(500.0, 250.0))
+    checker = UpliftChecker()
+    s = case.section
+    top = s.z_max + (0 if s.is_open else 0.5 * (s.z_max - s.z_min))
+    for level in np.linspace(s.z_min - 0.1, top, 9):
+        c = case.with_level(level)
+        sol = c.solve()
+        assert checker.check(c, sol) == c.uplift(sol), level
