@@ -29,7 +29,7 @@ from PySide6.QtWidgets import (QGridLayout, QGroupBox, QHBoxLayout, QLabel, QLin
 from core.case import CaseError
 from core.report_tables import fmt
 from core.uplift import (DEFAULT_REQUIRED_FACTOR, REQUIRED_FACTOR_SOURCE, UPLIFT_CAUTION,
-                         UpliftResult, fill_range, worst_uplift)
+                         uplift_check, worst_uplifts)
 
 from .commands import RequiredFactorCommand, ResistanceCommand, resistance_unit
 from .panels import parse_number
@@ -56,13 +56,12 @@ def verdict_html(ok, factor, level_text=None):
 
 
 class UpliftChecker:
-    """:func:`core.uplift.uplift_check`, remembering each part's worst level.
+    """:func:`core.uplift.uplift_check`, keeping each part's worst level.
 
-    The worst level depends on the outline, the liquid and the range of
-    levels, not on the current level (except for a closed section filled
-    above its roof, where the range grows with the level): a slider drag
-    then costs one look-up per part instead of a search over the range,
-    which on a part of hundreds of edges takes milliseconds.
+    The worst level depends on the outline and the liquid, not on the
+    current level (:func:`core.uplift.worst_uplifts`): a slider drag then
+    costs one look-up per part instead of a search over the range, which on
+    a part of hundreds of edges takes milliseconds.
     """
 
     def __init__(self):
@@ -73,38 +72,18 @@ class UpliftChecker:
         """The same list of :class:`core.uplift.UpliftResult` as
         ``case.uplift(solution)``."""
         section = case.section
-        factor = float(case.required_uplift_factor)
         density, gravity = case.liquid.density, case.gravity
-        z_lo, z_hi = fill_range(section, solution.level)
-        key = (section, density, gravity, z_lo, z_hi)
-        if self._key is None or self._key[0] is not section or self._key[1:] != key[1:]:
-            self._key = key
+        if (self._key is None or self._key[0] is not section
+                or self._key[1:] != (density, gravity)):
+            self._key = (section, density, gravity)
             self._worst = {}
-        scale = 1.0 if section.is_axisymmetric else section.width
         resistances = case.resistance_map
-        out = []
-        for name in section.loaded_part_names:
-            res = resistances.get(name)
-            if res is None:
-                continue
-            resistance = res.total * scale
-            uplift = max(-solution.parts[name].down, 0.0)
-            worst = self._worst.get(name)
-            if worst is None:
-                worst = self._worst[name] = worst_uplift(section, name, density, gravity,
-                                                         z_lo=z_lo, z_hi=z_hi)
-            wl, wu = worst
-            if uplift > wu:  # the current level is the worst (as core does)
-                wl, wu = solution.level, uplift
-            out.append(UpliftResult(
-                part=name, resistance=resistance, required_factor=factor, uplift=uplift,
-                factor=_ratio(resistance, uplift), worst_level=wl, worst_uplift=wu,
-                worst_factor=_ratio(resistance, wu)))
-        return out
-
-
-def _ratio(resistance, uplift):
-    return math.inf if uplift <= 0 else resistance / uplift
+        missing = [p for p in section.loaded_part_names
+                   if p in resistances and p not in self._worst]
+        if missing:
+            self._worst.update(worst_uplifts(section, missing, density, gravity))
+        return uplift_check(case, resistances, case.required_uplift_factor, solution,
+                            worst=self._worst)
 
 
 class _PartRow:

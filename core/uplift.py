@@ -45,6 +45,7 @@ __all__ = [
     "fill_range",
     "uplift_check",
     "worst_uplift",
+    "worst_uplifts",
 ]
 
 DEFAULT_REQUIRED_FACTOR = 1.0 / 0.9
@@ -209,7 +210,23 @@ def worst_uplift(section, part, density, gravity=STANDARD_GRAVITY, *, z_lo=None,
     return float(cand[k]), max(float(up[k]), 0.0)
 
 
-def uplift_check(case, resistances, required_factor=DEFAULT_REQUIRED_FACTOR, solution=None):
+def worst_uplifts(section, parts, density, gravity=STANDARD_GRAVITY):
+    """:func:`worst_uplift` of each part over the levels from empty to the
+    top level (spill level or roof), ``{part: (level [m], uplift [N])}``.
+
+    It depends on the outline and the liquid only, not on the current level,
+    so a caller may keep it while only the fill changes and pass it to
+    :func:`uplift_check`. Above the roof of a closed section every edge is
+    fully wetted and a part's load is linear in the level, so the worst over
+    a range reaching a standpipe head is this or the load at the head.
+    """
+    lo, hi = section.z_min, section.top_level
+    return {name: worst_uplift(section, name, density, gravity, z_lo=lo, z_hi=hi)
+            for name in parts}
+
+
+def uplift_check(case, resistances, required_factor=DEFAULT_REQUIRED_FACTOR, solution=None,
+                 worst=None):
     """Check every part that has a resistance entered.
 
     Parameters
@@ -221,6 +238,9 @@ def uplift_check(case, resistances, required_factor=DEFAULT_REQUIRED_FACTOR, sol
         Required factor against uplift [], > 0.
     solution : core.hydrostatics.Solution, optional
         The case's solution at its current level, if already computed.
+    worst : mapping, optional
+        :func:`worst_uplifts` of the case's section and liquid, if already
+        computed (it does not change with the level).
 
     Returns
     -------
@@ -233,18 +253,15 @@ def uplift_check(case, resistances, required_factor=DEFAULT_REQUIRED_FACTOR, sol
     sol = case.solve() if solution is None else solution
     section = case.section
     scale = 1.0 if section.is_axisymmetric else section.width
-    z_lo, z_hi = fill_range(section, sol.level)
+    checked = [name for name in section.loaded_part_names if name in resistances]
+    if worst is None:
+        worst = worst_uplifts(section, checked, case.liquid.density, case.gravity)
     out = []
-    for name in section.loaded_part_names:
-        res = resistances.get(name)
-        if res is None:
-            continue
-        resistance = res.total * scale
-        load = sol.parts[name]
-        uplift = max(-load.down, 0.0)
-        wl, wu = worst_uplift(section, name, case.liquid.density, case.gravity,
-                              z_lo=z_lo, z_hi=z_hi)
-        if uplift > wu:  # the current level is the worst (closed: head above range)
+    for name in checked:
+        resistance = resistances[name].total * scale
+        uplift = max(-sol.parts[name].down, 0.0)
+        wl, wu = worst[name]
+        if uplift > wu:  # a standpipe head above the roof of a closed section
             wl, wu = sol.level, uplift
         out.append(UpliftResult(part=name, resistance=resistance,
                                 required_factor=required_factor, uplift=uplift,
