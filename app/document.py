@@ -15,6 +15,14 @@ The document never holds an invalid section (core refuses to build one). An
 outline being edited into an invalid shape is kept as a :class:`Draft`
 beside the last valid case, until an edit makes it valid again or it is
 discarded; the results keep the last valid state meanwhile.
+
+While a vertex is dragged the outline is a :class:`Preview`, not yet an
+edit: :meth:`Document.preview_outline` records it, and the same coalescing
+timer checks it and, if valid, solves it, so :attr:`solved` carries the
+preview's results and every view (totals, tables, chart, canvas) follows the
+drag. An invalid preview keeps the last valid results and carries the fault.
+The drag's one undo command is pushed on release (:mod:`app.editing`), after
+:meth:`Document.end_preview`.
 """
 
 from __future__ import annotations
@@ -32,10 +40,15 @@ from core.section import SectionError
 
 from .display import DisplayChoice
 
-__all__ = ["Document", "Draft", "fill_range"]
+__all__ = ["Document", "Draft", "Preview", "fill_range", "preview_steps"]
 
 CHART_STEPS = 121
 """Levels in the loads-against-level table."""
+
+PREVIEW_TABLE_ELEMENTS = 50_000
+"""Levels x edges of the chart's table during a drag: the table costs about
+0.05 us per element, so a drag step stays within a frame; the full table
+follows on release."""
 
 
 @dataclass(frozen=True, eq=False)
@@ -55,6 +68,40 @@ class Draft:
     outline: np.ndarray
     parts: tuple
     error: SectionError
+
+
+@dataclass(frozen=True, eq=False)
+class Preview:
+    """An outline being dragged, shown live before it becomes an edit.
+
+    Attributes
+    ----------
+    outline : numpy.ndarray
+        (N, 2) vertices [m].
+    parts : tuple of str
+        One name per edge.
+    case : core.case.Case or None
+        The case with the previewed section, once checked and valid.
+    error : SectionError or None
+        Why core refuses the outline, once checked and invalid.
+    """
+
+    outline: np.ndarray
+    parts: tuple
+    case: Case | None = None
+    error: SectionError | None = None
+
+    @property
+    def checked(self):
+        """True once the recompute step has built (or refused) the section."""
+        return self.case is not None or self.error is not None
+
+
+def preview_steps(n_edges):
+    """Levels of the chart's table during a drag of an outline with
+    ``n_edges`` edges: all :data:`CHART_STEPS` for small sections, fewer
+    (at least 21) for large ones."""
+    return int(min(CHART_STEPS, max(21, PREVIEW_TABLE_ELEMENTS // max(n_edges, 1))))
 
 
 def fill_range(section):
@@ -81,6 +128,8 @@ class Document(QObject):
     pathChanged = Signal()
     modifiedChanged = Signal(bool)
     draftChanged = Signal()
+    previewChanged = Signal()
+    """A dragged outline was checked (valid or not), or the drag ended."""
     selectionChanged = Signal()
     """The selected edge or vertex changed (shared by canvas and tables)."""
     solved = Signal(object)
@@ -100,10 +149,15 @@ class Document(QObject):
         self._units = DisplayChoice()
         self._diagram_scale = None
         self._draft = None
+        self._preview = None
+        self._preview_marked = False
+        self._results_of_preview = False
         self._selected_edge = None
         self._selected_vertex = None
         self._modified = not saved
         self.solution = None
+        """The :class:`core.hydrostatics.Solution` shown: of the valid
+        preview during a drag, else of the case."""
         self.level_table = None
         self._need_solve = True
         self._need_table = True
@@ -149,6 +203,28 @@ class Document(QObject):
         return self._draft
 
     @property
+    def preview(self):
+        """The :class:`Preview` of an outline being dragged, or None."""
+        return self._preview
+
+    @property
+    def shown_case(self):
+        """The case the results are of: the valid preview's during a drag,
+        else the document's."""
+        p = self._preview
+        return p.case if p is not None and p.case is not None else self._case
+
+    def fault(self):
+        """(outline [m], SectionError) of the invalid outline to mark on the
+        canvas (an invalid preview first, then the draft), or None."""
+        p = self._preview
+        if p is not None and p.error is not None:
+            return p.outline, p.error
+        if self._draft is not None:
+            return self._draft.outline, self._draft.error
+        return None
+
+    @property
     def is_modified(self):
         return self._modified
 
@@ -161,8 +237,10 @@ class Document(QObject):
         return self._selected_vertex
 
     def working_outline(self):
-        """(outline [m], parts) being edited: the draft's if any, else the
-        section's."""
+        """(outline [m], parts) being edited: the dragged preview's if any,
+        else the draft's, else the section's."""
+        if self._preview is not None:
+            return self._preview.outline, self._preview.parts
         if self._draft is not None:
             return self._draft.outline, self._draft.parts
         return self._case.section.outline, self._case.section.parts
@@ -174,6 +252,7 @@ class Document(QObject):
             raise TypeError("a Document holds a core.case.Case")
         old = self._case
         self._case = case
+        self.end_preview()
         self.set_draft(None)
         section_changed = old.section is not case.section and old.section != case.section
         liquid_changed = old.liquid != case.liquid or old.gravity != case.gravity
@@ -214,8 +293,11 @@ class Document(QObject):
             saved = path is not None
         self._saved_case = case if saved else None
         self._draft = None
+        self._preview = None
+        self._preview_marked = self._results_of_preview = False
         self._case = case
         self.draftChanged.emit()
+        self.previewChanged.emit()
         self.sectionChanged.emit()
         self.liquidChanged.emit()
         self.fillChanged.emit()
@@ -258,6 +340,40 @@ class Document(QObject):
         self._draft = draft
         self.draftChanged.emit()
 
+    def preview_outline(self, outline, parts=None):
+        """Show ``outline`` (a vertex being dragged) live without an edit.
+
+        The next recompute checks it: if valid, the results (:attr:`solved`,
+        :attr:`levelTableReady`) are of the previewed case; if not, they keep
+        their last valid state and :meth:`fault` gives the reason. A burst of
+        calls costs one check and one solve per event-loop turn.
+
+        Parameters
+        ----------
+        outline : array_like
+            (N, 2) vertices [m].
+        parts : tuple of str, optional
+            One name per edge (default: those being edited).
+        """
+        if parts is None:
+            parts = self.working_outline()[1]
+        self._preview = Preview(np.array(outline, dtype=np.float64), tuple(parts))
+        self._timer.start()
+
+    def end_preview(self):
+        """Stop previewing a dragged outline; the results return to the
+        document's case at the next recompute."""
+        if self._preview is None:
+            return
+        self._preview = None
+        if self._results_of_preview:
+            self._results_of_preview = False
+            self._need_solve = self._need_table = True
+            self._timer.start()
+        if self._preview_marked:
+            self._preview_marked = False
+            self.previewChanged.emit()
+
     def select_edge(self, index):
         index = None if index is None else int(index)
         if index != self._selected_edge or self._selected_vertex is not None:
@@ -291,10 +407,34 @@ class Document(QObject):
         elif self._need_solve or self._need_table:
             self.recompute()
 
+    def _check_preview(self):
+        """Build the pending preview's section (or record why not)."""
+        p = self._preview
+        try:
+            section = self._case.section.replace(outline=p.outline, parts=p.parts)
+        except SectionError as exc:
+            self._preview = Preview(p.outline, p.parts, None, exc)
+        else:
+            self._preview = Preview(p.outline, p.parts, self._case.with_section(section))
+            self._need_solve = self._need_table = True
+        self._preview_marked = True
+        self.previewChanged.emit()
+
     def recompute(self):
-        """Solve the case; emit :attr:`solved` (and :attr:`levelTableReady`
-        when the geometry or liquid changed)."""
-        case = self._case
+        """Solve the case (or the valid preview of a drag); emit
+        :attr:`solved` (and :attr:`levelTableReady` when the geometry or
+        liquid changed)."""
+        preview = self._preview
+        if preview is not None:
+            if not preview.checked:
+                self._check_preview()
+                preview = self._preview
+            if preview.case is None:  # invalid: the last valid results stay
+                return
+            case = preview.case
+        else:
+            case = self._case
+        self._results_of_preview = preview is not None
         if self._need_solve:
             self._need_solve = False
             self.solution = case.solve()
@@ -303,7 +443,8 @@ class Document(QObject):
             self._need_table = False
             section = case.section
             lo, hi = fill_range(section)
-            levels = np.linspace(lo, hi, CHART_STEPS)
+            steps = CHART_STEPS if preview is None else preview_steps(section.n_edges)
+            levels = np.linspace(lo, hi, steps)
             if section.is_open:
                 levels[-1] = section.spill_level
             self.level_table = level_table(section, case.liquid.density, case.gravity,

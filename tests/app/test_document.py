@@ -134,3 +134,88 @@ def test_every_template_solves_in_a_document(key, qtbot):
     assert d.solution.floor_force + d.solution.support_reaction == pytest.approx(
         d.solution.fluid_weight, rel=1e-9)
     assert d.level_table.levels[0] == s.z_min
+
+
+# ------------------------------------------------------------ drag preview
+def _moved(doc, index, dx, dz):
+    outline = np.array(doc.section.outline)
+    outline[index] += (dx, dz)
+    return outline
+
+
+def test_preview_publishes_the_dragged_outline_results(doc, qtbot):
+    from core.fill import volume_below
+
+    before = doc.case
+    committed = doc.solution
+    outline = _moved(doc, 1, 0.4, 0.0)
+    seen = []
+    doc.solved.connect(seen.append)
+    with qtbot.waitSignal(doc.previewChanged, timeout=1000):
+        doc.preview_outline(outline)
+    doc.flush()
+    dragged = before.section.replace(outline=outline)
+    assert len(seen) == 1 and doc.solution is seen[0]
+    assert doc.solution.section == dragged
+    # The volume is core's exact volume of the dragged section (not the old one).
+    assert doc.solution.volume == volume_below(dragged, before.level)
+    assert doc.solution.volume > committed.volume
+    assert doc.level_table.levels[0] == dragged.z_min
+    assert doc.shown_case.section == dragged
+    # Nothing is an edit yet: same case, no undo step, not modified.
+    assert doc.case is before and doc.undo_stack.count() == 0 and not doc.is_modified
+    doc.end_preview()
+    doc.flush()
+    assert doc.preview is None and doc.solution.volume == committed.volume
+    assert doc.level_table.levels.size == 121
+
+
+def test_preview_bursts_solve_once_per_event_loop_turn(doc):
+    seen = []
+    doc.solved.connect(seen.append)
+    for dx in np.linspace(0.01, 0.3, 25):
+        doc.preview_outline(_moved(doc, 1, dx, 0.0))
+    doc.flush()
+    assert len(seen) == 1
+    assert doc.solution.section.outline[1, 0] == pytest.approx(doc.section.outline[1, 0] + 0.3)
+
+
+def test_invalid_preview_keeps_last_valid_results_and_gives_the_fault(doc):
+    doc.preview_outline(_moved(doc, 1, 0.2, 0.0))
+    doc.flush()
+    last_valid = doc.solution
+    outline = np.array(doc.section.outline)
+    outline[1] = (-1.0, 2.5)  # across the far wall: the outline crosses itself
+    doc.preview_outline(outline)
+    doc.flush()
+    assert doc.solution is last_valid
+    fault_outline, error = doc.fault()
+    assert "crosses" in str(error) and np.array_equal(fault_outline, outline)
+    assert doc.draft is None  # a preview, not a draft: nothing is kept after the drag
+    doc.end_preview()
+    doc.flush()
+    assert doc.fault() is None and doc.solution.section == doc.section
+
+
+def test_drag_release_pushes_one_command_from_the_preview(doc):
+    before = doc.case
+    for dx in np.linspace(0.05, 0.5, 10):
+        doc.preview_outline(_moved(doc, 1, dx, 0.0))
+        doc.flush()
+    x, z = before.section.outline[1]
+    doc.end_preview()
+    assert editing.move_vertex(doc, 1, x + 0.5, z, merge_key=None)
+    doc.flush()
+    assert doc.undo_stack.count() == 1
+    assert doc.solution.section is doc.section and doc.preview is None
+    doc.undo_stack.undo()
+    assert doc.case is before
+
+
+def test_set_case_during_a_preview_ends_it(doc):
+    doc.preview_outline(_moved(doc, 1, 0.3, 0.0))
+    doc.flush()
+    editing.fill_to_level(doc, 1.0)
+    doc.flush()
+    assert doc.preview is None
+    assert doc.solution.section is doc.section and doc.solution.level == 1.0
