@@ -6,11 +6,21 @@ pressure diagrams, one ``connect='pairs'`` curve for all pressure arrows,
 one curve per part for the edges, a small pool of text labels. A burst of
 changes redraws once, from a zero-interval single-shot timer.
 
-Editing (mode "edit"): drag a vertex (live preview, one undo step on
+Editing (mode "edit"): drag a vertex (the document previews the dragged
+outline, so the totals, tables and chart follow it live; one undo step on
 release), double-click an edge to insert a vertex there, Delete removes the
 selected vertex, arrow keys nudge it by the snap spacing, right-click an edge
 to set its part. Mode "draw": click vertices of a new outline; double-click,
 Enter or a click on the first vertex closes it, Esc cancels.
+
+An axisymmetric section is drawn as the vessel it describes: the real half
+(x >= 0, the one edited) and, faintly, its mirror image x -> -x, with the
+axis as a dash-dot centre line.
+
+Labels are laid out by :class:`app.label_layout.LabelLayout`: the most
+important first (resultants, largest first; the free surface; pressure
+values, deepest first); a label that would cover another, an arrow or a
+vertex handle is moved (if it must show) or left out.
 """
 
 from __future__ import annotations
@@ -18,8 +28,8 @@ from __future__ import annotations
 import numpy as np
 import pyqtgraph as pg
 import shapely
-from PySide6.QtCore import QPointF, Qt, QTimer, Signal
-from PySide6.QtGui import QBrush, QColor, QPainterPath, QPen
+from PySide6.QtCore import Qt, QTimer, Signal
+from PySide6.QtGui import QBrush, QColor, QFont, QFontMetricsF, QPainterPath, QPen, QTransform
 from PySide6.QtWidgets import QGraphicsPathItem, QInputDialog, QMenu
 
 from core.section import AXIS, FLOOR, OPEN, Section, SectionError
@@ -27,8 +37,9 @@ from core.section import AXIS, FLOOR, OPEN, Section, SectionError
 from . import editing
 from .diagram import (arrow_strokes, auto_scale, carrying_edges, diagram_polygons,
                       part_runs, pressure_arrows, run_resultants, wetted_edges)
-from .grid import LightGrid
 from .display import format_number
+from .grid import LightGrid
+from .label_layout import LabelLayout
 
 __all__ = ["SectionCanvas", "VertexHandles", "part_colour", "RESERVED_PART_CHOICES"]
 
@@ -57,6 +68,18 @@ MAX_HANDLES = 3000
 """Above this many vertices the handles are hidden (edit in the table)."""
 MAX_PRESSURE_LABELS = 16
 MAX_RESULTANT_LABELS = 30
+MIRROR_COLOUR = QColor(52, 80, 110, 90)
+"""Pen of the mirrored half of an axisymmetric section."""
+MIRROR_LIQUID_BRUSH = QColor(126, 178, 226, 45)
+CENTRE_LINE_COLOUR = "#5a6b7d"
+MAX_HANDLE_OBSTACLES = 120
+"""Up to this many vertices, labels keep off the vertex handles."""
+LABEL_MARGIN = 4.0
+"""The text item's document margin around its text [px]."""
+LABEL_FILL = pg.mkBrush(255, 255, 255, 170)
+"""Behind each label, so lines under it do not cross its text."""
+SAME_VALUE_PX = 150.0
+"""A pressure value already labelled this near [px] is not labelled again."""
 
 
 def part_colour(name, known=()):
@@ -140,6 +163,26 @@ class VertexHandles(pg.ScatterPlotItem):
     def cancel_drag(self):
         self._dragging = None
 
+    def set_positions(self, pos):
+        """Show handles at ``pos`` ((N, 2) [m]). When only a few moved (a
+        drag), they are moved in place: rebuilding a few thousand spots
+        costs milliseconds a frame."""
+        pos = np.asarray(pos, dtype=np.float64)
+        data = self.data
+        if len(data) == len(pos) and len(pos) > 0:
+            moved = np.flatnonzero((data["x"] != pos[:, 0]) | (data["y"] != pos[:, 1]))
+            if moved.size == 0:
+                return
+            if moved.size <= 8:
+                data["x"][moved] = pos[moved, 0]
+                data["y"][moved] = pos[moved, 1]
+                self.prepareGeometryChange()
+                self.informViewBoundsChanged()
+                self.bounds = [None, None]
+                self.invalidate()
+                return
+        self.setData(pos=pos)
+
 
 class SectionCanvas(pg.PlotWidget):
     """The section drawing with its loads, and the outline editor."""
@@ -158,7 +201,6 @@ class SectionCanvas(pg.PlotWidget):
         self.snap_spacing = 0.1
         """Snap grid spacing [m]."""
         self._drawn = []
-        self._preview = None
         self._polygon = None
         self._runs = None
         self._solution = None
@@ -216,6 +258,22 @@ class SectionCanvas(pg.PlotWidget):
         self._fault_text.setZValue(60)
         self._fault_text.hide()
         vb.addItem(self._fault_text)
+        # The mirrored half of an axisymmetric section (drawn, never edited).
+        self._mirror = pg.PlotCurveItem(connect="pairs", skipFiniteCheck=True,
+                                        pen=_cosmetic_pen(MIRROR_COLOUR, 2.0))
+        self._mirror.setZValue(9)
+        vb.addItem(self._mirror)
+        self._mirror_liquid = QGraphicsPathItem()
+        self._mirror_liquid.setBrush(QBrush(MIRROR_LIQUID_BRUSH))
+        self._mirror_liquid.setPen(QPen(Qt.NoPen))
+        self._mirror_liquid.setZValue(-11)
+        vb.addItem(self._mirror_liquid)
+        self._centre_line = pg.PlotCurveItem(pen=pg.mkPen(CENTRE_LINE_COLOUR, width=1,
+                                                          style=Qt.DashDotLine))
+        self._centre_line.setZValue(11)
+        vb.addItem(self._centre_line)
+        for item in (self._mirror, self._mirror_liquid, self._centre_line):
+            item.setVisible(False)
         self._sketch = pg.PlotCurveItem(pen=pg.mkPen("#1a1a1a", width=1.5, style=Qt.DashLine),
                                         symbol=None)
         self._sketch.setZValue(45)
@@ -230,6 +288,19 @@ class SectionCanvas(pg.PlotWidget):
         self._legend = plot.addLegend(offset=(10, 10), labelTextSize="9pt")
         self._labels = []
         self._labels_used = 0
+        self._label_requests = []
+        self._arrow_shafts = []
+        self._label_outline = np.empty((0, 2))
+        self._layout = LabelLayout()
+        self._px = (1e-9, 1e-9)
+        self._text_sizes = {}
+        self._fonts = None
+        self._label_timer = QTimer(self)
+        self._label_timer.setSingleShot(True)
+        self._label_timer.setInterval(0)
+        self._label_timer.timeout.connect(self.layout_labels)
+        # Labels are laid out in pixels: again when the view zooms or pans.
+        vb.sigRangeChanged.connect(self._on_rangeChanged)
 
         self._redraw_timer = QTimer(self)
         self._redraw_timer.setSingleShot(True)
@@ -239,6 +310,7 @@ class SectionCanvas(pg.PlotWidget):
 
         document.sectionChanged.connect(self._on_sectionChanged)
         document.draftChanged.connect(self._on_draftChanged)
+        document.previewChanged.connect(self._on_previewChanged)
         document.solved.connect(self._on_solved)
         document.unitsChanged.connect(self._on_unitsChanged)
         document.diagramScaleChanged.connect(self._on_diagramScaleChanged)
@@ -252,6 +324,16 @@ class SectionCanvas(pg.PlotWidget):
         self._schedule(outline=True)
 
     # ----------------------------------------------------------- state
+    @property
+    def _preview(self):
+        """The document's preview of the outline being dragged, or None."""
+        return self._doc.preview
+
+    @property
+    def mirrored(self):
+        """True if the mirrored half of an axisymmetric section is drawn."""
+        return self._mirror.isVisible()
+
     @property
     def mode(self):
         return self._mode
@@ -272,6 +354,8 @@ class SectionCanvas(pg.PlotWidget):
         outline, _ = self._doc.working_outline()
         x0, z0 = outline.min(axis=0)
         x1, z1 = outline.max(axis=0)
+        if self._doc.section.is_axisymmetric:
+            x0 = min(x0, -x1)
         for item in (self._diagram, self._down, self._up):
             r = item.mapRectToView(item.boundingRect()) if hasattr(item, "mapRectToView") \
                 else item.boundingRect()
@@ -293,11 +377,17 @@ class SectionCanvas(pg.PlotWidget):
 
     # ------------------------------------------------------- document
     def _on_sectionChanged(self):
-        self._runs = None
+        self._parts_key = None
         self._polygon = None
         self._schedule(outline=True)
 
     def _on_draftChanged(self):
+        self._schedule(outline=True)
+
+    def _on_previewChanged(self):
+        preview = self._doc.preview
+        if preview is not None and preview.error is not None:
+            self.message.emit(f"Invalid outline: {preview.error}")
         self._schedule(outline=True)
 
     def _on_solved(self, solution):
@@ -322,7 +412,7 @@ class SectionCanvas(pg.PlotWidget):
             self._draw_outline()
             self._draw_draft()
             self._draw_selection()
-        solution = self._preview or self._solution
+        solution = self._solution
         if solution is not None:
             self._draw_results(solution)
             if self._first_fit:
@@ -353,32 +443,52 @@ class SectionCanvas(pg.PlotWidget):
                 self._part_curves[name] = curve
             curve.setPen(pg.mkPen(colour, width=width, style=style))
             curve.setData(x, z)
+        self._draw_mirror(outline, parts_arr)
         if len(outline) <= MAX_HANDLES:
-            self.handles.setData(pos=np.asarray(outline))
+            self.handles.set_positions(outline)
             self.handles.show()
         else:
             self.handles.setData(pos=np.empty((0, 2)))
             self.handles.hide()
 
+    def _draw_mirror(self, outline, parts_arr):
+        """The other half of an axisymmetric section, faintly (x -> -x), and
+        the axis as a centre line; hidden for plane sections."""
+        if not self._doc.section.is_axisymmetric:
+            for item in (self._mirror, self._mirror_liquid, self._centre_line):
+                if item.isVisible():
+                    item.setVisible(False)
+            return
+        edges = np.flatnonzero((parts_arr != AXIS) & (parts_arr != OPEN))
+        x, z = _segments(outline, edges)
+        self._mirror.setData(-x, z)
+        z0, z1 = float(outline[:, 1].min()), float(outline[:, 1].max())
+        over = 0.06 * max(z1 - z0, float(np.ptp(outline[:, 0])), 1e-9)
+        self._centre_line.setData([0.0, 0.0], [z0 - over, z1 + over])
+        for item in (self._mirror, self._mirror_liquid, self._centre_line):
+            if not item.isVisible():
+                item.setVisible(True)
+
     def _draw_draft(self):
-        draft = self._doc.draft
-        if draft is None:
+        fault = self._doc.fault()
+        if fault is None:
             self._draft_curve.setData([], [])
             self._fault.setData([], [])
             self._fault_text.hide()
             return
-        pts = np.vstack([draft.outline, draft.outline[:1]])
+        outline, error = fault
+        pts = np.vstack([outline, outline[:1]])
         self._draft_curve.setData(pts[:, 0], pts[:, 1])
-        where = self._fault_location(draft)
+        where = self._fault_location(outline, error)
         self._fault.setData([where[0]], [where[1]])
-        self._fault_text.setText(str(draft.error))
+        self._fault_text.setText(str(error))
         self._fault_text.setPos(where[0], where[1])
         self._fault_text.show()
 
     @staticmethod
-    def _fault_location(draft):
-        err = draft.error
-        pts = draft.outline
+    def _fault_location(outline, error):
+        err = error
+        pts = outline
         if err.location is not None:
             return err.location
         if err.vertices:
@@ -418,12 +528,19 @@ class SectionCanvas(pg.PlotWidget):
         if self._polygon is None or self._polygon_section is not section:
             self._polygon = shapely.Polygon(outline)
             self._polygon_section = section
+        axi = section.is_axisymmetric
         if h > zmin:
             wet = shapely.clip_by_rect(self._polygon, xmin - 1, zmin - 1, xmax + 1, h)
-            self._liquid.setPath(self._polygon_path(wet))
+            path = self._polygon_path(wet)
+            self._liquid.setPath(path)
+            if axi:
+                self._mirror_liquid.setPath(QTransform.fromScale(-1.0, 1.0).map(path))
         else:
             self._liquid.setPath(QPainterPath())
+            if axi:
+                self._mirror_liquid.setPath(QPainterPath())
         margin = 0.04 * size
+        left_end = -xmax if axi else xmin
         if h > zmin:
             line = shapely.LineString([(xmin - 1, h), (xmax + 1, h)])
             sx, sz = [], []
@@ -435,19 +552,22 @@ class SectionCanvas(pg.PlotWidget):
                     sx += [c[0, 0], c[-1, 0]]
                     sz += [h, h]
             if not sx:  # level above a closed section's roof: a standpipe head
-                sx, sz = [xmin - margin, xmax + margin], [h, h]
+                sx, sz = [left_end - margin, xmax + margin], [h, h]
+            elif axi:  # across the whole vessel
+                sx, sz = sx + [-v for v in sx], sz + sz
             self._surface.setData(np.array(sx), np.array(sz), connect="pairs")
         else:
             self._surface.setData([], [])
         spill = section.spill_level
         if spill is not None:
-            self._spill.setData([xmin - 2 * margin, xmax + 2 * margin], [spill, spill])
+            self._spill.setData([left_end - 2 * margin, xmax + 2 * margin], [spill, spill])
         else:
             self._spill.setData([], [])
 
-        if getattr(self, "_carries_section", None) is not section:
+        if not self._parts_cached(section):
             self._carries = carrying_edges(section)
-            self._carries_section = section
+            self._runs = part_runs(section)
+            self._parts_key = section.parts
         w = wetted_edges(solution, self._carries)
         scale = self._scale(solution)
         x, z, connect = diagram_polygons(w, scale)
@@ -458,25 +578,25 @@ class SectionCanvas(pg.PlotWidget):
         ax, az = arrow_strokes(tx, tz, px, pz, 0.02 * size)
         self._arrows.setData(ax, az)
 
-        self._labels_used = 0
-        self._placed = []
-        px = self._vb.viewPixelSize()
-        self._px = (px[0] or 1e-9, px[1] or 1e-9)
-        if self._runs is None or self._runs_section is not section:
-            self._runs = part_runs(section)
-            self._runs_section = section
+        self._label_requests = []
+        self._arrow_shafts = []
+        self._label_outline = outline
         self._draw_resultants(solution, w, size, units)
-        if spill is not None:
-            self._label(xmax + 2 * margin, spill, "spill level", "#5a6b7d", (0, 0.5))
         if h > zmin:
             sx = self._surface.getData()[0]
-            left = float(np.min(sx)) if sx is not None and len(sx) else xmin
+            left = float(np.min(sx)) if sx is not None and len(sx) else left_end
             self._label(left - 0.5 * margin, h, f"free surface {units.fmt_length(h)}",
                         SURFACE_COLOUR, (1, 0.5))
+        if spill is not None:
+            self._label(xmax + 2 * margin, spill, "spill level", "#5a6b7d", (0, 0.5))
         self._label_pressures(w, scale, units)
-        for item in self._labels[self._labels_used:]:
-            if item.isVisible():
-                item.hide()
+        self.layout_labels()
+
+    def _parts_cached(self, section):
+        """True if the part runs and load-carrying mask are of ``section``'s
+        parts (they depend on nothing else, so a dragged outline keeps them)."""
+        key = getattr(self, "_parts_key", None)
+        return key is not None and (key is section.parts or key == section.parts)
 
     def _polygon_path(self, geom):
         xs, zs, cs = [], [], []
@@ -494,35 +614,79 @@ class SectionCanvas(pg.PlotWidget):
             return QPainterPath()
         return _path(np.concatenate(xs), np.concatenate(zs), np.concatenate(cs))
 
-    def _free(self, x, z, anchor, text):
-        """True if a label at (x, z) would not cover one already placed
-        (a rough box of the text's size, in pixels)."""
-        wpx = 7.0 * len(text)
-        cx = x / self._px[0] + (0.5 - anchor[0]) * wpx
-        cy = z / self._px[1] - (0.5 - anchor[1]) * 16.0
-        for ox, oy, ow in self._placed:
-            if abs(cx - ox) < 0.5 * (wpx + ow) + 4 and abs(cy - oy) < 18:
-                return False
-        self._placed.append((cx, cy, wpx))
-        return True
-
     def _polygon_section_is(self, section):
         return self._polygon is not None and getattr(self, "_polygon_section", None) is section
 
-    def _label(self, x, z, text, colour, anchor, bold=False, optional=False):
-        if not self._free(x, z, anchor, text):
-            if optional:
-                return None
-            # A label that must show: move it up or down out of the way.
-            for k in (1, -1, 2, -2, 3, -3):
-                dz = k * 18 * self._px[1]
-                if self._free(x, z + dz, anchor, text):
-                    z += dz
-                    break
+    def _text_size(self, text, bold):
+        """(width, height) [px] of a label's whole text item (text plus the
+        item's document margin), cached by text."""
+        key = (text, bold)
+        size = self._text_sizes.get(key)
+        if size is None:
+            if self._fonts is None:
+                probe = pg.TextItem()
+                regular = QFont(probe.textItem.font())
+                strong = QFont(regular)
+                strong.setWeight(QFont.DemiBold)
+                self._fonts = (QFontMetricsF(regular), QFontMetricsF(strong))
+            fm = self._fonts[1 if bold else 0]
+            size = (fm.horizontalAdvance(text) + 2 * LABEL_MARGIN,
+                    fm.height() + 2 * LABEL_MARGIN)
+            if len(self._text_sizes) > 2000:
+                self._text_sizes.clear()
+            self._text_sizes[key] = size
+        return size
+
+    def _label(self, x, z, text, colour, anchor, bold=False, optional=False, once=False):
+        """Ask for ``text`` at (x, z) [m], in order of importance: shown
+        unless (``optional``) the place is taken; a label that must show
+        steps aside instead. ``once``: not shown if the same text is already
+        shown nearby."""
+        self._label_requests.append((x, z, text, colour, anchor, bold, optional, once))
+
+    def _on_rangeChanged(self, *_):
+        if self._label_requests:
+            self._label_timer.start()
+
+    def layout_labels(self):
+        """Place the labels asked for at the current zoom (pixel sizes)."""
+        self._label_timer.stop()
+        px = self._vb.viewPixelSize()
+        self._px = (px[0] or 1e-9, px[1] or 1e-9)
+        self._layout = LabelLayout()
+        outline = self._label_outline
+        if len(outline) <= MAX_HANDLE_OBSTACLES:
+            for vx, vz in outline / self._px:
+                self._layout.add_obstacle(vx - 5, vz - 5, vx + 5, vz + 5)
+        for shaft in self._arrow_shafts:
+            self._arrow_obstacle(*shaft)
+        self._labels_used = 0
+        shown = []  # (text, x, y [px]) of the "once" labels placed
+        for x, z, text, colour, anchor, bold, optional, once in self._label_requests:
+            if once:
+                X, Y = x / self._px[0], z / self._px[1]
+                if any(t == text and abs(X - a) + abs(Y - b) < SAME_VALUE_PX
+                       for t, a, b in shown):
+                    continue
+            item = self._place_label(x, z, text, colour, anchor, bold, optional)
+            if once and item is not None:
+                shown.append((text, X, Y))
+        for item in self._labels[self._labels_used:]:
+            if item.isVisible():
+                item.hide()
+
+    def _place_label(self, x, z, text, colour, anchor, bold, optional):
+        width, height = self._text_size(text, bold)
+        shift = self._layout.place(x / self._px[0], z / self._px[1], width, height, anchor,
+                                   required=not optional, margin=LABEL_MARGIN)
+        if shift is None:
+            return None
+        x += shift[0] * self._px[0]
+        z += shift[1] * self._px[1]
         if self._labels_used < len(self._labels):
             item = self._labels[self._labels_used]
         else:
-            item = pg.TextItem(anchor=anchor)
+            item = pg.TextItem(anchor=anchor, fill=LABEL_FILL)
             item.setZValue(35)
             self._vb.addItem(item)
             self._labels.append(item)
@@ -539,6 +703,14 @@ class SectionCanvas(pg.PlotWidget):
         if not item.isVisible():
             item.show()
         return item
+
+    def shown_labels(self):
+        """Text of the labels on the canvas, in the order placed."""
+        return [item.toPlainText() for item in self._labels[:self._labels_used]]
+
+    def label_boxes(self):
+        """Pixel boxes (x0, y0, x1, y1, y up) of the placed labels' text."""
+        return list(self._layout.boxes)
 
     def _label_pressures(self, w, scale, units):
         if w.index.size == 0:
@@ -568,11 +740,12 @@ class SectionCanvas(pg.PlotWidget):
             pick = first[np.linspace(0, first.size - 1, MAX_PRESSURE_LABELS - 1).astype(int)]
             first = np.unique(np.append(pick, deepest))
         plabel = units.units.label("pressure")
-        for k in first:
+        for k in first[np.argsort(-p[first], kind="stable")]:  # deepest first
             d = p[k] * scale
+            # One value once in a neighbourhood (both ends of a lid ...).
             self._label(px[k] + d * nx[k], pz[k] + d * nz[k],
-                        f"{format_number(units.pressure(p[k]), 3)} {plabel}",
-                        "#8a4a12", (0.5 - 0.5 * nx[k], 0.5 + 0.5 * nz[k]), optional=True)
+                        f"{format_number(units.pressure(p[k]), 3)} {plabel}", "#8a4a12",
+                        (0.5 - 0.5 * nx[k], 0.5 + 0.5 * nz[k]), optional=True, once=True)
 
     def _draw_resultants(self, solution, w, size, units):
         section = solution.section
@@ -583,21 +756,28 @@ class SectionCanvas(pg.PlotWidget):
             return
         mags = np.array([np.hypot(0.0 if np.isnan(fx) else fx, fz) for _, fx, fz, _, _ in res])
         biggest = float(mags.max()) or 1.0
-        down_t, up_t = [], []
-        for (run, fx, fz, cx, cz), mag in zip(res, mags):
+        down_t, up_t, labels = [], [], []
+        for k in np.argsort(-mags, kind="stable"):  # the largest first
+            run, fx, fz, cx, cz = res[k]
+            mag = mags[k]
             if not mag > 1e-9 * biggest:
                 continue
             fxx = 0.0 if np.isnan(fx) else fx
             length = size * (0.12 + 0.13 * mag / biggest)
             ux, uz = fxx / mag, fz / mag
             uplift = fz > 1e-9 * biggest
-            (up_t if uplift else down_t).append((cx, cz, cx + length * ux, cz + length * uz))
-            if self._labels_used < MAX_RESULTANT_LABELS + MAX_PRESSURE_LABELS + 4:
-                value = units.fmt_force(section, mag)
-                text = f"{run.part}: {value}" + (" uplift" if uplift else "")
-                colour = UPLIFT_COLOUR if uplift else DOWN_COLOUR
-                self._label(cx + length * ux, cz + length * uz, text, colour,
-                            (0.5 - 0.5 * ux, 0.5 + 0.5 * uz), bold=True)
+            tip = (cx + length * ux, cz + length * uz)
+            (up_t if uplift else down_t).append((cx, cz, *tip))
+            self._arrow_shafts.append((cx, cz, *tip))
+            if len(labels) < MAX_RESULTANT_LABELS:
+                labels.append((run.part, mag, uplift, tip, ux, uz))
+        # The arrows are obstacles (layout_labels); the labels, largest first.
+        for part, mag, uplift, tip, ux, uz in labels:
+            text = f"{part}: {units.fmt_force(section, mag)}" + (" uplift" if uplift else "")
+            # The tip on the box's edge facing back along the arrow.
+            m = max(abs(ux), abs(uz))
+            self._label(tip[0], tip[1], text, UPLIFT_COLOUR if uplift else DOWN_COLOUR,
+                        (0.5 - 0.5 * ux / m, 0.5 + 0.5 * uz / m), bold=True)
         for item, arrows in ((self._down, down_t), (self._up, up_t)):
             if arrows:
                 a = np.array(arrows)
@@ -605,6 +785,18 @@ class SectionCanvas(pg.PlotWidget):
                 item.setData(x, z)
             else:
                 item.setData([], [])
+
+    def _arrow_obstacle(self, x0, z0, x1, z1, step_px=14.0, half_px=4.0):
+        """Keep labels off a resultant's shaft: small boxes along it."""
+        a = (x0 / self._px[0], z0 / self._px[1])
+        b = (x1 / self._px[0], z1 / self._px[1])
+        n = max(1, int(np.hypot(b[0] - a[0], b[1] - a[1]) // step_px))
+        for k in range(n):
+            t0, t1 = k / n, (k + 1) / n
+            self._layout.add_obstacle(a[0] + t0 * (b[0] - a[0]) - half_px,
+                                      a[1] + t0 * (b[1] - a[1]) - half_px,
+                                      a[0] + t1 * (b[0] - a[0]) + half_px,
+                                      a[1] + t1 * (b[1] - a[1]) + half_px)
 
     # ------------------------------------------------------ picking
     def _pixel(self):
@@ -645,21 +837,15 @@ class SectionCanvas(pg.PlotWidget):
         return outline, parts
 
     def _on_dragMoved(self, index, x, z):
+        # The document checks and solves the dragged outline once per
+        # event-loop turn; the canvas redraws when it has (previewChanged,
+        # solved).
         outline, parts = self._dragged_outline(index, x, z)
-        self._draw_outline(outline, parts)
-        try:
-            section = self._doc.section.replace(outline=outline, parts=parts)
-        except SectionError as exc:
-            self._draft_curve.setData(*np.vstack([outline, outline[:1]]).T)
-            self.message.emit(f"Invalid outline: {exc}")
-            return
-        self._draft_curve.setData([], [])
-        self._preview = self._doc.case.with_section(section).solve()
-        self._draw_results(self._preview)
+        self._doc.preview_outline(outline, parts)
 
     def _on_dragFinished(self, index, x, z):
-        self._preview = None
         x, z = self.snap(x, z)
+        self._doc.end_preview()
         if not editing.move_vertex(self._doc, index, x, z):
             self.message.emit(f"Invalid outline: {self._doc.draft.error} "
                               "(results keep the last valid outline)")
@@ -708,7 +894,9 @@ class SectionCanvas(pg.PlotWidget):
             return text
         depth = sol.level - z
         poly = self._polygon if self._polygon_section_is(sol.section) else None
-        if poly is not None and not shapely.contains_xy(poly, x, z):
+        # The mirrored half of an axisymmetric section is the same vessel.
+        r = abs(x) if sol.section.is_axisymmetric else x
+        if poly is not None and not shapely.contains_xy(poly, r, z):
             return text + "   outside the section"
         if depth > 0:
             p = sol.density * sol.gravity * depth

@@ -3,18 +3,22 @@ each part's downward load from empty to the spill level (or above the roof
 of a closed section), with a cursor at the current level.
 
 The curves are redrawn only when a new level table arrives (geometry or
-liquid changed) or the units change; a slider step only moves the cursor.
+liquid changed, or a dragged outline was previewed) or the units change; a
+slider step only moves the cursor. The cursor is also an input: dragging it
+(one undo step per drag, like the slider) or clicking in the chart sets the
+fill level.
 """
 
 from __future__ import annotations
 
-import numpy as np
 import pyqtgraph as pg
 from PySide6.QtCore import Qt
 
 from core.section import FLOOR
 
+from . import editing
 from .canvas import part_colour
+from .document import fill_range
 from .grid import LightGrid
 
 __all__ = ["LoadChart"]
@@ -22,6 +26,7 @@ __all__ = ["LoadChart"]
 _FIXED = (("fluid_weight", "liquid weight", "#1d5fa6", Qt.DashLine),
           ("floor_force", "floor force", "#7a5230", Qt.SolidLine),
           ("support_reaction", "support reaction", "#222222", Qt.SolidLine))
+CURSOR_COLOUR = "#d04a02"
 
 
 class LoadChart(pg.PlotWidget):
@@ -36,14 +41,23 @@ class LoadChart(pg.PlotWidget):
         plot.hideButtons()
         self._legend = plot.addLegend(offset=(8, 8), labelTextSize="8pt")
         self._curves = []
-        self.cursor = pg.InfiniteLine(angle=90, movable=False,
-                                      pen=pg.mkPen("#d04a02", width=1.5))
-        self.cursor_label = pg.TextItem(color="#d04a02", anchor=(0, 0))
+        self._series_key = None
+        self.cursor = pg.InfiniteLine(angle=90, movable=True,
+                                      pen=pg.mkPen(CURSOR_COLOUR, width=1.5),
+                                      hoverPen=pg.mkPen(CURSOR_COLOUR, width=3))
+        self.cursor.setCursor(Qt.SizeHorCursor)
+        self.cursor.setToolTip("Drag to set the fill level (or click in the chart)")
+        self.cursor_label = pg.TextItem(color=CURSOR_COLOUR, anchor=(0, 0))
         plot.addItem(self.cursor, ignoreBounds=True)
         plot.addItem(self.cursor_label, ignoreBounds=True)
         self._zero = pg.InfiniteLine(angle=0, movable=False, pos=0,
                                      pen=pg.mkPen("#888888", width=1))
         plot.addItem(self._zero, ignoreBounds=True)
+        self._drags = 0
+        self._dragging = False
+        self.cursor.sigDragged.connect(self._on_cursorDragged)
+        self.cursor.sigPositionChangeFinished.connect(self._on_cursorReleased)
+        self.scene().sigMouseClicked.connect(self._on_mouseClicked)
         document.levelTableReady.connect(self._on_levelTableReady)
         document.solved.connect(self._on_solved)
         document.unitsChanged.connect(self._on_unitsChanged)
@@ -53,6 +67,7 @@ class LoadChart(pg.PlotWidget):
         """Level [m] where the cursor stands."""
         return self._doc.units.length_si(self.cursor.value())
 
+    # ------------------------------------------------------- document
     def _on_unitsChanged(self):
         if self._doc.level_table is not None:
             self._on_levelTableReady(self._doc.level_table)
@@ -61,11 +76,7 @@ class LoadChart(pg.PlotWidget):
 
     def _on_levelTableReady(self, table):
         plot = self.getPlotItem()
-        for c in self._curves:
-            self._legend.removeItem(c)
-            plot.removeItem(c)
-        self._curves = []
-        section = self._doc.section
+        section = self._doc.shown_case.section
         u = self._doc.units
         x = u.length(table.levels)
         series = [(getattr(table, key), name, colour, style) for key, name, colour, style
@@ -74,13 +85,35 @@ class LoadChart(pg.PlotWidget):
         for name in names:
             series.append((table.part_down[name], f"{name} (down)",
                            part_colour(name, section.part_names), Qt.DotLine))
-        for y, name, colour, style in series:
-            curve = plot.plot(x, u.force(section, y), name=name,
-                              pen=pg.mkPen(colour, width=2, style=style))
-            self._curves.append(curve)
+        key = tuple((name, colour) for _, name, colour, _ in series)
+        if key != self._series_key:
+            # Other parts: new curves and legend. Otherwise (a slider, a
+            # dragged vertex) the same curves take the new values.
+            for c in self._curves:
+                self._legend.removeItem(c)
+                plot.removeItem(c)
+            self._curves = [plot.plot(name=name, pen=pg.mkPen(colour, width=2, style=style))
+                            for _, name, colour, style in series]
+            self._series_key = key
+        ys = [u.force(section, y) for y, *_rest in series]
+        vb = plot.getViewBox()
+        if self._doc.preview is not None and self._inside_view(vb, x, ys):
+            # A drag step whose curves fit the view: keep the axes (fitting
+            # them again every step relabels and repaints both axes).
+            vb.disableAutoRange()
+        else:
+            vb.enableAutoRange()
+        for curve, y in zip(self._curves, ys):
+            curve.setData(x, y)
         plot.setLabel("bottom", f"Level [{u.length_unit}]")
         plot.setLabel("left", f"Load [{u.force_label(section)}]")
-        plot.enableAutoRange()
+
+    @staticmethod
+    def _inside_view(vb, x, ys):
+        (x0, x1), (y0, y1) = vb.viewRange()
+        lo = min(float(y.min()) for y in ys)
+        hi = max(float(y.max()) for y in ys)
+        return x0 <= float(x.min()) and float(x.max()) <= x1 and y0 <= lo and hi <= y1
 
     def _on_solved(self, solution):
         u = self._doc.units
@@ -89,3 +122,37 @@ class LoadChart(pg.PlotWidget):
         vr = self.getPlotItem().getViewBox().viewRange()
         self.cursor_label.setText(f"{u.fmt_length(solution.level)}")
         self.cursor_label.setPos(x, vr[1][1])
+
+    # ----------------------------------------------------------- user
+    def _level_range(self):
+        return fill_range(self._doc.section)
+
+    def set_level_at(self, value, merge_key=None):
+        """Fill to the level ``value`` on the chart's axis (display length
+        unit), kept within the slider's range."""
+        lo, hi = self._level_range()
+        level = min(max(self._doc.units.length_si(float(value)), lo), hi)
+        editing.fill_to_level(self._doc, level, merge_key)
+
+    def _on_cursorDragged(self, line):
+        if not self._dragging:
+            self._dragging = True
+            self._drags += 1
+        self.set_level_at(line.value(), ("chart cursor", self._drags))
+
+    def _on_cursorReleased(self, line):
+        if self._dragging:
+            self._dragging = False
+            self.set_level_at(line.value(), ("chart cursor", self._drags))
+
+    def _on_mouseClicked(self, ev):
+        if ev.button() != Qt.LeftButton or ev.isAccepted():
+            return
+        vb = self.getPlotItem().getViewBox()
+        pos = ev.scenePos()
+        if not vb.sceneBoundingRect().contains(pos):
+            return
+        if self._legend.isVisible() and self._legend.sceneBoundingRect().contains(pos):
+            return
+        ev.accept()
+        self.set_level_at(vb.mapSceneToView(pos).x())
