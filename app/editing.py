@@ -17,6 +17,7 @@ from core.section import SectionError
 from .commands import CaseCommand, DiagramScaleCommand, UnitsCommand
 from .display import format_number
 from .document import Draft
+from .gravity import format_gravity, gravity_label
 
 __all__ = [
     "apply_outline", "move_vertex", "insert_vertex", "delete_vertex", "set_edge_part",
@@ -134,13 +135,16 @@ def set_liquid(doc, liquid):
 
 
 def set_gravity(doc, gravity):
+    """Set gravity [m/s2]; the undo text gives it in the display system's
+    unit ("Gravity 32.174 ft/s2")."""
     gravity = float(gravity)
     if not (np.isfinite(gravity) and gravity > 0):
         raise ValueError(f"gravity must be a positive number, not {format_number(gravity)}")
     if gravity == doc.case.gravity:
         return
+    u = doc.units
     doc.undo_stack.push(CaseCommand(doc, doc.case.with_gravity(gravity),
-                                    f"Gravity {format_number(gravity, 6)} m/s2"))
+                                    f"Gravity {format_gravity(u, gravity)} {gravity_label(u)}"))
 
 
 def fill_to_level(doc, level, merge_key=None):

@@ -22,6 +22,7 @@ from core.liquids import (LISTED_LIQUIDS, LiquidError, custom_liquid, fresh_wate
 from . import editing
 from .display import format_number
 from .document import fill_range
+from .gravity import format_gravity, gravity_from_display, gravity_label
 
 __all__ = ["LiquidPanel", "FillPanel", "TotalsPanel", "parse_number"]
 
@@ -51,13 +52,17 @@ def _message_label():
 
 
 def _show(label, text, style=ERROR_STYLE):
-    label.setStyleSheet(style)
-    label.setText(text)
-    label.setVisible(bool(text))
+    if label.styleSheet() != style:  # a style sheet change is costly
+        label.setStyleSheet(style)
+    if label.text() != text:
+        label.setText(text)
+    if label.isHidden() == bool(text):
+        label.setVisible(bool(text))
 
 
 class LiquidPanel(QGroupBox):
-    """Choose the liquid (fresh water, seawater, listed, custom) and gravity."""
+    """Choose the liquid (fresh water, seawater, listed, custom) and gravity
+    (in m/s2 or ft/s2, as the display system)."""
 
     KINDS = ("Fresh water", "Seawater", "Listed liquid", "Custom density",
              "Specific gravity")
@@ -88,7 +93,9 @@ class LiquidPanel(QGroupBox):
         self._density_label = QLabel()
         form.addRow(self._density_label, self.density)
         form.addRow("Specific gravity", self.sg)
-        form.addRow("Gravity [m/s2]", self.gravity)
+        self._gravity_label = QLabel()
+        self._gravity_shown = None
+        form.addRow(self._gravity_label, self.gravity)
         form.addRow(self.summary)
         form.addRow(self.error)
         self._form = form
@@ -134,7 +141,11 @@ class LiquidPanel(QGroupBox):
                                   if liquid.salinity is not None else "35")
             self.density.setText(format_number(units.density(liquid.density), 6))
             self.sg.setText(format_number(liquid.specific_gravity, 5))
-            self.gravity.setText(format_number(self._doc.case.gravity, 6))
+            g = self._doc.case.gravity
+            text = format_gravity(units, g)
+            self.gravity.setText(text)
+            self._gravity_shown = (text, g, units.system)
+            self._gravity_label.setText(f"Gravity [{gravity_label(units)}]")
             self._density_label.setText(f"Density [{units.units.label('density')}]")
             self._rows(kind)
         finally:
@@ -173,8 +184,15 @@ class LiquidPanel(QGroupBox):
         editing.set_liquid(self._doc, liquid)
 
     def _on_gravity_edited(self):
+        text = self.gravity.text().strip()
+        shown = self._gravity_shown
+        units = self._doc.units
+        if shown is not None and shown == (text, self._doc.case.gravity, units.system):
+            _show(self.error, "")  # the value shown, untouched: nothing to change
+            return
         try:
-            editing.set_gravity(self._doc, parse_number(self.gravity.text(), "Gravity"))
+            value = gravity_from_display(units, parse_number(text, "Gravity"))
+            editing.set_gravity(self._doc, value)
         except ValueError as exc:
             _show(self.error, str(exc))
             return
