@@ -2,6 +2,7 @@
 
 from __future__ import annotations
 
+import os
 import sys
 import traceback
 from pathlib import Path
@@ -46,7 +47,12 @@ def excepthook(exc_type, exc, tb):
 
 def launch(path=None):
     """Open the main window on ``path`` (or the bundled sample) and run the
-    event loop; return the exit status."""
+    event loop; return the exit status.
+
+    A ``path`` given opens with that file as the document's file (an
+    absolute path, so Save writes there whatever the working directory
+    later is); if it cannot be read, the window says why and shows the
+    bundled sample instead."""
     from PySide6.QtWidgets import QApplication
 
     from . import dialogs
@@ -61,6 +67,7 @@ def launch(path=None):
     # file is never overwritten by accident).
     window = MainWindow(case, None, saved=True)
     if path is not None:
+        path = os.path.abspath(os.fspath(path))
         if not window.open_path(path, ask=False):
             dialogs.show_error(window, "Wetline", f"Started on the bundled sample instead of {path}.")
     window.show()
