@@ -58,6 +58,7 @@ class LoadChart(pg.PlotWidget):
         self.cursor.sigDragged.connect(self._on_cursorDragged)
         self.cursor.sigPositionChangeFinished.connect(self._on_cursorReleased)
         self.scene().sigMouseClicked.connect(self._on_mouseClicked)
+        plot.getViewBox().sigRangeChanged.connect(self._place_cursor_label)
         document.levelTableReady.connect(self._on_levelTableReady)
         document.solved.connect(self._on_solved)
         document.unitsChanged.connect(self._on_unitsChanged)
@@ -119,9 +120,13 @@ class LoadChart(pg.PlotWidget):
         u = self._doc.units
         x = float(u.length(solution.level))
         self.cursor.setValue(x)
-        vr = self.getPlotItem().getViewBox().viewRange()
         self.cursor_label.setText(f"{u.fmt_length(solution.level)}")
-        self.cursor_label.setPos(x, vr[1][1])
+        self._place_cursor_label()
+
+    def _place_cursor_label(self, *_):
+        """The level's value at the top of the chart, beside the cursor."""
+        top = self.getPlotItem().getViewBox().viewRange()[1][1]
+        self.cursor_label.setPos(self.cursor.value(), top)
 
     # ----------------------------------------------------------- user
     def _level_range(self):
