@@ -694,10 +694,12 @@ class SectionCanvas(pg.PlotWidget):
         key = (text, colour, bold)
         if getattr(item, "_key", None) != key:
             item._key = key
-            if bold:
-                item.setHtml(f'<span style="color:{colour};font-weight:600">{text}</span>')
-            else:
-                item.setText(text, color=colour)
+            if getattr(item, "_bold", False) != bold:  # plain text and a font: no HTML
+                item._bold = bold
+                font = QFont(item.textItem.font())
+                font.setWeight(QFont.DemiBold if bold else QFont.Normal)
+                item.textItem.setFont(font)
+            item.setText(text, color=colour)
         item.setAnchor(anchor)
         item.setPos(x, z)
         if not item.isVisible():

@@ -106,8 +106,11 @@ class LoadChart(pg.PlotWidget):
             vb.enableAutoRange()
         for curve, y in zip(self._curves, ys):
             curve.setData(x, y)
-        plot.setLabel("bottom", f"Level [{u.length_unit}]")
-        plot.setLabel("left", f"Load [{u.force_label(section)}]")
+        labels = (f"Level [{u.length_unit}]", f"Load [{u.force_label(section)}]")
+        if labels != getattr(self, "_axis_labels", None):  # a new label repaints the axis
+            self._axis_labels = labels
+            plot.setLabel("bottom", labels[0])
+            plot.setLabel("left", labels[1])
 
     @staticmethod
     def _inside_view(vb, x, ys):
