@@ -179,7 +179,7 @@ class Section:
         if bad.size:
             i = int(bad[0])
             raise SectionError(f"vertex {i} has a non-finite coordinate", vertices=(i,))
-        distinct = np.unique(pts, axis=0).shape[0] if n else 0
+        distinct = _distinct_up_to_3(pts)
         if distinct < 3:
             raise SectionError(
                 f"outline has {distinct} distinct vertices, need at least 3")
@@ -351,6 +351,17 @@ class Section:
         for a in arrays.values():
             a.setflags(write=False)
         return EdgeGeometry(**arrays)
+
+
+def _distinct_up_to_3(pts):
+    """Number of distinct vertices, counted up to 3 (O(N), no sort)."""
+    if pts.shape[0] == 0:
+        return 0
+    same0 = (pts == pts[0]).all(axis=1)
+    if same0.all():
+        return 1
+    other = pts[int(np.argmin(same0))]
+    return 2 if (same0 | (pts == other).all(axis=1)).all() else 3
 
 
 def _check_simple(pts, size):
