@@ -145,15 +145,6 @@ def _table(rows, header, align=None):
     return out
 
 
-def _force_units(section, units):
-    """Label for forces: per run for plane sections 1 length unit wide."""
-    label = units.label("force")
-    if section.is_axisymmetric:
-        return label, "over the full revolution"
-    width = section.width / units.factor("length")
-    return label, (f"for a width of {fmt(width)} {units.label('length')}")
-
-
 # ----------------------------------------------------------------- solve
 def _render(table, align=None):
     """Text lines of a report table, numbers formatted for people."""
@@ -163,8 +154,8 @@ def _render(table, align=None):
 
 def solve_text(case, units_name="si"):
     """The readable table of ``wetline solve``."""
-    from core.report_tables import (edges_table, parts_table, totals_table, uplift_table,
-                                    with_note)
+    from core.report_tables import (edges_table, force_scope, parts_table, totals_table,
+                                    uplift_table, with_note)
     from core.results import CAUTIONS
     from core.uplift import UPLIFT_CAUTION
     from core.units import display_units
@@ -172,7 +163,7 @@ def solve_text(case, units_name="si"):
     u = display_units(units_name)
     sol = case.solve()
     sec = sol.section
-    flabel, fnote = _force_units(sec, u)
+    flabel, fnote = u.label("force"), force_scope(sec, u)
     liquid = case.liquid
     lines = [f"{sec.name or 'Section'}",
              f"  {sec.kind} section, {sec.n_edges} edges; forces in {flabel} {fnote}",

@@ -17,6 +17,7 @@ from dataclasses import dataclass
 
 import numpy as np
 
+from core.report_tables import force_scope
 from core.units import SI_LENGTH_UNITS, US_LENGTH_UNITS, display_units
 
 __all__ = ["DisplayChoice", "format_number", "LENGTH_UNITS_OF"]
@@ -119,11 +120,7 @@ class DisplayChoice:
 
     def force_scope(self, section):
         """Plain words saying what the force values cover."""
-        if section.kind == "axisymmetric":
-            return "full revolution"
-        if self.per_length(section):
-            return "per metre of length"
-        return f"over the width of {format_number(self.length(section.width))} {self.length_unit}"
+        return force_scope(section, self.units)
 
     # -------------------------------------------------------- formatting
     def fmt_length(self, metres):

@@ -54,6 +54,7 @@ from PySide6.QtGui import (
 )
 
 from core.atomic_write import WriteError, atomic_path, check_target
+from core.report_tables import force_scope
 from core.section import AXIS, FLOOR, OPEN
 from core.units import display_units, length_factor
 
@@ -703,16 +704,8 @@ class _Scene:
         return f"{_fmt(self.du.to_display(n, 'force'), digits)} {self.du.label('force')}"
 
     def force_scope(self):
-        s = self.section
-        if self.axi:
-            return "over the full circumference"
-        if abs(s.width - 1.0) <= 1e-9:
-            return "per m run"
-        if self.du.name == "us" and abs(s.width - length_factor("ft")) <= 1e-9:
-            return "per ft run"
-        return f"over the section width of {self.length(s.width)}"
+        return force_scope(self.section, self.du)
 
-    # ------------------------------------------------------------ layout
     def paint(self, device):
         """Paint the scene on ``device``: a QImage, a QSvgGenerator, a
         QPdfWriter ... The scene is laid out for ``size``; a device of

@@ -21,6 +21,7 @@ from PySide6.QtCore import QLineF, QPointF, QRectF, Qt
 from PySide6.QtGui import QColor, QFont, QFontMetricsF, QImage, QPainter, QPainterPath, QPen
 
 from core.level_table import level_table
+from core.report_tables import force_scope
 from core.section import FLOOR
 from core.units import display_units
 
@@ -259,9 +260,7 @@ def paint_level_chart(p, rect, case, *, level=None, units="si", steps=101, font_
             br = p.boundingRect(tr, int(_LEFT | _TOP) | int(Qt.TextFlag.TextWordWrap), label)
             p.drawText(tr, int(_LEFT | _TOP) | int(Qt.TextFlag.TextWordWrap), label)
             ly += max(br.height(), 1.5 * f) + 0.35 * f
-        note = ("Forces over the full circumference." if s.is_axisymmetric else
-                "Forces per m run." if abs(s.width - 1.0) <= 1e-9 else
-                f"Forces for a width of {s.width / du.factor('length'):.4g} {L}.")
+        note = f"Forces {force_scope(s, du)}."
         p.setFont(small)
         p.setPen(QColor(MUTED))
         p.drawText(QRectF(lx, ly + 0.4 * f, legend_w, 4 * f),

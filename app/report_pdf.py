@@ -52,8 +52,8 @@ from PySide6.QtGui import (
 )
 
 from core.atomic_write import WriteError, check_target, write_atomically
-from core.report_tables import (edges_table, fmt, parts_table, totals_table, uplift_table,
-                                with_note)
+from core.report_tables import (edges_table, fmt, force_scope, parts_table, totals_table,
+                                uplift_table, with_note)
 from core.results import ASSUMPTIONS, CAUTIONS
 from core.uplift import DEFAULT_REQUIRED_FACTOR, REQUIRED_FACTOR_SOURCE, UPLIFT_CAUTION
 from core.units import display_units, length_factor
@@ -184,14 +184,8 @@ class _Sheet:
 
     def force_scope(self):
         """For which width the forces are, in words."""
-        s = self.section
-        if s.is_axisymmetric:
-            return "over the full circumference"
-        if abs(s.width - 1.0) <= 1e-9:
-            return "per m run (for a width of 1 m)"
-        return f"for the section's width of {self.length(s.width)}"
+        return force_scope(self.section, self.du)
 
-    # ---------------------------------------------------------- parts
     def title(self):
         s = self.section
         name = s.name.strip() or "Untitled section"

@@ -15,7 +15,7 @@ from dataclasses import dataclass
 
 from .level_table import level_table
 
-__all__ = ["Table", "totals_table", "with_note", "parts_table", "edges_table", "level_load_table",
+__all__ = ["Table", "force_scope", "totals_table", "with_note", "parts_table", "edges_table", "level_load_table",
            "uplift_table", "to_csv", "fmt"]
 
 
@@ -55,6 +55,20 @@ def fmt(v, digits=5):
             text = text.rstrip("0").rstrip(".")
         return "0" if text in ("-0", "") else text
     return f"{v:.{digits - 1}e}"
+
+
+def force_scope(section, units):
+    """What a section's force values cover, in words for a sentence
+    ("Forces per m run."): the full circumference (axisymmetric), a metre or
+    foot run (plane, that wide), else the section's width in ``units``."""
+    if section.is_axisymmetric:
+        return "over the full circumference"
+    if abs(section.width - 1.0) <= 1e-9:
+        return "per m run"
+    if units.name == "us" and abs(section.width - 0.3048) <= 1e-9:
+        return "per ft run"
+    return (f"for a width of {fmt(units.to_display(section.width, 'length'))} "
+            f"{units.label('length')}")
 
 
 def _num(v):

@@ -159,7 +159,7 @@ def test_us_units_and_a_section_wider_than_a_metre():
     case = case.with_section(case.section.replace(width=2.5))
     text = " ".join(pages_text(report_pdf_bytes(case, units="us", date=DATE))[0])
     assert "lbf" in text and "psi" in text
-    assert "for the section's width of 8.2021 ft" in text
+    assert "for a width of 8.2021 ft" in text  # 2.5 m / 0.3048
     assert "per m run" not in text
 
 
