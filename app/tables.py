@@ -202,6 +202,7 @@ class VerticesModel(_Model):
         self.last_error = ""
         document.sectionChanged.connect(self._on_outlineChanged)
         document.draftChanged.connect(self._on_outlineChanged)
+        document.previewChanged.connect(self._on_outlineChanged)  # live during a drag
         document.unitsChanged.connect(self._on_unitsChanged)
 
     def _headers(self):

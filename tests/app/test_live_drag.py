@@ -24,8 +24,11 @@ def test_totals_tables_and_chart_show_the_dragged_outline(make_window, settle):
     before = doc.case
     x, z = before.section.outline[1]
     h = w.canvas.handles
+    repaints = []  # the vertex table must be told to repaint at each step
+    w.vertices_table.model().dataChanged.connect(lambda *a: repaints.append(a))
     h.dragStarted.emit(1)
     for dx in (0.1, 0.25, 0.4):
+        repaints.clear()
         _drag_to(w, 1, x + dx, z, settle)
         dragged = before.section.replace(outline=np.array(doc.working_outline()[0]))
         assert dragged.outline[1, 0] == pytest.approx(x + dx)
@@ -52,6 +55,10 @@ def test_totals_tables_and_chart_show_the_dragged_outline(make_window, settle):
         assert cx == pytest.approx(u.length(table.levels))
         assert cy == pytest.approx(u.force(dragged, table.fluid_weight), rel=1e-12)
         assert w.chart.cursor_level == pytest.approx(sol.level)
+        # Vertex table: the dragged vertex's x as the canvas shows it.
+        vertices = w.vertices_table.model()
+        assert vertices.index(1, 0).data() == format_number(u.length(x + dx), 6)
+        assert repaints
     assert doc.undo_stack.count() == 0 and doc.case is before
     h.dragFinished.emit(1, x + 0.4, z)
     settle(w)
