@@ -69,6 +69,9 @@ class MainWindow(QMainWindow):
         scroll = QScrollArea()
         scroll.setWidget(left)
         scroll.setWidgetResizable(True)
+        # wide enough for the liquid choices and their source text unclipped
+        scroll.setMinimumWidth(left.sizeHint().width() + 24)
+        scroll.setHorizontalScrollBarPolicy(Qt.ScrollBarAlwaysOff)
         self._dock("Fill and liquid", scroll, Qt.LeftDockWidgetArea)
 
         self.totals = TotalsPanel(doc)
