@@ -98,6 +98,18 @@ def ask_dxf_outline(parent, source, lines):
     return list(lines).index(item)
 
 
+def ask_dxf_unit(parent, source, default="mm"):
+    """The unit a drawing that states none is drawn in, or None (cancel)."""
+    from PySide6.QtWidgets import QInputDialog
+
+    units = ["mm", "cm", "m", "in", "ft"]
+    choice, ok = QInputDialog.getItem(
+        parent, "Drawing units",
+        f"{source} does not say which unit it is drawn in.\nRead its coordinates in:",
+        units, units.index(default), False)
+    return choice if ok else None
+
+
 def ask_report_info(parent, report):
     """Edit the calculation sheet header; the new ReportInfo or None."""
     from .report_info_dialog import ReportInfoDialog

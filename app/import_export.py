@@ -299,6 +299,11 @@ class Transfer(QObject):
         name = Path(path).name
         try:
             outlines = list_outlines(path)
+            if outlines[0].unit_assumed:  # the drawing states no units: ask
+                unit = dialogs.ask_dxf_unit(self._window, name)
+                if unit is None:
+                    return False
+                outlines = list_outlines(path, unit=unit)
         except Exception as exc:  # DxfError, or a reader fault: keep the work
             return self._error("Cannot import the drawing", exc)
         outline = outlines[0]

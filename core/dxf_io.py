@@ -174,6 +174,9 @@ class DxfOutline:
         Number of arc segments that were flattened.
     warnings : tuple of str
         What was assumed or changed on reading, one sentence each.
+    unit_assumed : bool
+        True if the drawing states no units and none was given, so ``unit``
+        is the millimetre default: a program should ask.
     """
 
     index: int
@@ -187,6 +190,7 @@ class DxfOutline:
     bounds: tuple
     n_arcs: int = 0
     warnings: tuple = ()
+    unit_assumed: bool = False
 
     @property
     def n_vertices(self):
@@ -561,7 +565,7 @@ def _scan(path, unit, arc_tolerance):
         outlines.append(DxfOutline(
             index=len(outlines), handle=handle, layer=layer, entity=kind, unit=unit,
             vertices=vertices, parts=parts, area=area, bounds=bounds, n_arcs=n_arcs,
-            warnings=tuple(warnings)))
+            warnings=tuple(warnings), unit_assumed=assumed))
     return outlines, found, others, rejected
 
 

@@ -227,18 +227,34 @@ def test_choosing_nothing_keeps_the_document(sump_window, tmp_path, monkeypatch)
     assert w.doc.case is before and w.doc.undo_stack.count() == count
 
 
-def test_unitless_drawing_warns_and_a_far_away_outline_is_refilled(
+def test_unitless_drawing_asks_its_unit_and_a_far_away_outline_is_refilled(
         sump_window, tmp_path, monkeypatch, settle):
     w = sump_window
     far = [(x, z + 10000) for x, z in SUMP_MM]  # drawn 10 m up the sheet
     path = drawing(tmp_path, [("0", far)], units=0, name="old.dxf")
-    warned = []
+    asked, warned = [], []
+    monkeypatch.setattr(dialogs, "ask_dxf_unit",
+                        lambda parent, source, default="mm": asked.append(source) or "mm")
     monkeypatch.setattr(dialogs, "show_warning", lambda parent, title, text: warned.append(text))
     assert w.transfer.import_dxf_from(path)
     settle(w)
-    assert warned and "millimetres" in warned[0]
+    assert asked == ["old.dxf"] and not warned  # the user said mm: nothing assumed
+    assert w.doc.section.outline[:, 0].max() == 2.4  # 2400 mm, exactly
     assert w.doc.case.fill_level == pytest.approx(w.doc.section.top_level)  # 2.2 m is below it
     assert w.doc.section.name == "old"
+
+
+def test_unitless_drawing_in_another_unit_or_cancelled(sump_window, tmp_path, monkeypatch):
+    w = sump_window
+    path = drawing(tmp_path, [("0", SUMP_MM)], units=0, name="old.dxf")
+    before, count = w.doc.case, w.doc.undo_stack.count()
+    monkeypatch.setattr(dialogs, "ask_dxf_unit", lambda *a, **k: None)
+    assert not w.transfer.import_dxf_from(path)
+    assert w.doc.case is before and w.doc.undo_stack.count() == count
+    monkeypatch.setattr(dialogs, "ask_dxf_unit", lambda *a, **k: "cm")
+    monkeypatch.setattr(dialogs, "show_warning", lambda *a: None)
+    assert w.transfer.import_dxf_from(path)
+    assert w.doc.section.outline[:, 0].max() == 24.0  # 2400 cm
 
 
 @pytest.mark.parametrize("content, words", [
