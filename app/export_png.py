@@ -1289,7 +1289,6 @@ class _Scene:
     def _draw_resultants(self, p, fonts):
         s, sol = self.section, self.sol
         f = fonts.base
-        pts = s.outline
         n = s.n_edges
         fx = np.zeros(n) if self.axi else np.nan_to_num(sol.fx)
         fz = sol.fz
@@ -1374,7 +1373,7 @@ class _Scene:
 
     def _wetted_midpoint(self, edges):
         """The point halfway along the wetted length of a run of edges."""
-        s, sol = self.section, self.sol
+        s = self.section
         pts = s.outline
         pieces = []
         for e in edges:

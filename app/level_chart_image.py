@@ -152,7 +152,7 @@ def paint_level_chart(p, rect, case, *, level=None, units="si", steps=101, font_
     x, series, current = chart_series(case, level=level, units=units, steps=steps)
     s = case.section
     f = float(font_px) if font_px else max(9.0, 0.032 * min(rect.height(), rect.width()))
-    body, small, bold = _font(f), _font(0.88 * f), _font(f, bold=True)
+    body, small = _font(f), _font(0.88 * f)
     lw = max(1.0, f / 9.0)
     fm = QFontMetricsF(small)
     L, F = du.label("length"), du.label("force")

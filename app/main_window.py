@@ -19,7 +19,7 @@ from . import dialogs, editing
 from .canvas import SectionCanvas
 from .chart import LoadChart
 from .commands import ReportInfoCommand
-from .display import LENGTH_UNITS_OF, DisplayChoice, format_number
+from .display import DisplayChoice, format_number
 from .document import Document
 from .panels import FillPanel, LiquidPanel, TotalsPanel, parse_number
 from .import_export import Transfer

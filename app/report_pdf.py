@@ -34,7 +34,6 @@ atomically.
 
 from __future__ import annotations
 
-import datetime
 import html
 import math
 
@@ -58,7 +57,7 @@ from core.results import ASSUMPTIONS, CAUTIONS
 from core.uplift import DEFAULT_REQUIRED_FACTOR, REQUIRED_FACTOR_SOURCE, UPLIFT_CAUTION
 from core.units import display_units, length_factor
 
-from .export_png import FONT_FAMILY, ExportError, _ensure_app, _program, _Scene
+from .export_png import FONT_FAMILY, ExportError, _date_text, _ensure_app, _program, _Scene
 from .level_chart_image import paint_level_chart
 
 __all__ = ["DPI", "ReportError", "write_report", "report_pdf_bytes"]
@@ -92,14 +91,6 @@ class ReportError(ExportError):
 # ------------------------------------------------------------------ text
 def _e(text):
     return html.escape(str(text), quote=True)
-
-
-def _date_text(date):
-    if date is None:
-        return datetime.date.today().isoformat()
-    if isinstance(date, (datetime.date, datetime.datetime)):
-        return date.isoformat()[:10]
-    return str(date)
 
 
 def _cell(v):

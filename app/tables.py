@@ -9,11 +9,9 @@ the other way round.
 
 from __future__ import annotations
 
-import numpy as np
 from PySide6.QtCore import QAbstractTableModel, QItemSelectionModel, QModelIndex, Qt
 from PySide6.QtGui import QColor
-from PySide6.QtWidgets import (QAbstractItemView, QComboBox, QHBoxLayout, QHeaderView,
-                               QStyledItemDelegate, QTableView, QToolButton, QVBoxLayout,
+from PySide6.QtWidgets import (QAbstractItemView, QComboBox, QHBoxLayout, QStyledItemDelegate, QTableView, QToolButton, QVBoxLayout,
                                QWidget)
 
 from core.section import AXIS, FLOOR, OPEN
@@ -61,6 +59,9 @@ class _Model(QAbstractTableModel):
             self._shown_headers = h
             self.headerDataChanged.emit(Qt.Horizontal, 0, cols - 1)
 
+    def _on_unitsChanged(self):
+        self.refresh(headers=True)
+
 
 class PartsModel(_Model):
     """Per part: horizontal, vertical and downward load, and its direction."""
@@ -88,9 +89,6 @@ class PartsModel(_Model):
         else:
             self._rows = rows
             self.refresh()
-
-    def _on_unitsChanged(self):
-        self.refresh(headers=True)
 
     def data(self, index, role=Qt.DisplayRole):
         if not index.isValid():
@@ -155,9 +153,6 @@ class EdgesModel(_Model):
         else:
             self.refresh()
 
-    def _on_unitsChanged(self):
-        self.refresh(headers=True)
-
     def data(self, index, role=Qt.DisplayRole):
         if not index.isValid():
             return None
@@ -220,9 +215,6 @@ class VerticesModel(_Model):
             self.endResetModel()
         else:
             self.refresh()
-
-    def _on_unitsChanged(self):
-        self.refresh(headers=True)
 
     def flags(self, index):
         return Qt.ItemIsEnabled | Qt.ItemIsSelectable | Qt.ItemIsEditable

@@ -104,6 +104,7 @@ def volume_below(section, level):
     Cone of radius 1 m and height 2 m, apex down, filled 1 m: pi/12
     (V = pi r^2 h / 3; compare ``fluids.geometry.V_vertical_conical``).
 
+    >>> from core.section import Section
     >>> s = Section.build([[0, 0], [1, 2], [0, 2]], kind="axisymmetric")
     >>> abs(volume_below(s, 1.0) - np.pi / 12) < 1e-15
     True
@@ -176,7 +177,7 @@ def volume_curve(section):
     m = heights.size
     zmin = heights[0]
     span = heights[-1] - zmin
-    x0, dx, dz = geo.x0, geo.dx, geo.dz
+    x0, dz = geo.x0, geo.dz
     x1 = np.roll(x0, -1)
     z1 = np.roll(z, -1)
     up = dz > 0
@@ -242,6 +243,7 @@ def level_for_volume(section, volume):
 
     Examples
     --------
+    >>> from core.section import Section
     >>> s = Section.build([[0, 0], [2, 0], [2, 3], [0, 3]],
     ...                   parts=["floor", "wall", "open", "wall"])
     >>> level_for_volume(s, 3.0)

@@ -10,10 +10,9 @@ from decimal import Decimal
 from pathlib import Path
 
 from core.case import Case
-from core.liquids import custom_liquid, fresh_water, listed_liquid, seawater
+from core.liquids import fresh_water, listed_liquid, seawater
 from core.section_file import write_section_file
 from core.templates import TEMPLATES
-from core.units import length_factor
 
 OUT = Path(__file__).resolve().parent.parent / "sample_sections"
 

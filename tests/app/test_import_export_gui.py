@@ -19,7 +19,6 @@ from core.case import Case, ReportInfo
 from core.dxf_io import read_outline
 from core.liquids import custom_liquid
 from core.section import Section
-from core.uplift import PartResistance
 
 SAMPLES = Path(__file__).resolve().parents[2] / "sample_sections"
 SUMP = SAMPLES / "sump_with_lid.section.json"
@@ -80,9 +79,8 @@ def test_pdf_sheet_from_the_menu_states_the_uplift_verdict(
     monkeypatch.setattr(dialogs, "ask_export_file",
                         lambda parent, title, suggested, flt, ext: asked.append(
                             (suggested, ext)) or str(out))
-    with qtbot.waitSignal(w.transfer.pdfStarted) as started:
+    with qtbot.waitSignal(w.transfer.pdfStarted):
         w.actions_by_name["export_pdf"].trigger()
-    job = started.args[0]
     assert w.transfer.progress is not None and w.transfer.progress.isVisible()
     assert wait_pdf(qtbot, w) == ("ok", str(out))
     assert w.transfer.progress is None  # closed
@@ -99,7 +97,7 @@ def test_pdf_sheet_from_the_menu_states_the_uplift_verdict(
 def test_pdf_sheet_failure_is_shown_and_nothing_crashes(sump_window, qtbot, tmp_path,
                                                         no_dialogs):
     w = sump_window
-    job = w.transfer.export_pdf_to(tmp_path / "missing" / "calc.pdf")
+    w.transfer.export_pdf_to(tmp_path / "missing" / "calc.pdf")
     assert wait_pdf(qtbot, w)[0] == "failed"
     assert no_dialogs and "does not exist" in no_dialogs[-1][1]
     assert w.transfer.progress is None

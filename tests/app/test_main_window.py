@@ -1,6 +1,5 @@
 """The main window: files, canvas edits, panels, chart, export."""
 
-import json
 
 import numpy as np
 import pytest
