@@ -20,19 +20,17 @@ the same path, timed).
 import os
 import sys
 import time
-from pathlib import Path
 
 os.environ.setdefault("QT_QPA_PLATFORM", "offscreen")
-sys.path.insert(0, str(Path(__file__).resolve().parents[1]))
 
-import numpy as np  # noqa: E402
-from PySide6.QtCore import QSettings  # noqa: E402
-from PySide6.QtWidgets import QApplication  # noqa: E402
+import numpy as np
+from PySide6.QtCore import QSettings
+from PySide6.QtWidgets import QApplication
 
-from app import dialogs  # noqa: E402
-from app.main_window import MainWindow  # noqa: E402
-from core.case import Case  # noqa: E402
-from core.section import Section  # noqa: E402
+from wetline.app.window import dialogs
+from wetline.app.window.main_window import MainWindow
+from wetline.core.case import Case
+from wetline.core.section import Section
 
 TARGETS = {2000: 16.0, 10000: 40.0}
 

@@ -62,7 +62,7 @@ class Case:
         ``"mm"``, ``"ft"`` ...); kept for saving.
     resistances : tuple of (str, PartResistance)
         What holds each named part down, for the uplift check, sorted by
-        part name (see :mod:`core.uplift`).
+        part name (see :mod:`wetline.core.uplift`).
     required_uplift_factor : float
         Required factor against uplift [].
     report : ReportInfo
@@ -174,7 +174,7 @@ class Case:
 
     def uplift(self, solution=None):
         """The uplift check of every part with a resistance entered
-        (list of :class:`~core.uplift.UpliftResult`)."""
+        (list of :class:`~wetline.core.uplift.UpliftResult`)."""
         from .uplift import uplift_check
 
         return uplift_check(self, self.resistance_map, self.required_uplift_factor, solution)

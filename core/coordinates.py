@@ -168,7 +168,7 @@ def parse_coordinates(text, *, unit="m"):
             raise CoordinateError(
                 f"line {number} has {len(fields)} values, need x, z and an optional "
                 f"part name{hint}", line=number)
-        for k, (field, value) in enumerate(zip(fields, values)):
+        for k, (field, value) in enumerate(zip(fields, values, strict=False)):
             if not field:
                 raise CoordinateError(f"line {number}: {'xz'[k]} is empty", line=number)
             if value is None:

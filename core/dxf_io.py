@@ -4,7 +4,7 @@ A drawing office hands over a section as a DXF file. The cavity outline is a
 closed polyline in its modelspace: an ``LWPOLYLINE`` or a 2D ``POLYLINE``.
 This module finds those polylines (:func:`list_outlines`), lets the caller
 pick one (:func:`choose_outline`) and turns it into a validated
-:class:`~core.section.Section` (:meth:`DxfOutline.to_section`);
+:class:`~wetline.core.section.Section` (:meth:`DxfOutline.to_section`);
 :func:`read_outline` does all three in one call. :func:`write_outline` writes
 a section as a DXF that any CAD program opens, and that this module reads back
 with the same vertices and the same parts.
@@ -21,7 +21,7 @@ Conventions
   warning: drawing offices working in metric draw in mm, and a mistake shows
   at once as a section 1000 times too small or too large (a second warning
   says so when the outline is under 50 mm across). Conversion factors come
-  from the program's pint registry (:func:`core.units.length_factor`), exact
+  from the program's pint registry (:func:`wetline.core.units.length_factor`), exact
   for inches and feet.
 - **Closed.** A polyline counts as closed when it is flagged closed, or when
   its last vertex coincides with its first (the repeated vertex is then
@@ -69,8 +69,8 @@ import ezdxf.math
 import numpy as np
 from ezdxf.lldxf.validator import INVALID_LAYER_NAME_CHARACTERS
 
-from .section import Section, SectionError
 from .atomic_write import atomic_path
+from .section import Section, SectionError
 from .units import UnitError, length_factor, to_si_exactly, ureg
 
 __all__ = [
@@ -131,7 +131,7 @@ class DxfError(ValueError):
     ----------
     edges, vertices : tuple of int
         Indices of the edges or vertices at fault when the chosen outline is
-        not a valid section (from :class:`~core.section.SectionError`).
+        not a valid section (from :class:`~wetline.core.section.SectionError`).
     location : tuple of float or None
         A point [m] near the fault, for marking it on a drawing.
     """

@@ -28,7 +28,6 @@ from dataclasses import dataclass
 
 import numpy as np
 
-
 __all__ = [
     "FillError",
     "VolumeCurve",
@@ -104,7 +103,7 @@ def volume_below(section, level):
     Cone of radius 1 m and height 2 m, apex down, filled 1 m: pi/12
     (V = pi r^2 h / 3; compare ``fluids.geometry.V_vertical_conical``).
 
-    >>> from core.section import Section
+    >>> from wetline.core.section import Section
     >>> s = Section.build([[0, 0], [1, 2], [0, 2]], kind="axisymmetric")
     >>> abs(volume_below(s, 1.0) - np.pi / 12) < 1e-15
     True
@@ -243,7 +242,7 @@ def level_for_volume(section, volume):
 
     Examples
     --------
-    >>> from core.section import Section
+    >>> from wetline.core.section import Section
     >>> s = Section.build([[0, 0], [2, 0], [2, 3], [0, 3]],
     ...                   parts=["floor", "wall", "open", "wall"])
     >>> level_for_volume(s, 3.0)

@@ -192,7 +192,8 @@ def resolve_level(section, level):
     spill = section.spill_level
     if spill is not None and level > spill:
         warnings.append(
-            f"level {level:.6g} m is above the spill level {spill:.6g} m; capped at the spill level")
+            f"level {level:.6g} m is above the spill level {spill:.6g} m; "
+            "capped at the spill level")
         level = spill
     elif spill is None and level > section.z_max:
         warnings.append(

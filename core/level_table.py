@@ -1,7 +1,7 @@
 """Loads against level: the totals at many fill levels at once.
 
 For a chart of loads from empty to full and for the CSV export. The same
-closed-form edge integrals as :func:`core.hydrostatics.solve`, evaluated for
+closed-form edge integrals as :func:`wetline.core.hydrostatics.solve`, evaluated for
 M levels and N edges as (M, N) arrays in chunks (memory bounded), then summed
 per part with one matrix product.
 """
@@ -89,7 +89,7 @@ def level_table(section, density, gravity=STANDARD_GRAVITY, steps=DEFAULT_STEPS,
 
     Examples
     --------
-    >>> from core.section import Section
+    >>> from wetline.core.section import Section
     >>> s = Section.build([[0, 0], [2, 0], [2, 3], [0, 3]],
     ...                   parts=["floor", "wall", "open", "wall"])
     >>> t = level_table(s, 1000.0, steps=4)

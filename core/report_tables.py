@@ -15,8 +15,8 @@ from dataclasses import dataclass
 
 from .level_table import level_table
 
-__all__ = ["Table", "force_scope", "totals_table", "with_note", "parts_table", "edges_table", "level_load_table",
-           "uplift_table", "to_csv", "fmt"]
+__all__ = ["Table", "force_scope", "totals_table", "with_note", "parts_table", "edges_table",
+           "level_load_table", "uplift_table", "to_csv", "fmt"]
 
 
 @dataclass(frozen=True)

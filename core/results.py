@@ -55,8 +55,8 @@ def results_record(case, solution=None):
 
     Parameters
     ----------
-    case : core.case.Case
-    solution : core.hydrostatics.Solution, optional
+    case : wetline.core.case.Case
+    solution : wetline.core.hydrostatics.Solution, optional
 
     Returns
     -------

@@ -317,7 +317,7 @@ class Section:
 
     @cached_property
     def volume_curve(self):
-        """Volumes at the distinct vertex heights (see :func:`core.fill.volume_curve`)."""
+        """Volumes at the distinct vertex heights (see :func:`wetline.core.fill.volume_curve`)."""
         from .fill import volume_curve
 
         return volume_curve(self)

@@ -73,7 +73,7 @@ class SectionFileError(ValueError):
     """A section file that cannot be read, with a one-line reason.
 
     ``edges`` / ``vertices`` / ``location`` carry over from a
-    :class:`~core.section.SectionError`, when that is the cause.
+    :class:`~wetline.core.section.SectionError`, when that is the cause.
     """
 
     def __init__(self, message, *, edges=(), vertices=(), location=None):
@@ -107,7 +107,7 @@ def _check_keys(obj, allowed, where):
 
 
 def case_from_dict(data):
-    """Build a :class:`~core.case.Case` from a parsed section file.
+    """Build a :class:`~wetline.core.case.Case` from a parsed section file.
 
     Raises
     ------
@@ -389,7 +389,7 @@ def _dumps(obj):
 
 
 def loads_case(text, source="section file"):
-    """Parse section file text into a :class:`~core.case.Case`."""
+    """Parse section file text into a :class:`~wetline.core.case.Case`."""
     try:
         data = json.loads(text, parse_float=_Exact)
     except json.JSONDecodeError as exc:

@@ -1,15 +1,15 @@
 """Parametric sections: the usual container shapes from a few dimensions.
 
 Each template is a :class:`Template` with named dimensions [m] and defaults;
-``template.build(**dims)`` returns a validated :class:`~core.section.Section`
+``template.build(**dims)`` returns a validated :class:`~wetline.core.section.Section`
 and ``template.default_level(section)`` a sensible first fill. The GUI lists
 :data:`TEMPLATES`; the bundled sample sections are made from them too.
 """
 
 from __future__ import annotations
 
+from collections.abc import Callable
 from dataclasses import dataclass
-from typing import Callable
 
 from .section import Section, SectionError
 

@@ -273,7 +273,7 @@ class DisplayUnits:
         """
         return to_si_exactly(value, self.unit(quantity).factor)
 
-    def with_length(self, unit: str) -> "DisplayUnits":
+    def with_length(self, unit: str) -> DisplayUnits:
         """A copy showing lengths in `unit` (see :func:`length_display`)."""
         return dataclasses.replace(self, length=length_display(unit))
 

@@ -231,12 +231,12 @@ def uplift_check(case, resistances, required_factor=DEFAULT_REQUIRED_FACTOR, sol
 
     Parameters
     ----------
-    case : core.case.Case
+    case : wetline.core.case.Case
     resistances : mapping of str to PartResistance
         Per part name; parts not in the section are ignored.
     required_factor : float
         Required factor against uplift [], > 0.
-    solution : core.hydrostatics.Solution, optional
+    solution : wetline.core.hydrostatics.Solution, optional
         The case's solution at its current level, if already computed.
     worst : mapping, optional
         :func:`worst_uplifts` of the case's section and liquid, if already

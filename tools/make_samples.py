@@ -9,10 +9,10 @@ stay in step with the GUI's. Run from the repository root:
 from decimal import Decimal
 from pathlib import Path
 
-from core.case import Case
-from core.liquids import fresh_water, listed_liquid, seawater
-from core.section_file import write_section_file
-from core.templates import TEMPLATES
+from wetline.core.case import Case
+from wetline.core.liquids import fresh_water, listed_liquid, seawater
+from wetline.core.section_file import write_section_file
+from wetline.core.templates import TEMPLATES
 
 OUT = Path(__file__).resolve().parent.parent / "sample_sections"
 

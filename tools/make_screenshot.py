@@ -10,20 +10,19 @@ from pathlib import Path
 
 os.environ.setdefault("QT_QPA_PLATFORM", "offscreen")
 ROOT = Path(__file__).resolve().parents[1]
-sys.path.insert(0, str(ROOT))
 
-from PySide6.QtCore import QSettings  # noqa: E402
-from PySide6.QtWidgets import QApplication  # noqa: E402
+from PySide6.QtCore import QSettings
+from PySide6.QtWidgets import QApplication
 
 
 def main(argv=None):
     argv = sys.argv[1:] if argv is None else argv
     out = Path(argv[0]) if argv else ROOT / "resources" / "screenshot.png"
     app = QApplication.instance() or QApplication([])
-    from app import editing
-    from app.gui import default_case
-    from app.main_window import MainWindow
-    from core.liquids import seawater
+    from wetline.app.model import editing
+    from wetline.app.window.launch import default_case
+    from wetline.app.window.main_window import MainWindow
+    from wetline.core.liquids import seawater
 
     case, _ = default_case()
     window = MainWindow(case, None, settings=QSettings(os.devnull, QSettings.IniFormat),

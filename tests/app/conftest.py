@@ -4,27 +4,7 @@ import os
 
 os.environ.setdefault("QT_QPA_PLATFORM", "offscreen")
 
-from pathlib import Path  # noqa: E402
-
-import pytest  # noqa: E402
-
-ROOT = Path(__file__).resolve().parents[2]
-SAMPLES = ROOT / "sample_sections"
-
-
-def sample_paths():
-    """Every bundled sample section file."""
-    return sorted(SAMPLES.glob("*.section.json"))
-
-
-def template_case(key="sump_with_lid"):
-    """A case from a template at its default level."""
-    from core.case import Case
-    from core.templates import TEMPLATES
-
-    t = TEMPLATES[key]
-    s = t.build()
-    return Case.default(s, t.default_level(s))
+import pytest
 
 
 @pytest.fixture
@@ -37,7 +17,7 @@ def settings(tmp_path):
 @pytest.fixture
 def no_dialogs(monkeypatch):
     """Replace every modal dialog; records what would have been shown."""
-    from app import dialogs
+    from wetline.app.window import dialogs
 
     shown = []
     monkeypatch.setattr(dialogs, "show_error", lambda parent, title, text: shown.append(
@@ -47,9 +27,9 @@ def no_dialogs(monkeypatch):
 
 
 @pytest.fixture
-def make_window(qtbot, settings, no_dialogs):
+def make_window(qtbot, settings, no_dialogs, template_case):
     """Factory: a shown main window on a case (default: the sump template)."""
-    from app.main_window import MainWindow
+    from wetline.app.window.main_window import MainWindow
 
     def make(case=None, path=None):
         w = MainWindow(case or template_case(), path, settings=settings)
@@ -76,12 +56,8 @@ def _settle_fixture():
     return settle
 
 
-@pytest.fixture
-def case_factory():
-    return template_case
-
-
-def pytest_generate_tests(metafunc):
-    if "sample_path" in metafunc.fixturenames:
-        paths = sample_paths()
-        metafunc.parametrize("sample_path", paths, ids=[p.name.split(".")[0] for p in paths])
+@pytest.fixture(autouse=True)
+def _qt(qapp):
+    """A QApplication from pytest-qt for every test of the program, so that no
+    bare QGuiApplication is made first in a session that also builds widgets."""
+    return qapp

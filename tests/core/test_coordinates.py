@@ -9,7 +9,7 @@ pasted cells with tabs (common practice); RFC 4180 quoting of CSV fields.
 import numpy as np
 import pytest
 
-from core.coordinates import CoordinateError, format_coordinates, parse_coordinates
+from wetline.core.coordinates import CoordinateError, format_coordinates, parse_coordinates
 
 BOX = [[0.0, 0.0], [2.5, 0.0], [2.5, 1.25], [0.0, 1.25]]
 

@@ -6,7 +6,7 @@ import subprocess
 import sys
 from pathlib import Path
 
-CORE = Path(__file__).resolve().parents[2] / "core"
+CORE = Path(__file__).resolve().parents[2] / "core"  # the repository's core/ = wetline.core
 FORBIDDEN = ("PySide6", "PyQt5", "PyQt6", "PySide2", "pyqtgraph", "shiboken6")
 
 
@@ -30,11 +30,10 @@ def test_no_core_module_names_qt_in_an_import():
 
 
 def test_importing_every_core_module_loads_no_qt():
-    modules = [f"core.{f.stem}" for f in sorted(CORE.glob("*.py")) if f.stem != "__init__"]
+    modules = [f"wetline.core.{f.stem}" for f in sorted(CORE.glob("*.py")) if f.stem != "__init__"]
     code = ("import importlib, sys\n"
             f"for m in {modules!r}: importlib.import_module(m)\n"
             f"bad = [m for m in sys.modules if m.split('.')[0] in {FORBIDDEN!r}]\n"
             "print(','.join(bad))\n")
-    out = subprocess.run([sys.executable, "-c", code], capture_output=True, text=True,
-                         check=True, cwd=CORE.parent)
+    out = subprocess.run([sys.executable, "-c", code], capture_output=True, text=True, check=True)
     assert out.stdout.strip() == ""

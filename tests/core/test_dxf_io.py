@@ -12,6 +12,7 @@ practice); the arbitrary axis algorithm maps an OCS with normal (0, 0, -1) to
 world x = -x, y = y (AutoCAD DXF Reference, "Arbitrary Axis Algorithm").
 """
 
+import itertools
 import math
 import os
 
@@ -19,7 +20,7 @@ import ezdxf
 import numpy as np
 import pytest
 
-from core.dxf_io import (
+from wetline.core.dxf_io import (
     ARC_SAGITTA_RATIO,
     OUTLINE_LAYER,
     DxfError,
@@ -29,7 +30,7 @@ from core.dxf_io import (
     read_outline,
     write_outline,
 )
-from core.section import Section
+from wetline.core.section import Section
 
 INCH = 0.0254  # [m], exact since 1959
 
@@ -343,7 +344,7 @@ def test_flattened_area_converges_to_the_circular_segment(tmp_path):
         errors.append(abs(section.area - exact) / exact)
         assert warnings[0].endswith(f"(chords within {tol:g} m of the arc)")
     # chord area loss ~ (2/3) r theta s: halving s halves it; here s drops 100x a step
-    assert all(b < a / 50 for a, b in zip(errors, errors[1:]))
+    assert all(b < a / 50 for a, b in itertools.pairwise(errors))
     assert errors[-1] < 1e-8
 
 

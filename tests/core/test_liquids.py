@@ -2,7 +2,6 @@
 
 import json
 import math
-import pathlib
 import subprocess
 import sys
 
@@ -12,7 +11,7 @@ import pytest
 from hypothesis import given, settings
 from hypothesis import strategies as st
 
-from core.liquids import (
+from wetline.core.liquids import (
     FRESH_WATER,
     LISTED_LIQUIDS,
     PRESETS,
@@ -431,5 +430,5 @@ def test_importing_liquids_does_not_import_qt():
         "assert not bad, bad\n"
     )
     subprocess.run(
-        [sys.executable, "-c", code], check=True, cwd=pathlib.Path(__file__).resolve().parents[2]
+        [sys.executable, "-c", code], check=True
     )

@@ -27,10 +27,10 @@ import pytest
 import shapely
 from fluids.geometry import TANK, V_from_h, V_vertical_conical
 
-from core.fill import capacity, level_for_volume, volume_below
-from core.hydrostatics import solve
-from core.section import Section
-from core.section_file import case_from_dict
+from wetline.core.fill import capacity, level_for_volume, volume_below
+from wetline.core.hydrostatics import solve
+from wetline.core.section import Section
+from wetline.core.section_file import case_from_dict
 
 G0 = 9.80665  # standard gravity [m/s2], exact: 3rd CGPM (1901), SI Brochure
 RHO_W = 1000.0  # [kg/m3], the density the textbooks use for water

@@ -3,18 +3,20 @@
 import csv
 import io
 import math
-from pathlib import Path
 
 import pytest
 
-from core.report_tables import (edges_table, fmt, level_load_table, parts_table, to_csv,
-                                totals_table)
-from core.results import results_record
-from core.section_file import read_section_file
-from core.units import display_units
-
-ROOT = Path(__file__).resolve().parents[2]
-SAMPLES = sorted((ROOT / "sample_sections").glob("*.section.json"))
+from wetline.core.report_tables import (
+    edges_table,
+    fmt,
+    level_load_table,
+    parts_table,
+    to_csv,
+    totals_table,
+)
+from wetline.core.results import results_record
+from wetline.core.section_file import read_section_file
+from wetline.core.units import display_units
 
 
 def _csv(table):
@@ -22,9 +24,8 @@ def _csv(table):
     return rows[0], rows[1:]
 
 
-@pytest.mark.parametrize("path", SAMPLES, ids=lambda p: p.name)
-def test_edge_csv_sums_match_the_json_record(path):
-    case = read_section_file(path)
+def test_edge_csv_sums_match_the_json_record(sample_path):
+    case = read_section_file(sample_path)
     sol = case.solve()
     rec = results_record(case, sol)
     header, rows = _csv(edges_table(sol, display_units("si")))
@@ -36,13 +37,13 @@ def test_edge_csv_sums_match_the_json_record(path):
     assert floor == pytest.approx(-rec["floor_force"], rel=1e-12, abs=1e-6)
     if "fx [kN]" in header:
         kx = header.index("fx [kN]")
-        for r, e in zip(rows, rec["edges"]):
+        for r, e in zip(rows, rec["edges"], strict=True):
             assert float(r[kx]) * 1000.0 == pytest.approx(e["fx"], rel=1e-12, abs=1e-9)
 
 
-def test_us_units_convert_with_nist_factors():
+def test_us_units_convert_with_nist_factors(sample):
     # NIST SP 811 App. B: 1 psi = 6894.757 Pa, 1 lbf = 4.448222 N, 1 ft = 0.3048 m.
-    case = read_section_file(ROOT / "sample_sections" / "open_tank.section.json")
+    case = read_section_file(sample("open_tank"))
     sol = case.solve()
     t = totals_table(sol, display_units("us"))
     values = {r[0]: r[1] for r in t.rows}
@@ -51,15 +52,15 @@ def test_us_units_convert_with_nist_factors():
     assert values["level"] == pytest.approx(sol.level / 0.3048)
 
 
-def test_parts_table_marks_uplift():
-    case = read_section_file(ROOT / "sample_sections" / "sump_with_lid.section.json")
+def test_parts_table_marks_uplift(sample):
+    case = read_section_file(sample("sump_with_lid"))
     t = parts_table(case.solve(), display_units("si"))
     notes = {r[0]: r[-1] for r in t.rows}
     assert notes["lid"] == "uplift" and notes["floor"] == ""
 
 
-def test_level_load_csv_weight_equals_floor_plus_supports():
-    case = read_section_file(ROOT / "sample_sections" / "chamber_under_riser.section.json")
+def test_level_load_csv_weight_equals_floor_plus_supports(sample):
+    case = read_section_file(sample("chamber_under_riser"))
     header, rows = _csv(level_load_table(case, display_units("si"), steps=9))
     w, f, s = (header.index(h) for h in ("fluid weight [kN]", "floor force [kN]",
                                           "support reaction [kN]"))
@@ -67,8 +68,8 @@ def test_level_load_csv_weight_equals_floor_plus_supports():
         assert float(r[f]) + float(r[s]) == pytest.approx(float(r[w]), rel=1e-9, abs=1e-9)
 
 
-def test_undefined_values_are_empty_csv_cells():
-    case = read_section_file(ROOT / "sample_sections" / "open_tank.section.json")
+def test_undefined_values_are_empty_csv_cells(sample):
+    case = read_section_file(sample("open_tank"))
     header, rows = _csv(edges_table(case.solve(), display_units("si")))
     dry = [r for r in rows if r[1] == "open"][0]
     assert dry[header.index("cp x [m]")] == ""

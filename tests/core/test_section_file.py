@@ -10,17 +10,16 @@ test_section_validation.py.
 import json
 import math
 import os
-from pathlib import Path
 
 import numpy as np
 import pytest
 
-import core.atomic_write as atomic_write
-import core.section_file as section_file
-from core.case import Case
-from core.liquids import custom_liquid, fresh_water, seawater
-from core.section import Section
-from core.section_file import (
+import wetline.core.atomic_write as atomic_write
+import wetline.core.section_file as section_file
+from wetline.core.case import Case
+from wetline.core.liquids import custom_liquid, fresh_water, seawater
+from wetline.core.section import Section
+from wetline.core.section_file import (
     SectionFileError,
     case_from_dict,
     dumps_case,
@@ -28,18 +27,7 @@ from core.section_file import (
     read_section_file,
     write_section_file,
 )
-from core.templates import TEMPLATES
-
-# The bundled sample sections (sample_sections/*.section.json). Found from
-# this file's place, as the other tests do: a shared tests/conftest.py or
-# helper module would put tests/ on sys.path, where tests/core would shadow
-# the core package under a plain `pytest` run.
-SAMPLE_DIR = Path(__file__).resolve().parents[2] / "sample_sections"
-
-
-def sample_paths():
-    """Every bundled sample section file, sorted by name."""
-    return sorted(SAMPLE_DIR.glob("*.section.json"))
+from wetline.core.templates import TEMPLATES
 
 TIGHT = 1e-9
 
@@ -520,23 +508,22 @@ def test_metre_values_saved_in_another_unit_read_back_exactly(metres, unit):
     assert back == case
 
 
-@pytest.mark.parametrize("path", sample_paths(), ids=lambda p: p.name)
-def test_write_then_read_every_sample_file(path, tmp_path):
+def test_write_then_read_every_sample_file(sample_path, tmp_path):
     # The bundled samples, in m, mm and ft: read, write, read gives the same
     # case, and the numbers written are the numbers the file holds.
-    case = read_section_file(path)
-    out = tmp_path / path.name
+    case = read_section_file(sample_path)
+    out = tmp_path / sample_path.name
     write_section_file(case, out)
     assert read_section_file(out) == case
-    original, written = json.loads(path.read_text(encoding="utf-8")), json.loads(
+    original, written = json.loads(sample_path.read_text(encoding="utf-8")), json.loads(
         out.read_text(encoding="utf-8"))
     for key in ("version", "length_unit", "outline", "parts", "fill", "geometry"):
         assert written[key] == original[key], key
 
 
-def test_there_are_sample_files_in_several_units():
+def test_there_are_sample_files_in_several_units(samples_dir):
     units = {json.loads(p.read_text(encoding="utf-8")).get("length_unit", "m")
-             for p in sample_paths()}
+             for p in samples_dir.glob("*.section.json")}
     assert {"m", "mm", "ft"} <= units
 
 

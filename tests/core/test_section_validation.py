@@ -12,11 +12,11 @@ import math
 import numpy as np
 import pytest
 
-from core.case import Case, CaseError
-from core.fill import FillError, capacity, level_for_volume
-from core.hydrostatics import solve
-from core.liquids import custom_liquid
-from core.section import Section, SectionError
+from wetline.core.case import Case, CaseError
+from wetline.core.fill import FillError, capacity, level_for_volume
+from wetline.core.hydrostatics import solve
+from wetline.core.liquids import custom_liquid
+from wetline.core.section import Section, SectionError
 
 SQUARE = [[0, 0], [2, 0], [2, 3], [0, 3]]
 TANK_PARTS = ["floor", "wall", "open", "wall"]

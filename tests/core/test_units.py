@@ -9,7 +9,7 @@ import pytest
 from hypothesis import given
 from hypothesis import strategies as st
 
-from core.units import (
+from wetline.core.units import (
     DISPLAY_LENGTH_UNITS,
     QUANTITIES,
     SI,
@@ -240,13 +240,7 @@ def test_importing_units_does_not_import_qt():
         "('PySide6', 'PyQt5', 'PyQt6', 'pyqtgraph')]\n"
         "assert not bad, bad\n"
     )
-    subprocess.run([sys.executable, "-c", code], check=True, cwd=_repo_root())
-
-
-def _repo_root():
-    import pathlib
-
-    return pathlib.Path(__file__).resolve().parents[2]
+    subprocess.run([sys.executable, "-c", code], check=True)
 
 
 def test_factors_are_plain_floats():

@@ -4,15 +4,15 @@ import math
 
 import numpy as np
 import pytest
-from hypothesis import given, settings, strategies as st
+from hypothesis import given, settings
+from hypothesis import strategies as st
 
-from core.case import Case
-from core.level_table import part_down_at
-from core.liquids import custom_liquid
-from core.section import Section
-from core.section_file import SectionFileError, dumps_case, loads_case
-from core.uplift import (DEFAULT_REQUIRED_FACTOR, PartResistance, uplift_check,
-                         worst_uplift)
+from wetline.core.case import Case
+from wetline.core.level_table import part_down_at
+from wetline.core.liquids import custom_liquid
+from wetline.core.section import Section
+from wetline.core.section_file import SectionFileError, dumps_case, loads_case
+from wetline.core.uplift import DEFAULT_REQUIRED_FACTOR, PartResistance, uplift_check, worst_uplift
 
 G0 = 9.80665
 

@@ -1,0 +1,1 @@
+"""The command line: ``wetline solve|table|cases|export|report|import``."""

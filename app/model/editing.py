@@ -1,0 +1,194 @@
+"""User edits of a document, as undo commands.
+
+The views call these functions; each builds the new case with core and
+pushes one :class:`wetline.app.model.commands.CaseCommand` with readable text. Outline
+edits that core refuses (crossing edges, too few vertices) become the
+document's :class:`wetline.app.model.document.Draft` instead, so nothing typed or dragged
+is lost and the last valid case stays in force.
+"""
+
+from __future__ import annotations
+
+import numpy as np
+
+from wetline.app.model.commands import CaseCommand, DiagramScaleCommand, UnitsCommand
+from wetline.app.model.display import format_number
+from wetline.app.model.document import Draft
+from wetline.app.model.gravity import format_gravity, gravity_label
+from wetline.core.fill import FillError, capacity
+from wetline.core.section import SectionError
+
+__all__ = [
+    "apply_outline", "move_vertex", "insert_vertex", "delete_vertex", "set_edge_part",
+    "replace_section", "set_kind", "set_width", "rename", "set_liquid", "set_gravity",
+    "fill_to_level", "fill_to_volume", "fill_to_percent", "set_units",
+    "set_diagram_scale", "discard_draft",
+]
+
+
+def apply_outline(doc, outline, parts, text, merge_key=None):
+    """Make ``outline`` / ``parts`` the section, or the draft if invalid.
+
+    Returns
+    -------
+    bool
+        True if the outline was valid (a command was pushed or nothing
+        changed), False if it was kept as a draft.
+    """
+    outline = np.array(outline, dtype=np.float64)
+    parts = tuple(parts)
+    try:
+        section = doc.section.replace(outline=outline, parts=parts)
+    except SectionError as exc:
+        doc.set_draft(Draft(outline, parts, exc))
+        return False
+    if section == doc.section:
+        doc.set_draft(None)
+        return True
+    doc.undo_stack.push(CaseCommand(doc, doc.case.with_section(section), text, merge_key))
+    return True
+
+
+def move_vertex(doc, index, x, z, merge_key=None):
+    """Move vertex ``index`` to (x, z) [m]."""
+    outline, parts = doc.working_outline()
+    outline = np.array(outline)
+    outline[index] = (x, z)
+    return apply_outline(doc, outline, parts, f"Move vertex {index}", merge_key)
+
+
+def insert_vertex(doc, edge, x, z):
+    """Split ``edge`` at (x, z) [m]; both halves keep the edge's part."""
+    outline, parts = doc.working_outline()
+    outline = np.insert(np.array(outline), edge + 1, (x, z), axis=0)
+    parts = parts[:edge + 1] + (parts[edge],) + parts[edge + 1:]
+    return apply_outline(doc, outline, parts, f"Insert vertex on edge {edge}")
+
+
+def delete_vertex(doc, index):
+    """Remove vertex ``index``; the edge arriving there takes over."""
+    outline, parts = doc.working_outline()
+    n = len(outline)
+    outline = np.delete(np.array(outline), index, axis=0)
+    # Edges index-1 and index merge into one that keeps the part of edge index-1.
+    parts = parts[:index] + parts[index + 1:] if index > 0 else parts[1:-1] + (parts[-1],)
+    if n - 1 < 1:
+        return False
+    return apply_outline(doc, outline, parts, f"Delete vertex {index}")
+
+
+def set_edge_part(doc, edge, name):
+    """Give ``edge`` the part ``name`` (reserved or any typed name)."""
+    name = str(name).strip()
+    outline, parts = doc.working_outline()
+    if not name:
+        raise ValueError("a part name cannot be empty")
+    if parts[edge] == name:
+        return True
+    parts = parts[:edge] + (name,) + parts[edge + 1:]
+    return apply_outline(doc, outline, parts, f"Set part of edge {edge} to {name}")
+
+
+def replace_section(doc, section, level=None, text="New section"):
+    """A whole new section (template, drawn outline), optionally refilled."""
+    case = doc.case.with_section(section)
+    if level is not None:
+        case = case.with_level(level)
+    doc.undo_stack.push(CaseCommand(doc, case, text))
+
+
+def set_kind(doc, kind):
+    """Switch plane / axisymmetric (may be refused: x < 0 ...)."""
+    section = doc.section.replace(kind=kind)
+    doc.set_draft(None)
+    doc.undo_stack.push(CaseCommand(doc, doc.case.with_section(section),
+                                    f"Section: {kind}"))
+
+
+def set_width(doc, width_m):
+    section = doc.section.replace(width=float(width_m))
+    doc.undo_stack.push(CaseCommand(doc, doc.case.with_section(section),
+                                    f"Width {doc.units.fmt_length(width_m)}"))
+
+
+def rename(doc, name):
+    section = doc.section.replace(name=str(name))
+    doc.undo_stack.push(CaseCommand(doc, doc.case.with_section(section), f"Rename to {name}"))
+
+
+def _liquid_text(liquid):
+    if liquid.preset == "seawater":
+        return (f"Liquid: seawater {format_number(liquid.temperature, 3)} C, "
+                f"{format_number(liquid.salinity, 3)} g/kg")
+    if liquid.preset == "fresh water":
+        return f"Liquid: fresh water {format_number(liquid.temperature, 3)} C"
+    if liquid.preset:
+        return f"Liquid: {liquid.name}"
+    return f"Liquid: {liquid.name}, {format_number(liquid.density, 5)} kg/m3"
+
+
+def set_liquid(doc, liquid):
+    if liquid == doc.case.liquid:
+        return
+    doc.undo_stack.push(CaseCommand(doc, doc.case.with_liquid(liquid), _liquid_text(liquid)))
+
+
+def set_gravity(doc, gravity):
+    """Set gravity [m/s2]; the undo text gives it in the display system's
+    unit ("Gravity 32.174 ft/s2")."""
+    gravity = float(gravity)
+    if not (np.isfinite(gravity) and gravity > 0):
+        raise ValueError(f"gravity must be a positive number, not {format_number(gravity)}")
+    if gravity == doc.case.gravity:
+        return
+    u = doc.units
+    doc.undo_stack.push(CaseCommand(doc, doc.case.with_gravity(gravity),
+                                    f"Gravity {format_gravity(u, gravity)} {gravity_label(u)}"))
+
+
+def fill_to_level(doc, level, merge_key=None):
+    """Fill to ``level`` [m]; a slider drag passes one key for all its steps."""
+    level = float(level)
+    if not np.isfinite(level):
+        raise ValueError("the level must be a number")
+    if doc.case.fill_level == level:
+        return
+    doc.undo_stack.push(CaseCommand(doc, doc.case.with_level(level),
+                                    f"Fill to {doc.units.fmt_length(level)}", merge_key))
+
+
+def fill_to_volume(doc, volume, merge_key=None):
+    """Fill with ``volume`` [m3]; FillError if the section cannot hold it."""
+    volume = float(volume)
+    if not np.isfinite(volume) or volume < 0:
+        raise FillError("the volume must be a number >= 0")
+    cap = capacity(doc.section)
+    if volume > cap * (1 + 1e-12):
+        raise FillError(f"{doc.units.fmt_volume(volume)} is more than the section holds "
+                        f"({doc.units.fmt_volume(cap)})")
+    if doc.case.fill_volume == volume:
+        return
+    doc.undo_stack.push(CaseCommand(doc, doc.case.with_volume(volume),
+                                    f"Fill with {doc.units.fmt_volume(volume)}", merge_key))
+
+
+def fill_to_percent(doc, percent, merge_key=None):
+    """Fill to ``percent`` of the capacity (0 to 100)."""
+    percent = float(percent)
+    if not (np.isfinite(percent) and 0 <= percent <= 100):
+        raise FillError("the percentage must be between 0 and 100")
+    fill_to_volume(doc, capacity(doc.section) * percent / 100.0, merge_key)
+
+
+def set_units(doc, choice):
+    if choice != doc.units:
+        doc.undo_stack.push(UnitsCommand(doc, choice))
+
+
+def set_diagram_scale(doc, scale, text="Diagram scale"):
+    if scale != doc.diagram_scale:
+        doc.undo_stack.push(DiagramScaleCommand(doc, scale, text))
+
+
+def discard_draft(doc):
+    doc.set_draft(None)

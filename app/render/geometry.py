@@ -1,0 +1,267 @@
+"""Drawing geometry of the loads: pressure diagrams, arrows, resultants.
+
+Pure numpy (no Qt), so the canvas and any renderer share it. Everything in
+metres and pascals; the pressure ``scale`` turns a pressure into a drawing
+length [m/Pa]. Diagrams are drawn outward from the wall (along the outward
+normal, from the liquid into the wall).
+"""
+
+from __future__ import annotations
+
+import itertools
+from dataclasses import dataclass
+
+import numpy as np
+
+from wetline.core.section import AXIS, OPEN
+
+__all__ = ["WettedEdges", "wetted_edges", "auto_scale", "diagram_polygons", "chain_starts",
+           "carrying_edges", "pressure_arrows", "arrow_strokes", "PartRun", "part_runs",
+           "run_resultants"]
+
+
+KINK_COS = 0.985
+"""Cosine of the angle between neighbouring edges above which the diagram
+does not return to the wall at their common vertex (about 10 degrees)."""
+
+
+@dataclass(frozen=True)
+class WettedEdges:
+    """The wetted part of every loaded edge at a level.
+
+    ``index`` edge indices; ``ax, az`` / ``bx, bz`` ends of the wetted part
+    [m]; ``pa, pb`` pressures there [Pa]; ``nx, nz`` outward normals.
+    """
+
+    index: np.ndarray
+    ax: np.ndarray
+    az: np.ndarray
+    bx: np.ndarray
+    bz: np.ndarray
+    pa: np.ndarray
+    pb: np.ndarray
+    nx: np.ndarray
+    nz: np.ndarray
+
+
+def carrying_edges(section):
+    """Boolean mask of the edges that carry load (not ``open`` or ``axis``)."""
+    return np.fromiter((p not in (OPEN, AXIS) for p in section.parts), bool,
+                       count=section.n_edges)
+
+
+def wetted_edges(solution, carries=None):
+    """:class:`WettedEdges` of a :class:`wetline.core.hydrostatics.Solution`
+    (``open`` and ``axis`` edges left out: nothing there carries load).
+    ``carries`` is :func:`carrying_edges` of the section, if known."""
+    section = solution.section
+    geo = section.geometry
+    h = solution.level
+    rg = solution.density * solution.gravity
+    f = np.clip((h - geo.z_low) * geo.inv_abs_dz, 0.0, 1.0)
+    if carries is None:
+        carries = carrying_edges(section)
+    keep = np.flatnonzero((f > 0) & carries & (solution.wetted_length > 0))
+    f = f[keep]
+    ta = (1.0 - f) * geo.falls[keep]
+    tb = ta + f
+    x0, z0, dx, dz = geo.x0[keep], geo.z0[keep], geo.dx[keep], geo.dz[keep]
+    ax, az = x0 + ta * dx, z0 + ta * dz
+    bx, bz = x0 + tb * dx, z0 + tb * dz
+    pa = rg * np.maximum(h - az, 0.0)
+    pb = rg * np.maximum(h - bz, 0.0)
+    return WettedEdges(keep, ax, az, bx, bz, pa, pb, geo.nx[keep], geo.nz[keep])
+
+
+def auto_scale(section, max_pressure, fraction=0.3):
+    """A scale [m/Pa] drawing the largest pressure ``fraction`` of the
+    section's size long (1e-6 when there is no pressure)."""
+    size = max(float(np.ptp(section.outline[:, 0])), float(np.ptp(section.outline[:, 1])))
+    if not max_pressure > 0:
+        return 1e-6
+    return fraction * size / max_pressure
+
+
+def diagram_polygons(w, scale):
+    """The diagrams as few polygons: one per chain of consecutive wetted
+    edges (wall points forward, then the diagram's outer edge back), so a
+    wall of ten thousand edges fills as one polygon (a path of thousands of
+    small overlapping polygons takes hundreds of ms to fill).
+
+    Returns x, z and ``connect`` (False after each polygon's last point),
+    for :func:`pyqtgraph.arrayToQPath`.
+    """
+    m = w.index.size
+    if m == 0:
+        e = np.empty(0)
+        return e, e, np.empty(0, dtype=bool)
+    # Each chain: its outer edge forward (outer A, outer B of every edge,
+    # dipping to the wall vertex at real kinks so the corner between two
+    # diagrams stays empty), then back along the wall. Dipping at every
+    # vertex would be exact too, but a path doubling back ten thousand
+    # times fills a hundred times slower.
+    starts = chain_starts(w)
+    kink = np.zeros(m, dtype=bool)  # after edge k
+    kink[:-1] = (w.nx[:-1] * w.nx[1:] + w.nz[:-1] * w.nz[1:]) < KINK_COS
+    nan = np.full(m, np.nan)
+    fx = np.column_stack([w.ax + w.pa * scale * w.nx, w.bx + w.pb * scale * w.nx,
+                          np.where(kink, w.bx, nan)])
+    fz = np.column_stack([w.az + w.pa * scale * w.nz, w.bz + w.pb * scale * w.nz,
+                          np.where(kink, w.bz, nan)])
+    bounds = np.append(starts, m)
+    xs, zs, cs = [], [], []
+    for k0, k1 in itertools.pairwise(bounds):
+        ox = fx[k0:k1].ravel()
+        oz = fz[k0:k1].ravel()
+        keep = ~np.isnan(ox)
+        keep[-1] = False  # the chain's end is added with the wall below
+        x = np.concatenate([w.ax[k0:k0 + 1], ox[keep], w.bx[k1 - 1:k1], w.bx[k0:k1][::-1],
+                            w.ax[k0:k0 + 1]])
+        z = np.concatenate([w.az[k0:k0 + 1], oz[keep], w.bz[k1 - 1:k1], w.bz[k0:k1][::-1],
+                            w.az[k0:k0 + 1]])
+        c = np.ones(x.size, dtype=bool)
+        c[-1] = False
+        xs.append(x)
+        zs.append(z)
+        cs.append(c)
+    return np.concatenate(xs), np.concatenate(zs), np.concatenate(cs)
+
+
+def chain_starts(w):
+    """Positions in ``w`` where a chain of joined wetted edges starts (the
+    previous wetted edge is not the previous edge, or they do not meet).
+    The arrays are used in order; a chain wrapping past the last edge is
+    split there."""
+    m = w.index.size
+    if m == 0:
+        return np.empty(0, dtype=np.intp)
+    size = max(float(np.ptp(np.concatenate([w.ax, w.bx]))),
+               float(np.ptp(np.concatenate([w.az, w.bz]))), 1e-300)
+    joined = np.zeros(m, dtype=bool)
+    joined[1:] = ((w.index[1:] == w.index[:-1] + 1)
+                  & (np.abs(w.ax[1:] - w.bx[:-1]) <= 1e-12 * size)
+                  & (np.abs(w.az[1:] - w.bz[:-1]) <= 1e-12 * size))
+    return np.flatnonzero(~joined)
+
+
+def pressure_arrows(w, scale, count=48):
+    """Tails (on the wall) and tips (at the diagram's outer edge) of
+    ``count`` arrows spread evenly along the wetted perimeter, whatever the
+    number of edges. Returns tail_x, tail_z, tip_x, tip_z."""
+    length = np.sqrt((w.bx - w.ax) ** 2 + (w.bz - w.az) ** 2)
+    total = float(length.sum())
+    if total <= 0:
+        e = np.empty(0)
+        return e, e, e, e
+    cum = np.cumsum(length)
+    s = (np.arange(count) + 0.5) * (total / count)
+    edge = np.minimum(np.searchsorted(cum, s, side="right"), length.size - 1)
+    t = (s - (cum[edge] - length[edge])) / np.where(length[edge] > 0, length[edge], 1.0)
+    px = w.ax[edge] + t * (w.bx[edge] - w.ax[edge])
+    pz = w.az[edge] + t * (w.bz[edge] - w.az[edge])
+    p = w.pa[edge] + t * (w.pb[edge] - w.pa[edge])
+    d = p * scale
+    return px, pz, px + d * w.nx[edge], pz + d * w.nz[edge]
+
+
+def arrow_strokes(tail_x, tail_z, tip_x, tip_z, head):
+    """Line segments (pairs of points) drawing arrows: a shaft and two head
+    strokes per arrow. ``head`` is the head length [m] (scalar or per
+    arrow). Returns x, z for a ``connect='pairs'`` curve."""
+    dx = tip_x - tail_x
+    dz = tip_z - tail_z
+    length = np.sqrt(dx * dx + dz * dz)
+    safe = np.where(length > 0, length, 1.0)
+    ux, uz = dx / safe, dz / safe
+    hl = np.minimum(head, 0.45 * length)
+    # Head strokes at +-25 degrees back from the tip.
+    c, s = 0.9063, 0.4226
+    lx1 = tip_x - hl * (c * ux - s * uz)
+    lz1 = tip_z - hl * (s * ux + c * uz)
+    lx2 = tip_x - hl * (c * ux + s * uz)
+    lz2 = tip_z - hl * (-s * ux + c * uz)
+    m = tail_x.size
+    x = np.empty((m, 6))
+    z = np.empty((m, 6))
+    x[:, 0], z[:, 0] = tail_x, tail_z
+    x[:, 1], z[:, 1] = tip_x, tip_z
+    x[:, 2], z[:, 2] = tip_x, tip_z
+    x[:, 3], z[:, 3] = lx1, lz1
+    x[:, 4], z[:, 4] = tip_x, tip_z
+    x[:, 5], z[:, 5] = lx2, lz2
+    return x.ravel(), z.ravel()
+
+
+@dataclass(frozen=True)
+class PartRun:
+    """A run of consecutive edges with one part name (edge indices, in
+    order; a run may wrap past the last edge)."""
+
+    part: str
+    edges: tuple
+
+
+def part_runs(section):
+    """The outline split into runs of consecutive edges with the same part;
+    ``open`` and ``axis`` runs left out."""
+    parts = section.parts
+    n = len(parts)
+    # Start at an edge whose predecessor has another part, so no run wraps.
+    start = next((i for i in range(n) if parts[i] != parts[i - 1]), 0)
+    runs, cur = [], [start]
+    for k in range(1, n):
+        i = (start + k) % n
+        if parts[i] == parts[cur[-1]]:
+            cur.append(i)
+        else:
+            runs.append(cur)
+            cur = [i]
+    runs.append(cur)
+    return [PartRun(parts[r[0]], tuple(r)) for r in runs if parts[r[0]] not in (OPEN, AXIS)]
+
+
+def run_resultants(solution, runs, w=None):
+    """Resultant of each run: list of (run, fx, fz, px, pz) with (px, pz)
+    the point where it acts [m] and forces [N] (fx NaN for axisymmetric).
+    Dry runs are left out.
+
+    Plane: the point on the resultant's line of action nearest the
+    force-weighted mean of the edges' centres of pressure (exact line of
+    action from the moments). Axisymmetric: the mid-point of the run's
+    wetted edges (no single point of action over a revolution).
+    """
+    out = []
+    axi = solution.section.is_axisymmetric
+    if w is None:
+        w = wetted_edges(solution)
+    pos = np.full(solution.section.n_edges, -1, dtype=np.intp)
+    pos[w.index] = np.arange(w.index.size)
+    for run in runs:
+        edges = np.asarray(run.edges, dtype=np.intp)
+        idx = edges[pos[edges] >= 0]
+        if idx.size == 0:
+            continue
+        fz = float(solution.fz[idx].sum())
+        if axi:
+            k = pos[idx]
+            mx = np.concatenate([w.ax[k], w.bx[k]])
+            mz = np.concatenate([w.az[k], w.bz[k]])
+            length = np.sqrt((w.bx[k] - w.ax[k]) ** 2 + (w.bz[k] - w.az[k]) ** 2)
+            wt = np.concatenate([length, length]) + 1e-300
+            out.append((run, float("nan"), fz, float(np.average(mx, weights=wt)),
+                        float(np.average(mz, weights=wt))))
+            continue
+        fx = float(solution.fx[idx].sum())
+        cp = solution.centre_of_pressure[idx]
+        mag = solution.resultant[idx]
+        if not mag.sum() > 0:
+            continue
+        cx = float(np.average(cp[:, 0], weights=mag))
+        cz = float(np.average(cp[:, 1], weights=mag))
+        f2 = fx * fx + fz * fz
+        if f2 > 0:
+            moment = float(np.sum(cp[:, 0] * solution.fz[idx] - cp[:, 1] * solution.fx[idx]))
+            t = (moment - (cx * fz - cz * fx)) / f2
+            cx, cz = cx + t * fz, cz - t * fx
+        out.append((run, fx, fz, cx, cz))
+    return out

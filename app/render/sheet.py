@@ -1,0 +1,770 @@
+"""The calculation sheet: one design case as a PDF for a calculation package.
+
+:func:`write_report` is the whole feature, headless (``wetline report``) and
+for the desktop program's menu. The sheet holds
+
+1. inputs: the section (kind, width, outline with its vertices in the
+   display length unit), the liquid with its density and the source of that
+   value, gravity, the fill and how it was given, the uplift inputs;
+2. the method: the formulas in plain notation, with the references;
+3. results: totals, loads by part, the uplift check with its verdicts, the
+   required factor and where its default comes from;
+4. warnings, assumptions and cautions;
+5. figures: the pressure diagram (the scene of :mod:`wetline.app.render.scene`) and
+   the loads-against-level chart (:mod:`wetline.app.render.level_chart`), both
+   painted as vectors;
+6. the per-edge results: pressures, forces and centres of pressure (plane)
+   or hoop forces (axisymmetric), one row per edge, as long as it needs to be.
+
+Every table comes from :mod:`wetline.core.report_tables` and every number is written
+with :func:`wetline.core.report_tables.fmt`, so the sheet, ``wetline solve`` and the
+CSV files print the same values.
+
+How the pages are made: the text of sections 1-4 and of section 6 is laid
+out by two :class:`QTextDocument` objects whose page size is the body area of
+an A4 page at 300 dpi (so their own pagination keeps table rows whole and
+repeats table headers, from ``<thead>``); section 5 is one painted page.
+With every page count known, each page is painted with :class:`QPainter` on
+a :class:`QPdfWriter`: a header (project, section, job reference, prepared
+by, date, "Page n of m"), the slice of a document that falls on that page
+(translated and clipped) or the figures, and a footer. Qt embeds subsets of
+the (DejaVu) fonts, so the text is extractable. The file is written
+atomically.
+"""
+
+from __future__ import annotations
+
+import html
+import math
+
+from PySide6.QtCore import QBuffer, QByteArray, QIODevice, QLineF, QMarginsF, QRectF, QSizeF, Qt
+from PySide6.QtGui import (
+    QColor,
+    QFont,
+    QFontMetricsF,
+    QPageLayout,
+    QPageSize,
+    QPainter,
+    QPdfWriter,
+    QPen,
+    QTextDocument,
+)
+
+from wetline.app.render.level_chart import paint_level_chart
+from wetline.app.render.scene import (
+    FONT_FAMILY,
+    ExportError,
+    _date_text,
+    _ensure_app,
+    _program,
+    _Scene,
+)
+from wetline.core.atomic_write import WriteError, check_target, write_atomically
+from wetline.core.report_tables import (
+    edges_table,
+    fmt,
+    force_scope,
+    parts_table,
+    totals_table,
+    uplift_table,
+    with_note,
+)
+from wetline.core.results import ASSUMPTIONS, CAUTIONS
+from wetline.core.units import display_units, length_factor
+from wetline.core.uplift import DEFAULT_REQUIRED_FACTOR, REQUIRED_FACTOR_SOURCE, UPLIFT_CAUTION
+
+__all__ = ["DPI", "ReportError", "write_report", "report_pdf_bytes"]
+
+DPI = 300
+"""Resolution of the PDF's painting coordinates [dots per inch]."""
+
+MAX_OUTLINE_ROWS = 80
+"""Outlines with more vertices are listed only with the per-edge results."""
+
+_EDGE_PT = 6.5  # font size of the per-edge table [pt]
+_MM = DPI / 25.4  # device units per millimetre
+_PAGE_W, _PAGE_H = 210.0, 297.0  # A4 portrait [mm]
+_LEFT_MM, _RIGHT_MM = 18.0, 15.0
+_TOP_MM, _HEADER_MM, _GAP_MM = 10.0, 19.0, 5.0
+_FOOTER_MM, _BOTTOM_MM = 8.0, 9.0
+
+INK = "#1d2530"
+MUTED = "#5f6b78"
+RULE = "#9aa5b1"
+HEAD_FILL = "#e9eef3"
+OK_COLOUR = "#1d6b34"
+NOT_OK_COLOUR = "#b3141f"
+FORMULA_FILL = "#f4f6f8"
+
+
+class ReportError(ExportError):
+    """A calculation sheet that cannot be made or written (a ValueError)."""
+
+
+# ------------------------------------------------------------------ text
+def _e(text):
+    return html.escape(str(text), quote=True)
+
+
+def _cell(v):
+    if isinstance(v, bool):
+        return str(v)
+    if isinstance(v, int):
+        return str(v)
+    return fmt(v)
+
+
+def _table_html(header, rows, *, align=None, cls="t", widths=None, verdict_col=None,
+                repeat_header=True, padding=3):
+    """An HTML table; numbers right-aligned, the header repeated on each page."""
+    n = len(header)
+    align = align or (["left"] + ["right"] * (n - 1))
+    out = [f'<table class="{cls}" width="100%" cellspacing="0" cellpadding="{padding}" border="1" '
+           f'style="border-collapse: collapse; border-color: {RULE};">']
+    head = "".join(
+        f'<th align="{a}" bgcolor="{HEAD_FILL}"'
+        + (f' width="{widths[k]:.2f}%"' if widths else "") + f">{_e(h)}</th>"
+        for k, (h, a) in enumerate(zip(header, align, strict=True)))
+    out.append(f"<thead><tr>{head}</tr></thead>" if repeat_header else f"<tr>{head}</tr>")
+    for row in rows:
+        cells = []
+        for k, (v, a) in enumerate(zip(row, align, strict=True)):
+            text = _e(_cell(v))
+            if verdict_col is not None and k == verdict_col:
+                colour = OK_COLOUR if v == "OK" else NOT_OK_COLOUR
+                text = f'<b><span style="color: {colour};">{text}</span></b>'
+            cells.append(f'<td align="{a}">{text}</td>')
+        out.append("<tr>" + "".join(cells) + "</tr>")
+    out.append("</table>")
+    return "".join(out)
+
+
+def _kv_html(rows):
+    """A two-column table of labels and values (no borders)."""
+    out = ['<table class="kv" width="100%" cellspacing="0" cellpadding="2">']
+    for label, value in rows:
+        out.append(f'<tr><td width="27%" style="color: {MUTED};">{_e(label)}</td>'
+                   f"<td>{value}</td></tr>")
+    out.append("</table>")
+    return "".join(out)
+
+
+_CSS = f"""
+body {{ color: {INK}; }}
+h1 {{ font-size: 15pt; font-weight: bold; margin-top: 0px; margin-bottom: 2px; }}
+h2 {{ font-size: 11pt; font-weight: bold; margin-top: 14px; margin-bottom: 4px;
+      color: {INK}; }}
+h3 {{ font-size: 9pt; font-weight: bold; margin-top: 9px; margin-bottom: 3px; }}
+p {{ margin-top: 2px; margin-bottom: 4px; }}
+p.note {{ color: {MUTED}; font-size: 7.5pt; }}
+p.f {{ margin-left: 14px; margin-top: 1px; margin-bottom: 1px; }}
+p.sub {{ color: {MUTED}; font-size: 9pt; margin-bottom: 6px; }}
+table.t {{ font-size: 7.5pt; margin-top: 2px; margin-bottom: 4px; }}
+table.e {{ font-size: {_EDGE_PT}pt; margin-top: 2px; }}
+table.kv {{ font-size: 8.5pt; }}
+th {{ font-weight: bold; }}
+li {{ margin-bottom: 2px; }}
+"""
+
+
+# --------------------------------------------------------------- content
+class _Sheet:
+    """The content of one calculation sheet, as HTML and figure data."""
+
+    def __init__(self, case, level, units, date):
+        self.case = case
+        self.sol = case.solve(level)
+        self.level_given = level is not None
+        self.du = display_units(units)
+        self.date = _date_text(date)
+        self.section = self.sol.section
+
+    # ------------------------------------------------------------ units
+    def length(self, m, digits=5):
+        return f"{fmt(self.du.to_display(m, 'length'), digits)} {self.du.label('length')}"
+
+    def force(self, n):
+        return f"{fmt(self.du.to_display(n, 'force'))} {self.du.label('force')}"
+
+    def force_scope(self):
+        """For which width the forces are, in words."""
+        return force_scope(self.section, self.du)
+
+    def title(self):
+        s = self.section
+        name = s.name.strip() or "Untitled section"
+        kind = ("axisymmetric section" if s.is_axisymmetric else "plane section")
+        return (f"<h1>Hydrostatic loads: {_e(name)}</h1>"
+                f'<p class="sub">Calculation sheet for a {kind} at a liquid level of '
+                f"{_e(self.length(self.sol.level))}; forces {_e(self.force_scope())}.</p>")
+
+    def inputs(self):
+        s, sol, du, case = self.section, self.sol, self.du, self.case
+        L = du.label("length")
+        out = ["<h2>1 Inputs</h2>", "<h3>1.1 Section</h3>"]
+        if s.is_axisymmetric:
+            geometry = ("axisymmetric: the outline is a half-section revolved about the "
+                        "axis x = 0 (x is the radius); forces over the full circumference")
+        else:
+            geometry = (f"plane: the outline is a cross-section {_e(self.length(s.width))} "
+                        f"wide out of the drawing; forces {_e(self.force_scope())}")
+        pts = du.to_display(s.outline, "length")
+        parts = ", ".join(s.part_names)
+        top = (f"spill level {_e(self.length(s.spill_level))} (open section)" if s.is_open
+               else f"roof at {_e(self.length(s.z_max))} (closed section)")
+        rows = [("Name", _e(s.name.strip() or "untitled")),
+                ("Geometry", geometry),
+                ("Outline", f"{s.n_edges} vertices and {s.n_edges} edges; coordinates "
+                            f"below in {_e(L)} (the file gives them in "
+                            f"{_e(case.length_unit)})"),
+                ("Extent", f"x from {fmt(pts[:, 0].min())} to {fmt(pts[:, 0].max())} {_e(L)}, "
+                           f"z from {fmt(pts[:, 1].min())} to {fmt(pts[:, 1].max())} {_e(L)}"),
+                ("Parts", _e(parts)),
+                ("Top", top)]
+        out.append(_kv_html(rows))
+        if s.n_edges <= MAX_OUTLINE_ROWS:
+            out.append('<p class="note">Outline: vertex i and the part of edge i, which runs '
+                       "from vertex i to vertex i + 1 (the last edge closes the outline). "
+                       "x to the right, z up.</p>")
+            xl = "r" if s.is_axisymmetric else "x"
+            header = ("vertex", f"{xl} [{L}]", f"z [{L}]", "edge i part")
+            rows = [(i, float(pts[i, 0]), float(pts[i, 1]), s.parts[i])
+                    for i in range(s.n_edges)]
+            out.append(_table_html(header, rows, align=["right", "right", "right", "left"],
+                                   widths=[12, 22, 22, 44]))
+        else:
+            out.append(f'<p class="note">The {s.n_edges} vertices are listed with the per-edge '
+                       f"results in section 6 (x start and z start of each edge, with its "
+                       f"part).</p>")
+
+        liq = case.liquid
+        out.append("<h3>1.2 Liquid and gravity</h3>")
+        density = f"{fmt(du.to_display(liq.density, 'density'))} {du.label('density')}"
+        if du.name != "si":
+            density += f" ({fmt(liq.density)} kg/m3)"
+        gravity = f"{fmt(case.gravity, 7)} m/s2"
+        if du.name == "us":
+            gravity += f" ({fmt(case.gravity / length_factor('ft'), 7)} ft/s2)"
+        out.append(_kv_html([("Liquid", _e(liq.name)), ("Density", _e(density)),
+                             ("Source of the density", _e(liq.source)),
+                             ("Gravity", _e(gravity))]))
+
+        out.append("<h3>1.3 Fill</h3>")
+        rows = []
+        if self.level_given:
+            how = "level given for this sheet"
+        elif case.fill_volume is not None:
+            how = (f"volume given: {fmt(du.to_display(case.fill_volume, 'volume'))} "
+                   f"{du.label('volume')}; the level holding it was solved exactly")
+        else:
+            how = "level given"
+        rows.append(("Fill", _e(how)))
+        rows.append(("Requested level", _e(self.length(sol.requested_level))))
+        level = self.length(sol.level)
+        if sol.level != sol.requested_level:
+            level += ", capped at the spill level"
+        rows.append(("Level used", f"<b>{_e(level)}</b>"))
+        if sol.head_above_top > 0:
+            rows.append(("Head above the roof", _e(self.length(sol.head_above_top)) +
+                         " (the closed section is full under a standpipe head)"))
+        rows.append(("Liquid volume", _e(f"{fmt(du.to_display(sol.volume, 'volume'))} "
+                                         f"{du.label('volume')}")))
+        out.append(_kv_html(rows))
+
+        out.append("<h3>1.4 Uplift check inputs</h3>")
+        f = case.required_uplift_factor
+        if f == DEFAULT_REQUIRED_FACTOR:
+            source = REQUIRED_FACTOR_SOURCE
+        else:
+            source = f"given by the user (the program's {REQUIRED_FACTOR_SOURCE})"
+        rows = [("Required factor", f"<b>{_e(fmt(f, 4))}</b>"),
+                ("Source", _e(source))]
+        out.append(_kv_html(rows))
+        res = case.resistance_map
+        if res:
+            unit = du.label("force") if s.is_axisymmetric else du.label("force_per_length")
+            per = "totals" if s.is_axisymmetric else "per unit width"
+            header = ("part", f"self-weight G [{unit}]", f"holding-down R [{unit}]",
+                      f"G + R [{unit}]")
+            q = "force" if s.is_axisymmetric else "force_per_length"
+            rows = [(name, du.to_display(r.self_weight, q), du.to_display(r.holding_down, q),
+                     du.to_display(r.total, q)) for name, r in sorted(res.items())]
+            out.append(f'<p class="note">Resistance holding each part down ({per}).</p>')
+            out.append(_table_html(header, rows))
+        else:
+            out.append('<p class="note">No self-weight or holding-down resistance entered: '
+                       "no part is checked against uplift.</p>")
+        return "".join(out)
+
+    def method(self):
+        s = self.section
+        rows = [("Pressure", "<b>p = ρ g (h − z)</b> at or below the free surface "
+                             "(z ≤ h); p = 0 above it")]
+        if s.is_axisymmetric:
+            rows += [
+                ("Vertical force on an edge",
+                 "<b>F<sub>z</sub> = 2π n<sub>z</sub> ∫ p r ds</b> = 2π n<sub>z</sub> ρ g L f "
+                 "[(2a₀ + a₁) r<sub>a</sub> + (a₀ + 2a₁) r<sub>b</sub>] / 6, over the full "
+                 "revolution; r<sub>a</sub>, r<sub>b</sub> the radii at the ends of the wetted "
+                 "part, n<sub>z</sub> the vertical component of the outward unit normal; the "
+                 "horizontal forces cancel over the revolution"),
+                ("Hoop force", "<b>N = p r / cos α</b> at each end of an edge, α the edge's "
+                               "angle from the vertical (membrane theory; not defined on "
+                               "horizontal edges)"),
+                ("Volume", "<b>V = π ∮ x² dz</b> (Green's theorem over the outline clipped "
+                           "at the free surface)"),
+            ]
+        else:
+            rows += [
+                ("Force on an edge", "<b>F = w L f p̄ n</b>, p̄ = ρ g (a₀ + a₁) / 2 the mean "
+                                     "pressure over the wetted length, n the outward unit "
+                                     "normal, w the section's width"),
+                ("Centre of pressure", "at the centroid of the trapezoidal pressure diagram: "
+                                       "<b>t = t<sub>a</sub> + f (a₀ + 2a₁) / (3 (a₀ + a₁))</b> "
+                                       "along the edge, t<sub>a</sub> = 1 − f on edges that "
+                                       "fall, else 0"),
+                ("Volume", "<b>V = w ∮ x dz</b> (Green's theorem over the outline clipped at "
+                           "the free surface)"),
+            ]
+        rows += [
+            ("Weight and totals", "<b>W = ρ g V</b>; a part's downward load <b>down = −Σ "
+                                  "F<sub>z</sub></b> over its edges (negative: lifted); floor "
+                                  "force: down on the part named floor; support reaction: down "
+                                  "on all other wetted parts; check: floor force + support "
+                                  "reaction = W (computed independently, not assumed)"),
+            ("Uplift", "<b>factor = (G + R) / U</b>, U the upward load of the liquid on the "
+                       "part, G its self-weight, R the holding-down resistance; at the current "
+                       "level and at the worst level of the fill range (empty to the spill "
+                       "level; for a closed section to the roof, or to the level if higher); "
+                       "it must reach the required factor"),
+        ]
+        out = ["<h2>2 Method</h2>",
+               "<p>Hydrostatics of one liquid at rest, gauge pressure (atmosphere = 0). "
+               "Each edge is straight, so the pressure varies linearly along its wetted part "
+               "and every integral is evaluated exactly in closed form. Symbols: ρ density, "
+               "g gravity, h level of the free surface, z height (up), L edge length, f "
+               "wetted fraction of the edge, a₀ and a₁ depths of the edge's ends below the "
+               "free surface (0 where dry).</p>",
+               f'<table width="100%" cellspacing="0" cellpadding="4" bgcolor="{FORMULA_FILL}" '
+               f'style="border-collapse: collapse;">']
+        for label, formula in rows:
+            out.append(f'<tr><td width="22%" bgcolor="{FORMULA_FILL}" '
+                       f'style="color: {MUTED};">{_e(label)}</td>'
+                       f'<td bgcolor="{FORMULA_FILL}">{formula}</td></tr>')
+        out.append("</table>")
+        out.append('<p class="note">References: Çengel &amp; Cimbala, <i>Fluid Mechanics</i>, '
+                   "sec. 3-1 to 3-4; Munson, Young &amp; Okiishi, <i>Fundamentals of Fluid "
+                   "Mechanics</i>, sec. 2.3 and 2.8 (pressure on plane and curved surfaces); "
+                   "membrane theory of shells of revolution: Timoshenko &amp; "
+                   "Woinowsky-Krieger, <i>Theory of Plates and Shells</i>; uplift limit "
+                   "state: EN 1997-1 (Eurocode 7), 2.4.7.4.</p>")
+        return "".join(out)
+
+    def results(self):
+        s, sol, du, case = self.section, self.sol, self.du, self.case
+        out = ["<h2>3 Results</h2>",
+               f"<h3>3.1 Totals</h3><p>Forces {_e(self.force_scope())}.</p>"]
+        rows = [(name, with_note(value, note), unit)
+                for name, value, unit, note in totals_table(sol, du).rows]
+        out.append(_table_html(("quantity", "value", "unit"), rows,
+                               align=["left", "right", "left"], widths=[40, 30, 30]))
+        out.append(f'<p class="note">Check: floor force + support reaction = '
+                   f"{_e(self.force(sol.floor_force))} + ({_e(self.force(sol.support_reaction))}) "
+                   f"= {_e(self.force(sol.floor_force + sol.support_reaction))}; liquid weight "
+                   f"ρ g V = {_e(self.force(sol.fluid_weight))}.</p>")
+        parts = parts_table(sol, du)
+        out.append("<h3>3.2 Loads by part</h3>")
+        if parts.rows:
+            out.append(_table_html(parts.header, parts.rows))
+            note = ("fz positive up; down = −fz (negative: lifted)." if s.is_axisymmetric else
+                    "fx positive to the right (a part on both sides nets out); fz positive "
+                    "up; down = −fz (negative: lifted).")
+            out.append(f'<p class="note">{_e(note)}</p>')
+        else:
+            out.append("<p>No loaded parts.</p>")
+        out.append("<h3>3.3 Uplift check</h3>")
+        up = uplift_table(case, du, sol)
+        if up.rows:
+            out.append(_table_html(up.header, up.rows, verdict_col=len(up.header) - 1,
+                                   align=["left"] + ["right"] * (len(up.header) - 2)
+                                   + ["center"]))
+            verdicts = "; ".join(
+                f"{r[0]}: {r[-1]} (worst factor {fmt(r[6], 4)} against "
+                f"{fmt(case.required_uplift_factor, 4)} required)" for r in up.rows)
+            out.append(f"<p><b>{_e(verdicts)}</b></p>")
+            out.append(f'<p class="note">Required factor {_e(fmt(case.required_uplift_factor, 4))}'
+                       f": {_e(self._factor_source())}. The verdict is taken at the worst "
+                       f"level. {_e(UPLIFT_CAUTION)}</p>")
+        else:
+            lifted = [f"{name} ({self.force(-p.down)})" for name, p in sol.parts.items()
+                      if p.down < 0]
+            text = "No resistance entered, so no part is checked."
+            if lifted:
+                text += " Parts lifted at this level: " + ", ".join(lifted) + "."
+            out.append(f"<p>{_e(text)}</p>")
+        return "".join(out)
+
+    def _factor_source(self):
+        f = self.case.required_uplift_factor
+        if f == DEFAULT_REQUIRED_FACTOR:
+            return REQUIRED_FACTOR_SOURCE
+        return f"given by the user (the program's {REQUIRED_FACTOR_SOURCE})"
+
+    def notes(self):
+        sol = self.sol
+        out = ["<h2>4 Warnings, assumptions and cautions</h2>", "<h3>Warnings</h3>"]
+        if sol.warnings:
+            out.append("<ul>" + "".join(f"<li>{_e(w)}</li>" for w in sol.warnings) + "</ul>")
+        else:
+            out.append("<p>None at this level.</p>")
+        out.append("<h3>Assumptions</h3><ul>"
+                   + "".join(f"<li>{_e(a)}</li>" for a in ASSUMPTIONS)
+                   + "<li>forces are what the liquid exerts on the wall; x to the right, "
+                     "z up</li></ul>")
+        out.append("<h3>Cautions</h3>")
+        out.append(f'<table width="100%" cellpadding="6" cellspacing="0" border="1" '
+                   f'style="border-collapse: collapse; border-color: {NOT_OK_COLOUR};">'
+                   f'<tr><td bgcolor="#fbeeee"><b>{_e(CAUTIONS)}</b><br/>'
+                   f"{_e(UPLIFT_CAUTION)}</td></tr></table>")
+        out.append('<p class="note">Figures (section 5) and the per-edge results '
+                   "(section 6) follow.</p>")
+        return "".join(out)
+
+    def main_html(self):
+        return (f"<html><head><style>{_CSS}</style></head><body>" + self.title()
+                + self.inputs() + self.method() + self.results() + self.notes()
+                + "</body></html>")
+
+    def edges_html(self, writer, body):
+        """Section 6: the per-edge table cut into one table per page.
+
+        Qt lays out and paints a single long table in time that grows with
+        its length on every page (minutes for thousands of rows), so the
+        rows are split here: the height of a row and of the header is
+        measured on a sample, each page gets the rows that fit and its own
+        header, and each table after the first starts a new page. Should a
+        row wrap and a table still run over, its ``<thead>`` repeats.
+        """
+        s, du = self.section, self.du
+        t = edges_table(self.sol, du)
+        intro = ("<h2>6 Per-edge results</h2>"
+                 f"<p>Edge i runs from vertex i to vertex i + 1; forces "
+                 f"{_e(self.force_scope())}. Pressures at the edge's ends (0 where dry). ")
+        if s.is_axisymmetric:
+            intro += ("fz over the full revolution, positive up; hoop forces at the ends "
+                      "(- on horizontal edges).</p>")
+        else:
+            intro += ("fx, fz: force of the liquid on the edge (x right, z up); cp: centre "
+                      "of pressure (- on dry edges).</p>")
+        # Headers wrap at the unit: "p start" over "[kPa]".
+        header = [h.replace(" [", "\n[") for h in t.header]
+        align = ["right", "left"] + ["right"] * (len(header) - 2)
+        # Fixed column widths, from the longest entry of each column, so that
+        # every page's table looks the same and every row has one height.
+        fm = QFontMetricsF(_font(_EDGE_PT), writer)
+        fb = QFontMetricsF(_font(_EDGE_PT, bold=True), writer)
+        need = []
+        for k, h in enumerate(header):
+            texts = {_cell(r[k]) for r in t.rows}
+            need.append(max([fb.horizontalAdvance(w) for w in h.split()]
+                            + [fm.horizontalAdvance(x) for x in texts]) + 2.5 * fm.height())
+        widths = [100.0 * v / sum(need) for v in need]
+
+        def table(rows, new_page=False):
+            text = _table_html(header, rows, cls="e", align=align, widths=widths,
+                               padding=2).replace("\n[", "<br/>[")
+            if new_page:
+                text = text.replace("<table ", '<table style="page-break-before: always;" ', 1)
+            return text
+
+        def page(content):
+            return f"<html><head><style>{_CSS}</style></head><body>{content}</body></html>"
+
+        rows = t.rows
+        sample = sorted(rows, key=lambda r: -len(str(r[1])))[:10] or rows
+        h_intro = _height(page(intro), writer, body)
+        h1 = _height(page(intro + table(sample[:1])), writer, body)
+        hn = _height(page(intro + table(sample)), writer, body)
+        row_h = max((hn - h1) / max(len(sample) - 1, 1), 1.0)
+        overhead = h1 - h_intro - row_h
+        first = max(int((body.height() - h_intro - overhead) / row_h) - 1, 1)
+        per_page = max(int((body.height() - overhead) / row_h) - 1, 1)
+        parts = [intro, table(rows[:first])]
+        for k in range(first, len(rows), per_page):
+            parts.append(table(rows[k:k + per_page], new_page=True))
+        return page("".join(parts))
+
+
+def _height(html_text, writer, body):
+    """Height of ``html_text`` laid out at the body's width, unpaginated."""
+    doc = QTextDocument()
+    doc.documentLayout().setPaintDevice(writer)
+    doc.setDefaultFont(_font(8.5))
+    doc.setDocumentMargin(0)
+    doc.setUseDesignMetrics(True)
+    doc.setTextWidth(body.width())
+    doc.setHtml(html_text)
+    return doc.size().height()
+
+
+# ----------------------------------------------------------------- pages
+class _Pages:
+    """Geometry of an A4 page in device units (1/300 inch), portrait or
+    landscape (the per-edge table)."""
+
+    def __init__(self, landscape=False):
+        pw, ph = (_PAGE_H, _PAGE_W) if landscape else (_PAGE_W, _PAGE_H)
+        self.landscape = landscape
+        self.layout = QPageLayout(
+            QPageSize(QPageSize.PageSizeId.A4),
+            QPageLayout.Orientation.Landscape if landscape else QPageLayout.Orientation.Portrait,
+            QMarginsF(0, 0, 0, 0))
+        left, right = _LEFT_MM * _MM, (pw - _RIGHT_MM) * _MM
+        self.header = QRectF(left, _TOP_MM * _MM, right - left, _HEADER_MM * _MM)
+        top = (_TOP_MM + _HEADER_MM + _GAP_MM) * _MM
+        bottom = (ph - _BOTTOM_MM - _FOOTER_MM - 2.0) * _MM
+        self.body = QRectF(left, top, right - left, bottom - top)
+        self.footer = QRectF(left, (ph - _BOTTOM_MM - _FOOTER_MM) * _MM, right - left,
+                             _FOOTER_MM * _MM)
+
+
+def _font(pt, bold=False, family=FONT_FAMILY):
+    f = QFont(family)
+    f.setPointSizeF(pt)
+    if bold:
+        f.setWeight(QFont.Weight.Bold)
+    # No "fi"/"fl" ligatures: the text must read back (and search) as typed.
+    f.setFeature(QFont.Tag("liga"), 0)
+    return f
+
+
+def _document(html_text, writer, body):
+    doc = QTextDocument()
+    doc.documentLayout().setPaintDevice(writer)
+    doc.setDefaultFont(_font(8.5))
+    doc.setDocumentMargin(0)
+    doc.setUseDesignMetrics(True)
+    doc.setPageSize(QSizeF(body.width(), body.height()))
+    doc.setHtml(html_text)
+    return doc
+
+
+def _header(p, rect, sheet, page, pages):
+    case, s = sheet.case, sheet.section
+    info = case.report
+    lw = 0.25 * _MM
+    label_font, value_font = _font(6.5), _font(8.5, bold=True)
+    dev = p.device()
+    lfm, vfm = QFontMetricsF(label_font, dev), QFontMetricsF(value_font, dev)
+    title_h = 5.0 * _MM
+    p.setFont(_font(8.5, bold=True))
+    p.setPen(QColor(INK))
+    p.drawText(QRectF(rect.left(), rect.top(), rect.width(), title_h),
+               Qt.AlignmentFlag.AlignLeft | Qt.AlignmentFlag.AlignVCenter,
+               "HYDROSTATIC LOAD CALCULATION")
+    p.setFont(_font(7.5))
+    p.setPen(QColor(MUTED))
+    p.drawText(QRectF(rect.left(), rect.top(), rect.width(), title_h),
+               Qt.AlignmentFlag.AlignRight | Qt.AlignmentFlag.AlignVCenter, _program())
+    grid = QRectF(rect.left(), rect.top() + title_h, rect.width(), rect.height() - title_h)
+    cells = [("Project", info.project or "-"), ("Job reference", info.job_reference or "-"),
+             ("Date", sheet.date),
+             ("Section", s.name.strip() or "untitled"),
+             ("Prepared by", info.prepared_by or "-"), ("Sheet", f"Page {page} of {pages}")]
+    widths = [0.46, 0.32, 0.22]
+    rh = grid.height() / 2
+    pad = 1.4 * _MM
+    p.setPen(QPen(QColor(INK), lw))
+    p.setBrush(Qt.BrushStyle.NoBrush)
+    p.drawRect(grid)
+    x = grid.left()
+    for col, w in enumerate(widths):
+        cw = w * grid.width()
+        for row in range(2):
+            label, value = cells[row * 3 + col]
+            r = QRectF(x, grid.top() + row * rh, cw, rh)
+            p.setPen(QPen(QColor(RULE), lw))
+            p.drawRect(r)
+            p.setPen(QColor(MUTED))
+            p.setFont(label_font)
+            p.drawText(QRectF(r.left() + pad, r.top() + 0.6 * _MM, r.width() - 2 * pad,
+                              lfm.height()), Qt.AlignmentFlag.AlignLeft, label.upper())
+            p.setPen(QColor(INK))
+            p.setFont(value_font)
+            text = vfm.elidedText(value, Qt.TextElideMode.ElideRight, r.width() - 2 * pad)
+            p.drawText(QRectF(r.left() + pad, r.bottom() - vfm.height() - 0.9 * _MM,
+                              r.width() - 2 * pad, vfm.height()),
+                       Qt.AlignmentFlag.AlignLeft, text)
+        x += cw
+    p.setPen(QPen(QColor(INK), 2 * lw))
+    p.drawRect(grid)
+
+
+def _footer(p, rect, sheet, page, pages):
+    lw = 0.2 * _MM
+    p.setPen(QPen(QColor(RULE), lw))
+    p.drawLine(QLineF(rect.left(), rect.top(), rect.right(), rect.top()))
+    p.setFont(_font(6.5))
+    p.setPen(QColor(MUTED))
+    r = rect.adjusted(0, 1.2 * _MM, 0, 0)
+    p.drawText(r, Qt.AlignmentFlag.AlignLeft | Qt.AlignmentFlag.AlignTop,
+               "Hydrostatic loads only; see the cautions in section 4. Verify against the "
+               "governing code.")
+    p.drawText(r, Qt.AlignmentFlag.AlignRight | Qt.AlignmentFlag.AlignTop,
+               f"{sheet.date}  ·  page {page} of {pages}")
+
+
+def _figures(p, body, sheet, units):
+    """Section 5 on one page: the pressure diagram and the loads chart."""
+    f = 3.3 * _MM  # heading height
+    y = body.top()
+    p.setPen(QColor(INK))
+    p.setFont(_font(11, bold=True))
+    p.drawText(QRectF(body.left(), y, body.width(), 6 * _MM),
+               Qt.AlignmentFlag.AlignLeft | Qt.AlignmentFlag.AlignTop, "5 Figures")
+    y += 8 * _MM
+    cap_font = _font(8.5, bold=True)
+    note_font = _font(7.5)
+
+    def caption(y, title, note):
+        p.setPen(QColor(INK))
+        p.setFont(cap_font)
+        p.drawText(QRectF(body.left(), y, body.width(), f + _MM),
+                   Qt.AlignmentFlag.AlignLeft | Qt.AlignmentFlag.AlignTop, title)
+        p.setPen(QColor(MUTED))
+        p.setFont(note_font)
+        r = p.boundingRect(QRectF(body.left(), y + f + 0.6 * _MM, body.width(), 20 * _MM),
+                           int(Qt.AlignmentFlag.AlignLeft | Qt.AlignmentFlag.AlignTop)
+                           | int(Qt.TextFlag.TextWordWrap), note)
+        p.drawText(r, int(Qt.AlignmentFlag.AlignLeft | Qt.AlignmentFlag.AlignTop)
+                   | int(Qt.TextFlag.TextWordWrap), note)
+        return r.bottom() + 1.5 * _MM
+
+    y = caption(y, "Figure 1. Pressure diagram",
+                "Gauge pressure on each wetted wall drawn outward from the wall, with the "
+                "resultant of each part and the key totals (values to 4 significant figures; "
+                "the tables give 5).")
+    # The diagram scene, laid out for a small logical size (so its text is
+    # legible at this scale) and painted as vectors.
+    logical = (700, 500)
+    h1 = body.width() * logical[1] / logical[0]
+    rect = QRectF(body.left(), y, body.width(), h1)
+    p.save()
+    p.translate(rect.topLeft())
+    p.scale(rect.width() / logical[0], rect.height() / logical[1])
+    p.setClipRect(QRectF(0, 0, *logical))
+    _Scene(sheet.case, sheet.sol, units, logical, sheet.date).draw(p)
+    p.restore()
+    y = rect.bottom() + 6 * _MM
+    y = caption(y, "Figure 2. Loads against level",
+                "Downward load on the floor and on the supports, the liquid weight and each "
+                "part's load as the free surface rises from empty; the current level is "
+                "marked.")
+    rect = QRectF(body.left(), y, body.width(), body.bottom() - y)
+    p.setPen(QPen(QColor(RULE), 0.2 * _MM))
+    p.setBrush(Qt.BrushStyle.NoBrush)
+    level = sheet.sol.level if sheet.level_given else None
+    paint_level_chart(p, rect.adjusted(0, 1 * _MM, 0, 0), sheet.case, level=level, units=units,
+                      font_px=7.5 / 72 * DPI)
+
+
+def report_pdf_bytes(case, *, level=None, units="si", date=None, progress=None):
+    """The calculation sheet of ``case`` as PDF bytes (see :func:`write_report`)."""
+    if level is not None:
+        level = float(level)
+        if not math.isfinite(level):
+            raise ReportError(f"level must be a finite number, not {level}")
+    du = display_units(units)
+    _ensure_app()
+    steps = 4
+
+    def tell(k, text):
+        if progress is not None:
+            progress(k, steps, text)
+
+    tell(0, "solving")
+    sheet = _Sheet(case, level, du.name, date)
+    data = QByteArray()
+    buffer = QBuffer(data)
+    buffer.open(QIODevice.OpenModeFlag.WriteOnly)
+    writer = QPdfWriter(buffer)
+    writer.setResolution(DPI)
+    geo, wide = _Pages(), _Pages(landscape=True)
+    writer.setPageLayout(geo.layout)
+    name = case.section.name.strip() or "Untitled section"
+    writer.setTitle(f"Hydrostatic loads: {name}")
+    writer.setCreator(_program())
+    tell(1, "laying out the text")
+    main = _document(sheet.main_html(), writer, geo.body)
+    edges = _document(sheet.edges_html(writer, wide.body), writer, wide.body)
+    n_main, n_edges = main.pageCount(), edges.pageCount()
+    total = n_main + 1 + n_edges
+    plan = ([("doc", main, k, geo) for k in range(n_main)] + [("figures", None, 0, geo)]
+            + [("doc", edges, k, wide) for k in range(n_edges)])
+    tell(2, f"painting {total} pages")
+    p = QPainter()
+    if not p.begin(writer):
+        raise ReportError("cannot start the PDF")
+    try:
+        p.setRenderHint(QPainter.RenderHint.Antialiasing, True)
+        current = geo
+        for number, (kind, doc, k, page) in enumerate(plan, start=1):
+            if number > 1:
+                if page is not current:
+                    writer.setPageLayout(page.layout)  # applies from the next page
+                    current = page
+                writer.newPage()
+            geo_ = page
+            _header(p, geo_.header, sheet, number, total)
+            if kind == "figures":
+                _figures(p, geo_.body, sheet, du.name)
+            else:
+                body = geo_.body
+                h = body.height()
+                p.save()
+                p.translate(body.left(), body.top() - k * h)
+                doc.drawContents(p, QRectF(0, k * h, body.width(), h))
+                p.restore()
+            _footer(p, geo_.footer, sheet, number, total)
+    finally:
+        p.end()
+    buffer.close()
+    tell(3, "writing")
+    return bytes(data.data())
+
+
+def write_report(case, path, *, level=None, units="si", date=None, progress=None):
+    """Write the calculation sheet of ``case`` to a PDF file, atomically.
+
+    Parameters
+    ----------
+    case : wetline.core.case.Case
+        The section, liquid, gravity, fill, uplift inputs and the header
+        fields (``case.report``).
+    path : str or os.PathLike
+        The PDF to write; replaced if it exists.
+    level : float, optional
+        Free-surface height [m] for this sheet instead of the case's fill.
+    units : str
+        ``"si"`` (m, kPa, kN) or ``"us"`` (ft, psi, lbf).
+    date : datetime.date or str, optional
+        Date in the header; default today (ISO 8601).
+    progress : callable, optional
+        Called as ``progress(step, steps, text)`` as the work goes on
+        (``step`` from 0 to ``steps - 1``), e.g. to move a progress bar.
+
+    Raises
+    ------
+    ReportError
+        For a bad level, or a path that cannot be written (missing folder,
+        a folder in the way, no permission, disk full); nothing is left
+        behind. A ValueError, like every input error.
+    core.units.UnitError
+        For an unknown unit system.
+    """
+    try:
+        check_target(path, "the PDF")
+        data = report_pdf_bytes(case, level=level, units=units, date=date, progress=progress)
+        write_atomically(path, data)
+    except WriteError as exc:
+        raise ReportError(str(exc)) from None

@@ -1,0 +1,102 @@
+"""Vector (SVG) export of the pressure diagram.
+
+The same drawing as :mod:`wetline.app.render.scene` (the scene is shared), painted
+through :class:`PySide6.QtSvg.QSvgGenerator` instead of onto an image, so
+lines, fills and text stay vectors: the outline and the pressure diagrams
+become ``<polyline>``/``<path>`` elements, every label a ``<text>`` element.
+(pyqtgraph's own SVG exporter fails on Qt >= 6.11, see STACK-NOTES.)
+
+The SVG's user units are the scene's pixels (``viewBox="0 0 W H"``); its
+physical size is stated at 96 px per inch, the CSS pixel, so a browser shows
+it at one user unit per screen pixel. The file is written atomically: the
+SVG is generated in memory, written to a temporary file in the same folder
+and renamed over the target.
+"""
+
+from __future__ import annotations
+
+import math
+
+from PySide6.QtCore import QBuffer, QByteArray, QIODevice, QRectF, QSize
+from PySide6.QtSvg import QSvgGenerator
+
+from wetline.app.render.scene import ExportError, _check_size, _ensure_app, _program, _Scene
+from wetline.core.atomic_write import WriteError, check_target, write_atomically
+from wetline.core.units import display_units
+
+__all__ = ["DEFAULT_SVG_SIZE", "SVG_DPI", "export_svg", "render_svg"]
+
+DEFAULT_SVG_SIZE = (1600, 1131)
+"""Default drawing size [user units = px]: the proportions of A4 landscape."""
+
+SVG_DPI = 96
+"""Pixels per inch stated for the SVG's physical size (the CSS pixel)."""
+
+
+def render_svg(case, *, level=None, units="si", size=DEFAULT_SVG_SIZE, date=None):
+    """The pressure diagram of ``case`` as SVG text.
+
+    Parameters
+    ----------
+    case : wetline.core.case.Case
+    level : float, optional
+        Free-surface height [m] instead of the case's fill.
+    units : str
+        ``"si"`` or ``"us"``.
+    size : (int, int)
+        Drawing width and height [px], as for :func:`wetline.app.render.scene.render_diagram`.
+    date : datetime.date or str, optional
+        Date in the title block; default today.
+
+    Returns
+    -------
+    bytes
+        The UTF-8 SVG document.
+
+    Raises
+    ------
+    ExportError
+        For a bad size or level.
+    """
+    w, h = _check_size(size)
+    du = display_units(units)
+    if level is not None:
+        level = float(level)
+        if not math.isfinite(level):
+            raise ExportError(f"level must be a finite number, not {level}")
+    _ensure_app()
+    solution = case.solve(level)
+    data = QByteArray()
+    buffer = QBuffer(data)
+    buffer.open(QIODevice.OpenModeFlag.WriteOnly)
+    gen = QSvgGenerator()
+    gen.setOutputDevice(buffer)
+    gen.setSize(QSize(w, h))
+    gen.setViewBox(QRectF(0, 0, w, h))
+    gen.setResolution(SVG_DPI)
+    name = case.section.name.strip() or "Untitled section"
+    gen.setTitle(f"{name}: pressure diagram")
+    gen.setDescription(f"Hydrostatic pressure diagram drawn by {_program()}")
+    _Scene(case, solution, du.name, (w, h), date).paint(gen)
+    buffer.close()
+    return bytes(data.data())
+
+
+def export_svg(case, path, *, level=None, units="si", size=DEFAULT_SVG_SIZE, date=None):
+    """Write the pressure diagram of ``case`` to an SVG file, atomically.
+
+    Parameters as :func:`render_svg`; ``path`` is the file to write.
+
+    Raises
+    ------
+    ExportError
+        For a bad size or level, or a path that cannot be written (missing
+        folder, a folder in the way, no permission, disk full). Nothing is
+        left behind on failure.
+    """
+    try:
+        check_target(path, "the SVG")
+        data = render_svg(case, level=level, units=units, size=size, date=date)
+        write_atomically(path, data)
+    except WriteError as exc:
+        raise ExportError(str(exc)) from None

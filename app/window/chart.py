@@ -1,0 +1,165 @@
+"""Loads against level: floor force, support reaction, liquid weight and
+each part's downward load from empty to the spill level (or above the roof
+of a closed section), with a cursor at the current level.
+
+The curves are redrawn only when a new level table arrives (geometry or
+liquid changed, or a dragged outline was previewed) or the units change; a
+slider step only moves the cursor. The cursor is also an input: dragging it
+(one undo step per drag, like the slider) or clicking in the chart sets the
+fill level.
+"""
+
+from __future__ import annotations
+
+import pyqtgraph as pg
+from PySide6.QtCore import Qt
+
+from wetline.app.model import editing
+from wetline.app.model.document import fill_range
+from wetline.app.window.canvas import part_colour
+from wetline.app.window.grid import LightGrid
+from wetline.core.section import FLOOR
+
+__all__ = ["LoadChart"]
+
+_FIXED = (("fluid_weight", "liquid weight", "#1d5fa6", Qt.DashLine),
+          ("floor_force", "floor force", "#7a5230", Qt.SolidLine),
+          ("support_reaction", "support reaction", "#222222", Qt.SolidLine))
+CURSOR_COLOUR = "#d04a02"
+
+
+class LoadChart(pg.PlotWidget):
+    """The loads-against-level chart of a document."""
+
+    def __init__(self, document, parent=None):
+        super().__init__(parent, background="w")
+        self._doc = document
+        plot = self.getPlotItem()
+        self._grid = LightGrid(plot.getViewBox())
+        plot.setMenuEnabled(False)
+        plot.hideButtons()
+        self._legend = plot.addLegend(offset=(8, 8), labelTextSize="8pt")
+        self._curves = []
+        self._series_key = None
+        self.cursor = pg.InfiniteLine(angle=90, movable=True,
+                                      pen=pg.mkPen(CURSOR_COLOUR, width=1.5),
+                                      hoverPen=pg.mkPen(CURSOR_COLOUR, width=3))
+        self.cursor.setCursor(Qt.SizeHorCursor)
+        self.cursor.setToolTip("Drag to set the fill level (or click in the chart)")
+        self.cursor_label = pg.TextItem(color=CURSOR_COLOUR, anchor=(0, 0))
+        plot.addItem(self.cursor, ignoreBounds=True)
+        plot.addItem(self.cursor_label, ignoreBounds=True)
+        self._zero = pg.InfiniteLine(angle=0, movable=False, pos=0,
+                                     pen=pg.mkPen("#888888", width=1))
+        plot.addItem(self._zero, ignoreBounds=True)
+        self._drags = 0
+        self._dragging = False
+        self.cursor.sigDragged.connect(self._on_cursorDragged)
+        self.cursor.sigPositionChangeFinished.connect(self._on_cursorReleased)
+        self.scene().sigMouseClicked.connect(self._on_mouseClicked)
+        plot.getViewBox().sigRangeChanged.connect(self._place_cursor_label)
+        document.levelTableReady.connect(self._on_levelTableReady)
+        document.solved.connect(self._on_solved)
+        document.unitsChanged.connect(self._on_unitsChanged)
+
+    @property
+    def cursor_level(self):
+        """Level [m] where the cursor stands."""
+        return self._doc.units.length_si(self.cursor.value())
+
+    # ------------------------------------------------------- document
+    def _on_unitsChanged(self):
+        if self._doc.level_table is not None:
+            self._on_levelTableReady(self._doc.level_table)
+        if self._doc.solution is not None:
+            self._on_solved(self._doc.solution)
+
+    def _on_levelTableReady(self, table):
+        plot = self.getPlotItem()
+        section = self._doc.shown_case.section
+        u = self._doc.units
+        x = u.length(table.levels)
+        series = [(getattr(table, key), name, colour, style) for key, name, colour, style
+                  in _FIXED]
+        names = tuple(n for n in table.part_down if n != FLOOR)  # floor = floor force
+        for name in names:
+            series.append((table.part_down[name], f"{name} (down)",
+                           part_colour(name, section.part_names), Qt.DotLine))
+        key = tuple((name, colour) for _, name, colour, _ in series)
+        if key != self._series_key:
+            # Other parts: new curves and legend. Otherwise (a slider, a
+            # dragged vertex) the same curves take the new values.
+            for c in self._curves:
+                self._legend.removeItem(c)
+                plot.removeItem(c)
+            self._curves = [plot.plot(name=name, pen=pg.mkPen(colour, width=2, style=style))
+                            for _, name, colour, style in series]
+            self._series_key = key
+        ys = [u.force(section, y) for y, *_rest in series]
+        vb = plot.getViewBox()
+        if self._doc.preview is not None and self._inside_view(vb, x, ys):
+            # A drag step whose curves fit the view: keep the axes (fitting
+            # them again every step relabels and repaints both axes).
+            vb.disableAutoRange()
+        else:
+            vb.enableAutoRange()
+        for curve, y in zip(self._curves, ys, strict=True):
+            curve.setData(x, y)
+        labels = (f"Level [{u.length_unit}]", f"Load [{u.force_label(section)}]")
+        if labels != getattr(self, "_axis_labels", None):  # a new label repaints the axis
+            self._axis_labels = labels
+            plot.setLabel("bottom", labels[0])
+            plot.setLabel("left", labels[1])
+
+    @staticmethod
+    def _inside_view(vb, x, ys):
+        (x0, x1), (y0, y1) = vb.viewRange()
+        lo = min(float(y.min()) for y in ys)
+        hi = max(float(y.max()) for y in ys)
+        return x0 <= float(x.min()) and float(x.max()) <= x1 and y0 <= lo and hi <= y1
+
+    def _on_solved(self, solution):
+        u = self._doc.units
+        x = float(u.length(solution.level))
+        self.cursor.setValue(x)
+        self.cursor_label.setText(f"{u.fmt_length(solution.level)}")
+        self._place_cursor_label()
+
+    def _place_cursor_label(self, *_):
+        """The level's value at the top of the chart, beside the cursor."""
+        top = self.getPlotItem().getViewBox().viewRange()[1][1]
+        self.cursor_label.setPos(self.cursor.value(), top)
+
+    # ----------------------------------------------------------- user
+    def _level_range(self):
+        return fill_range(self._doc.section)
+
+    def set_level_at(self, value, merge_key=None):
+        """Fill to the level ``value`` on the chart's axis (display length
+        unit), kept within the slider's range."""
+        lo, hi = self._level_range()
+        level = min(max(self._doc.units.length_si(float(value)), lo), hi)
+        editing.fill_to_level(self._doc, level, merge_key)
+
+    def _on_cursorDragged(self, line):
+        if not self._dragging:
+            self._dragging = True
+            self._drags += 1
+        self.set_level_at(line.value(), ("chart cursor", self._drags))
+
+    def _on_cursorReleased(self, line):
+        if self._dragging:
+            self._dragging = False
+            self.set_level_at(line.value(), ("chart cursor", self._drags))
+
+    def _on_mouseClicked(self, ev):
+        if ev.button() != Qt.LeftButton or ev.isAccepted():
+            return
+        vb = self.getPlotItem().getViewBox()
+        pos = ev.scenePos()
+        if not vb.sceneBoundingRect().contains(pos):
+            return
+        if self._legend.isVisible() and self._legend.sceneBoundingRect().contains(pos):
+            return
+        ev.accept()
+        self.set_level_at(vb.mapSceneToView(pos).x())

@@ -1,0 +1,134 @@
+"""Every modal dialog of the program, each behind one small function, so
+tests can replace them (``monkeypatch.setattr(dialogs, "show_error", ...)``)
+and nothing ever blocks an automated run."""
+
+from __future__ import annotations
+
+from PySide6.QtCore import Qt
+from PySide6.QtWidgets import QFileDialog, QMessageBox, QProgressDialog
+
+__all__ = ["show_error", "ask_save_changes", "ask_open_path", "ask_save_path",
+           "ask_export_path", "ask_template", "show_about", "show_warning",
+           "ask_export_file", "ask_import_file", "ask_dxf_outline", "ask_report_info",
+           "make_progress"]
+
+SECTION_FILTER = "Section files (*.section.json);;JSON files (*.json);;All files (*)"
+
+
+def show_error(parent, title, text):
+    """Tell the user what went wrong (one OK button)."""
+    QMessageBox.warning(parent, title, text)
+
+
+def ask_save_changes(parent, name):
+    """"save", "discard" or "cancel" for a document with unsaved changes."""
+    box = QMessageBox(QMessageBox.Warning, "Unsaved changes",
+                      f"Save the changes to {name}?",
+                      QMessageBox.Save | QMessageBox.Discard | QMessageBox.Cancel, parent)
+    box.setDefaultButton(QMessageBox.Save)
+    answer = box.exec()
+    return {QMessageBox.Save: "save", QMessageBox.Discard: "discard"}.get(
+        QMessageBox.StandardButton(answer), "cancel")
+
+
+def ask_open_path(parent, folder=""):
+    path, _ = QFileDialog.getOpenFileName(parent, "Open section", folder, SECTION_FILTER)
+    return path or None
+
+
+def ask_save_path(parent, suggested=""):
+    path, _ = QFileDialog.getSaveFileName(parent, "Save section as", suggested, SECTION_FILTER)
+    if path and not path.endswith(".json"):
+        path += ".section.json"
+    return path or None
+
+
+def ask_export_path(parent, suggested=""):
+    path, _ = QFileDialog.getSaveFileName(parent, "Export pressure diagram", suggested,
+                                          "PNG images (*.png)")
+    if path and not path.lower().endswith(".png"):
+        path += ".png"
+    return path or None
+
+
+def ask_template(parent, units, kind=None):
+    """Ask for a template and its dimensions; (section, level) or None."""
+    from wetline.app.window.template_dialog import TemplateDialog
+
+    dlg = TemplateDialog(units, parent)
+    if dlg.exec():
+        return dlg.result_section, dlg.result_level
+    return None
+
+
+def show_about(parent, text):
+    QMessageBox.about(parent, "About Wetline", text)
+
+
+def show_warning(parent, title, text):
+    """Tell the user something was assumed (a drawing without units ...)."""
+    QMessageBox.information(parent, title, text)
+
+
+def ask_export_file(parent, title, suggested, file_filter, extension):
+    """A path to write an export to, ending in ``extension`` (".pdf"), or None."""
+    path, _ = QFileDialog.getSaveFileName(parent, title, suggested, file_filter)
+    if path and not path.lower().endswith(extension):
+        path += extension
+    return path or None
+
+
+def ask_import_file(parent, title, folder, file_filter):
+    """A file to import from, or None."""
+    path, _ = QFileDialog.getOpenFileName(parent, title, folder, file_filter)
+    return path or None
+
+
+def ask_dxf_outline(parent, source, lines):
+    """Which of several closed polylines of drawing ``source`` to import:
+    its index in ``lines`` (one ``describe()`` line each), or None."""
+    from PySide6.QtWidgets import QInputDialog
+
+    item, ok = QInputDialog.getItem(
+        parent, "Choose the outline",
+        f"{source} has {len(lines)} closed polylines. Import which one?", list(lines), 0,
+        False)
+    if not ok:
+        return None
+    return list(lines).index(item)
+
+
+def ask_dxf_unit(parent, source, default="mm"):
+    """The unit a drawing that states none is drawn in, or None (cancel)."""
+    from PySide6.QtWidgets import QInputDialog
+
+    units = ["mm", "cm", "m", "in", "ft"]
+    choice, ok = QInputDialog.getItem(
+        parent, "Drawing units",
+        f"{source} does not say which unit it is drawn in.\nRead its coordinates in:",
+        units, units.index(default), False)
+    return choice if ok else None
+
+
+def ask_report_info(parent, report):
+    """Edit the calculation sheet header; the new ReportInfo or None."""
+    from wetline.app.window.report_info_dialog import ReportInfoDialog
+
+    dlg = ReportInfoDialog(report, parent)
+    if dlg.exec():
+        return dlg.result_report()
+    return None
+
+
+def make_progress(parent, title, text, steps):
+    """A window-modal progress dialog shown at once (it does not block; the
+    caller moves it and closes it)."""
+    dlg = QProgressDialog(text, "Cancel", 0, steps, parent)
+    dlg.setWindowTitle(title)
+    dlg.setWindowModality(Qt.WindowModal)
+    dlg.setMinimumDuration(0)
+    dlg.setAutoClose(False)
+    dlg.setAutoReset(False)
+    dlg.setValue(0)
+    dlg.show()
+    return dlg

@@ -1,0 +1,393 @@
+"""File > Export and File > Import of the desktop program.
+
+:class:`Transfer` holds what the menu actions do, so the main window only
+builds menus. Exports: the PDF calculation sheet (:mod:`wetline.app.render.sheet`,
+written in a worker thread with a progress dialog), the SVG diagram
+(:mod:`wetline.app.render.svg`), per-edge results and the loads-against-level table
+as CSV (:mod:`wetline.core.report_tables`, in the display units), and the outline as
+DXF (:func:`wetline.core.dxf_io.write_outline`, in the case's length unit). Imports:
+an outline from a DXF drawing (:mod:`wetline.core.dxf_io`) and a coordinate list from
+a CSV file or the clipboard (:mod:`wetline.core.coordinates`, read in the display
+length unit).
+
+Every path is asked for through :mod:`wetline.app.window.dialogs`, every failure is shown
+there too, and nothing that fails changes the document. An import replaces
+the outline as one undo step, keeping the liquid, the uplift inputs and,
+where it still makes sense, the fill.
+"""
+
+from __future__ import annotations
+
+from pathlib import Path
+
+from PySide6.QtCore import QObject, QThread, Signal
+from PySide6.QtWidgets import QApplication
+
+from wetline.app.model.commands import CaseCommand
+from wetline.app.model.document import fill_range
+from wetline.app.window import dialogs
+from wetline.core.atomic_write import write_atomically
+from wetline.core.coordinates import CoordinateError, format_coordinates, parse_coordinates
+from wetline.core.report_tables import edges_table, level_load_table, to_csv
+from wetline.core.section import SectionError
+
+__all__ = ["Transfer", "PdfJob", "LEVEL_CSV_STEPS"]
+
+LEVEL_CSV_STEPS = 51
+"""Levels in the exported loads-against-level table (as ``wetline table --csv``)."""
+
+DEFAULT_PART = "wall"
+
+
+class _Cancelled(Exception):
+    pass
+
+
+class PdfJob(QThread):
+    """Write the calculation sheet of an (immutable) case in a worker thread.
+
+    Signals
+    -------
+    progressed(step, steps, text)
+        From :func:`wetline.app.render.sheet.write_report`'s progress callback.
+    done(status, text)
+        ``("ok", path)``, ``("failed", message)`` or ``("cancelled", "")``.
+    """
+
+    progressed = Signal(int, int, str)
+    done = Signal(str, str)
+
+    def __init__(self, case, path, units, parent=None):
+        super().__init__(parent)
+        self.case = case
+        self.path = str(path)
+        self.units = units
+        self._cancel = False
+        self.status = None
+
+    def cancel(self):
+        """Stop at the next step; nothing is written."""
+        self._cancel = True
+
+    def _progress(self, step, steps, text):
+        if self._cancel:
+            raise _Cancelled()
+        self.progressed.emit(step, steps, text)
+
+    def run(self):
+        from wetline.app.render.sheet import write_report
+
+        try:
+            write_report(self.case, self.path, units=self.units, progress=self._progress)
+            self.status = ("ok", self.path)
+        except _Cancelled:
+            self.status = ("cancelled", "")
+        except Exception as exc:  # shown to the user, never a crash
+            self.status = ("failed", str(exc) or type(exc).__name__)
+        self.done.emit(*self.status)
+
+
+def _base_name(doc):
+    if doc.path:
+        return Path(doc.path).name.split(".")[0]
+    return (doc.section.name.strip() or "section").replace("/", "-")
+
+
+def _refilled(case):
+    """The case with its fill kept if the section can still take it, else
+    filled to the section's top level."""
+    if case.fill_level is not None:
+        lo, hi = fill_range(case.section)
+        if not lo <= case.fill_level <= hi:
+            return case.with_level(case.section.top_level)
+    return case
+
+
+class Transfer(QObject):
+    """The export and import actions of one main window.
+
+    Parameters
+    ----------
+    window : wetline.app.window.main_window.MainWindow
+        Parent of the dialogs; its ``doc`` is read and edited, its status bar
+        told what happened, its canvas fitted to an imported outline.
+    """
+
+    pdfStarted = Signal(object)
+    """A :class:`PdfJob` started (tests wait on its ``done``)."""
+
+    def __init__(self, window):
+        super().__init__(window)
+        self._window = window
+        self.doc = window.doc
+        self.pdf_job = None
+        self.progress = None
+        self.pdf_result = None
+        """(status, text) of the last sheet once handled: ("ok", path) ..."""
+        self._updating = 0
+        self._pending_done = None
+
+    # ----------------------------------------------------------- helpers
+    def _status(self, text):
+        self._window.statusBar().showMessage(text, 8000)
+
+    def _folder(self):
+        return str(Path(self.doc.path).parent) if self.doc.path else ""
+
+    def _ask(self, title, extension, file_filter):
+        suggested = str(Path(self._folder()) / f"{_base_name(self.doc)}{extension}") \
+            if self._folder() else f"{_base_name(self.doc)}{extension}"
+        return dialogs.ask_export_file(self._window, title, suggested, file_filter, extension)
+
+    def _error(self, title, exc):
+        dialogs.show_error(self._window, title, str(exc) or type(exc).__name__)
+        return False
+
+    # ------------------------------------------------------------ exports
+    def export_pdf(self):
+        path = self._ask("Export calculation sheet", ".pdf", "PDF files (*.pdf)")
+        return self.export_pdf_to(path) if path else None
+
+    def export_pdf_to(self, path):
+        """Start writing the sheet to ``path``; returns the :class:`PdfJob`
+        (None if one is still running)."""
+        if self.pdf_job is not None and self.pdf_job.isRunning():
+            self._status("A calculation sheet is still being written")
+            return None
+        self.doc.flush()
+        job = PdfJob(self.doc.case, path, self.doc.units.system, self)
+        self.progress = dialogs.make_progress(self._window, "Calculation sheet",
+                                              f"Writing {Path(path).name} ...", 4)
+        self.progress.canceled.connect(self._on_progress_canceled)
+        job.progressed.connect(self._on_pdf_progressed)
+        job.done.connect(self._on_pdf_done)
+        self.pdf_job = job
+        self.pdf_result = None
+        job.start()
+        self.pdfStarted.emit(job)
+        return job
+
+    def _on_progress_canceled(self):
+        if self.pdf_job is not None and self.pdf_job.isRunning():
+            self.pdf_job.cancel()
+            if self.progress is not None:
+                self.progress.setLabelText("Cancelling ...")
+
+    def _on_pdf_progressed(self, step, steps, text):
+        dlg = self.progress
+        if dlg is None:
+            return
+        dlg.setLabelText(f"Writing the calculation sheet: {text} ...")
+        dlg.setMaximum(steps)
+        # setValue on a modal progress dialog processes events, which may
+        # deliver the end of the job right here: that is handled (and the
+        # dialog deleted) only once setValue has returned.
+        self._updating += 1  # a count: progress may arrive inside setValue too
+        try:
+            dlg.setValue(step)
+        finally:
+            self._updating -= 1
+        if not self._updating and self._pending_done is not None:
+            pending, self._pending_done = self._pending_done, None
+            self._on_pdf_done(*pending)
+
+    def _close_progress(self):
+        dlg, self.progress = self.progress, None
+        if dlg is not None:
+            dlg.canceled.disconnect(self._on_progress_canceled)
+            dlg.close()
+            dlg.deleteLater()
+
+    def _on_pdf_done(self, status, text):
+        if self._updating:
+            self._pending_done = (status, text)
+            return
+        if self.pdf_job is not None:
+            self.pdf_job.wait()  # run() returns right after emitting
+        self._close_progress()
+        self.pdf_result = (status, text)
+        if status == "ok":
+            self._status(f"Wrote the calculation sheet {text}")
+        elif status == "cancelled":
+            self._status("Calculation sheet cancelled; nothing written")
+        else:
+            dialogs.show_error(self._window, "Cannot write the calculation sheet", text)
+
+    def shutdown(self):
+        """Stop a running sheet (the window closes)."""
+        job = self.pdf_job
+        if job is not None and job.isRunning():
+            job.cancel()
+            job.wait()
+        self._close_progress()
+
+    def export_svg(self):
+        path = self._ask("Export diagram as SVG", ".svg", "SVG drawings (*.svg)")
+        return self.export_svg_to(path) if path else False
+
+    def export_svg_to(self, path):
+        from wetline.app.render.svg import export_svg
+
+        try:
+            export_svg(self.doc.case, path, units=self.doc.units.system)
+        except Exception as exc:
+            return self._error("Cannot export the SVG", exc)
+        self._status(f"Exported {path}")
+        return True
+
+    def export_edges_csv(self):
+        path = self._ask("Export per-edge results (CSV)", ".csv", "CSV files (*.csv)")
+        return self.export_edges_csv_to(path) if path else False
+
+    def export_edges_csv_to(self, path):
+        try:
+            self.doc.flush()
+            text = to_csv(edges_table(self.doc.solution, self.doc.units.units))
+            write_atomically(path, text)
+        except Exception as exc:
+            return self._error("Cannot export the CSV", exc)
+        self._status(f"Exported per-edge results to {path}")
+        return True
+
+    def export_level_csv(self):
+        path = self._ask("Export loads against level (CSV)", ".csv", "CSV files (*.csv)")
+        return self.export_level_csv_to(path) if path else False
+
+    def export_level_csv_to(self, path, steps=LEVEL_CSV_STEPS):
+        try:
+            text = to_csv(level_load_table(self.doc.case, self.doc.units.units, steps))
+            write_atomically(path, text)
+        except Exception as exc:
+            return self._error("Cannot export the CSV", exc)
+        self._status(f"Exported loads against level to {path}")
+        return True
+
+    def export_dxf(self):
+        path = self._ask("Export outline as DXF", ".dxf", "DXF drawings (*.dxf)")
+        return self.export_dxf_to(path) if path else False
+
+    def export_dxf_to(self, path):
+        from wetline.core.dxf_io import write_outline
+
+        case = self.doc.case
+        try:
+            write_outline(case.section, path, unit=case.length_unit)
+        except Exception as exc:
+            return self._error("Cannot export the DXF", exc)
+        self._status(f"Exported the outline to {path} (in {case.length_unit})")
+        return True
+
+    # ------------------------------------------------------------ imports
+    def _replace_section(self, section, text):
+        case = _refilled(self.doc.case.with_section(section))
+        self.doc.undo_stack.push(CaseCommand(self.doc, case, text))
+        fit = getattr(self._window, "canvas", None)
+        if fit is not None:
+            fit.fit()
+
+    def import_dxf(self):
+        path = dialogs.ask_import_file(self._window, "Import outline from DXF", self._folder(),
+                                       "DXF drawings (*.dxf);;All files (*)")
+        return self.import_dxf_from(path) if path else False
+
+    def import_dxf_from(self, path):
+        """Replace the outline by a closed polyline of the drawing at
+        ``path``; asks which one when there are several. One undo step."""
+        from wetline.core.dxf_io import list_outlines
+
+        name = Path(path).name
+        try:
+            outlines = list_outlines(path)
+            if outlines[0].unit_assumed:  # the drawing states no units: ask
+                unit = dialogs.ask_dxf_unit(self._window, name)
+                if unit is None:
+                    return False
+                outlines = list_outlines(path, unit=unit)
+        except Exception as exc:  # DxfError, or a reader fault: keep the work
+            return self._error("Cannot import the drawing", exc)
+        outline = outlines[0]
+        if len(outlines) > 1:
+            k = dialogs.ask_dxf_outline(self._window, name, [o.describe() for o in outlines])
+            if k is None:
+                return False
+            outline = outlines[k]
+        current = self.doc.section
+        kwargs = {"kind": current.kind, "name": Path(path).stem}
+        if current.kind == "plane":
+            kwargs["width"] = current.width
+        try:
+            section = outline.to_section(**kwargs)
+        except Exception as exc:
+            return self._error("Cannot import the drawing", f"{name}: {exc}")
+        self._replace_section(section, f"Import outline from {name} (#{outline.index}, "
+                                       f"{outline.n_vertices} vertices)")
+        if outline.warnings:
+            dialogs.show_warning(self._window, "Imported with assumptions",
+                                 f"{name}:\n" + "\n".join(outline.warnings))
+        note = "" if outline.parts else "; every edge is a wall: mark the floor, lid and open edges"
+        self._status(f"Imported {outline.describe()} from {name}{note}")
+        return True
+
+    def import_coordinates(self):
+        path = dialogs.ask_import_file(self._window, "Import coordinate list", self._folder(),
+                                       "Coordinate lists (*.csv *.txt *.tsv);;All files (*)")
+        return self.import_coordinates_from(path) if path else False
+
+    def import_coordinates_from(self, path):
+        try:
+            text = Path(path).read_text(encoding="utf-8-sig")
+        except UnicodeDecodeError:
+            return self._error("Cannot read the coordinates",
+                               f"{Path(path).name} is not a UTF-8 text file")
+        except OSError as exc:
+            return self._error("Cannot read the coordinates",
+                               f"{path}: {exc.strerror or exc}")
+        return self.paste_coordinates_text(text, source=Path(path).name)
+
+    def paste_coordinates(self):
+        """Edit > Paste coordinates: the clipboard's text as the outline."""
+        text = QApplication.clipboard().text()
+        if not text.strip():
+            dialogs.show_error(self._window, "Paste coordinates",
+                               "The clipboard holds no text. Copy the x and z columns of a "
+                               "spreadsheet (and an optional part column) first.")
+            return False
+        return self.paste_coordinates_text(text)
+
+    def paste_coordinates_text(self, text, source="the clipboard"):
+        """Replace the outline by a coordinate list (display length unit).
+        Parts: from a third column if there is one, else the current parts
+        when the vertex count is unchanged, else all walls. One undo step;
+        bad input shows the line at fault and changes nothing."""
+        doc = self.doc
+        unit = doc.units.length_unit
+        try:
+            outline, parts = parse_coordinates(text, unit=unit)
+        except CoordinateError as exc:
+            return self._error("Cannot read the coordinates", f"{source}: {exc}")
+        n = len(outline)
+        current = doc.working_outline()[1]
+        note = ""
+        if parts is None:
+            if len(current) == n:
+                parts = tuple(current)
+                note = "; parts kept"
+            else:
+                parts = (DEFAULT_PART,) * n
+                note = "; every edge is a wall: mark the floor, lid and open edges"
+        try:
+            section = doc.section.replace(outline=outline, parts=parts)
+        except SectionError as exc:
+            return self._error("The coordinates are not a valid outline", f"{source}: {exc}")
+        self._replace_section(section, f"Paste {n} vertices" if source == "the clipboard"
+                              else f"Import {n} vertices from {source}")
+        self._status(f"Read {n} vertices in {unit} from {source}{note}")
+        return True
+
+    def copy_coordinates(self):
+        """Edit > Copy coordinates: the outline as tab-separated text."""
+        outline, parts = self.doc.working_outline()
+        unit = self.doc.units.length_unit
+        QApplication.clipboard().setText(format_coordinates(outline, parts, unit))
+        self._status(f"Copied {len(outline)} vertices in {unit}")
+        return True

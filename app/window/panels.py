@@ -1,0 +1,434 @@
+"""Side panels: the liquid, the fill, and the totals.
+
+Each panel takes the document in ``__init__``, connects there, turns the
+user's input into an edit (:mod:`wetline.app.model.editing`), and writes the document's
+values back with its widgets' signals blocked. Bad input (not a number, a
+negative density, more volume than the section holds) is shown in red
+under the field; the field keeps what was typed and nothing else changes.
+"""
+
+from __future__ import annotations
+
+import math
+
+from PySide6.QtCore import Qt
+from PySide6.QtWidgets import (
+    QComboBox,
+    QFormLayout,
+    QGroupBox,
+    QHBoxLayout,
+    QLabel,
+    QLineEdit,
+    QSlider,
+    QVBoxLayout,
+)
+
+from wetline.app.model import editing
+from wetline.app.model.display import format_number
+from wetline.app.model.document import fill_range
+from wetline.app.model.gravity import format_gravity, gravity_from_display, gravity_label
+from wetline.core.fill import FillError, capacity
+from wetline.core.liquids import (
+    LISTED_LIQUIDS,
+    LiquidError,
+    custom_liquid,
+    fresh_water,
+    liquid_from_specific_gravity,
+    seawater,
+)
+
+__all__ = ["LiquidPanel", "FillPanel", "TotalsPanel", "parse_number"]
+
+ERROR_STYLE = "color: #b00020;"
+NOTE_STYLE = "color: #8a5a00;"
+
+
+def parse_number(text, what):
+    """A finite float from typed text; ValueError with a plain message."""
+    t = text.strip().replace(",", ".") if text.count(",") == 1 and "." not in text else \
+        text.strip().replace(",", "")
+    try:
+        v = float(t)
+    except ValueError:
+        raise ValueError(f"{what}: '{text.strip()}' is not a number") from None
+    if not math.isfinite(v):
+        raise ValueError(f"{what} must be a finite number")
+    return v
+
+
+def _message_label():
+    label = QLabel()
+    label.setWordWrap(True)
+    label.setStyleSheet(ERROR_STYLE)
+    label.hide()
+    return label
+
+
+def _show(label, text, style=ERROR_STYLE):
+    if label.styleSheet() != style:  # a style sheet change is costly
+        label.setStyleSheet(style)
+    if label.text() != text:
+        label.setText(text)
+    if label.isHidden() == bool(text):
+        label.setVisible(bool(text))
+
+
+class LiquidPanel(QGroupBox):
+    """Choose the liquid (fresh water, seawater, listed, custom) and gravity
+    (in m/s2 or ft/s2, as the display system)."""
+
+    KINDS = ("Fresh water", "Seawater", "Listed liquid", "Custom density",
+             "Specific gravity")
+
+    def __init__(self, document, parent=None):
+        super().__init__("Liquid", parent)
+        self._doc = document
+        form = QFormLayout(self)
+        form.setFieldGrowthPolicy(QFormLayout.AllNonFixedFieldsGrow)
+        self.kind = QComboBox()
+        self.kind.addItems(self.KINDS)
+        self.temperature = QLineEdit()
+        self.salinity = QLineEdit()
+        self.listed = QComboBox()
+        for key in LISTED_LIQUIDS:
+            self.listed.addItem(key, key)
+        self.density = QLineEdit()
+        self.sg = QLineEdit()
+        self.gravity = QLineEdit()
+        self.summary = QLabel()
+        self.summary.setWordWrap(True)
+        self.summary.setStyleSheet("color: #445;")
+        self.error = _message_label()
+        form.addRow("Liquid", self.kind)
+        form.addRow("Temperature [C]", self.temperature)
+        form.addRow("Salinity [g/kg]", self.salinity)
+        form.addRow("Name", self.listed)
+        self._density_label = QLabel()
+        form.addRow(self._density_label, self.density)
+        form.addRow("Specific gravity", self.sg)
+        self._gravity_label = QLabel()
+        self._gravity_shown = None
+        form.addRow(self._gravity_label, self.gravity)
+        form.addRow(self.summary)
+        form.addRow(self.error)
+        self._form = form
+
+        self.kind.currentIndexChanged.connect(self._on_kind_changed)
+        self.listed.currentIndexChanged.connect(self._on_field_edited)
+        for edit in (self.temperature, self.salinity, self.density, self.sg):
+            edit.editingFinished.connect(self._on_field_edited)
+        self.gravity.editingFinished.connect(self._on_gravity_edited)
+        document.liquidChanged.connect(self._on_liquidChanged)
+        document.unitsChanged.connect(self._on_liquidChanged)
+        self._on_liquidChanged()
+
+    def _rows(self, kind):
+        vis = {"temperature": kind in (0, 1), "salinity": kind == 1, "listed": kind == 2,
+               "density": kind == 3, "sg": kind == 4}
+        for name, show in vis.items():
+            self._form.setRowVisible(getattr(self, name), show)
+
+    def _on_liquidChanged(self):
+        liquid = self._doc.case.liquid
+        units = self._doc.units
+        widgets = (self.kind, self.temperature, self.salinity, self.listed, self.density,
+                   self.sg, self.gravity)
+        for w in widgets:
+            w.blockSignals(True)
+        try:
+            if liquid.preset == "fresh water":
+                kind = 0
+            elif liquid.preset == "seawater":
+                kind = 1
+            elif liquid.preset in LISTED_LIQUIDS:
+                kind = 2
+                self.listed.setCurrentIndex(self.listed.findData(liquid.preset))
+            elif liquid.source.startswith("specific gravity"):
+                kind = 4
+            else:
+                kind = 3
+            self.kind.setCurrentIndex(kind)
+            self.temperature.setText(format_number(liquid.temperature, 4)
+                                     if liquid.temperature is not None else "20")
+            self.salinity.setText(format_number(liquid.salinity, 4)
+                                  if liquid.salinity is not None else "35")
+            self.density.setText(format_number(units.density(liquid.density), 6))
+            self.sg.setText(format_number(liquid.specific_gravity, 5))
+            g = self._doc.case.gravity
+            text = format_gravity(units, g)
+            self.gravity.setText(text)
+            self._gravity_shown = (text, g, units.system)
+            self._gravity_label.setText(f"Gravity [{gravity_label(units)}]")
+            self._density_label.setText(f"Density [{units.units.label('density')}]")
+            self._rows(kind)
+        finally:
+            for w in widgets:
+                w.blockSignals(False)
+        self.summary.setText(f"{liquid.name}: {units.fmt_density(liquid.density)} "
+                             f"(SG {liquid.specific_gravity:.4f})\n{liquid.source}")
+        _show(self.error, "")
+
+    def _on_kind_changed(self, kind):
+        self._rows(kind)
+        self._on_field_edited()
+
+    def liquid_from_fields(self):
+        """The liquid the fields describe; LiquidError / ValueError if bad."""
+        kind = self.kind.currentIndex()
+        if kind == 0:
+            return fresh_water(parse_number(self.temperature.text(), "Temperature"))
+        if kind == 1:
+            return seawater(parse_number(self.temperature.text(), "Temperature"),
+                            parse_number(self.salinity.text(), "Salinity"))
+        if kind == 2:
+            return LISTED_LIQUIDS[self.listed.currentData()]
+        if kind == 3:
+            value = parse_number(self.density.text(), "Density")
+            return custom_liquid(self._doc.units.density_si(value))
+        return liquid_from_specific_gravity(parse_number(self.sg.text(), "Specific gravity"))
+
+    def _on_field_edited(self):
+        try:
+            liquid = self.liquid_from_fields()
+        except (LiquidError, ValueError) as exc:
+            _show(self.error, str(exc))
+            return
+        _show(self.error, "")
+        editing.set_liquid(self._doc, liquid)
+
+    def _on_gravity_edited(self):
+        text = self.gravity.text().strip()
+        shown = self._gravity_shown
+        units = self._doc.units
+        if shown is not None and shown == (text, self._doc.case.gravity, units.system):
+            _show(self.error, "")  # the value shown, untouched: nothing to change
+            return
+        try:
+            value = gravity_from_display(units, parse_number(text, "Gravity"))
+            editing.set_gravity(self._doc, value)
+        except ValueError as exc:
+            _show(self.error, str(exc))
+            return
+        _show(self.error, "")
+
+
+class FillPanel(QGroupBox):
+    """The fill: a slider and a box, by level, volume or percent of capacity."""
+
+    STEPS = 1000
+    MODES = ("Level", "Volume", "% of capacity")
+
+    def __init__(self, document, parent=None):
+        super().__init__("Fill", parent)
+        self._doc = document
+        self._drag = 0
+        lay = QVBoxLayout(self)
+        row = QHBoxLayout()
+        self.mode = QComboBox()
+        self.mode.addItems(self.MODES)
+        self.value = QLineEdit()
+        self.unit = QLabel()
+        row.addWidget(self.mode)
+        row.addWidget(self.value, 1)
+        row.addWidget(self.unit)
+        lay.addLayout(row)
+        self.slider = QSlider(Qt.Horizontal)
+        self.slider.setRange(0, self.STEPS)
+        self.slider.setPageStep(self.STEPS // 20)
+        self.slider.setSingleStep(self.STEPS // 200)
+        self.slider.setToolTip("Drag to fill; PageUp / PageDown step the level")
+        lay.addWidget(self.slider)
+        self.range_label = QLabel()
+        self.range_label.setStyleSheet("color: #445;")
+        self.range_label.setWordWrap(True)
+        lay.addWidget(self.range_label)
+        self.note = _message_label()
+        lay.addWidget(self.note)
+        self.error = _message_label()
+        lay.addWidget(self.error)
+
+        self.mode.currentIndexChanged.connect(self._on_mode_changed)
+        self.value.editingFinished.connect(self._on_value_edited)
+        self.slider.sliderPressed.connect(self._on_slider_pressed)
+        self.slider.valueChanged.connect(self._on_slider_moved)
+        document.fillChanged.connect(self._on_fillChanged)
+        document.sectionChanged.connect(self._on_fillChanged)
+        document.unitsChanged.connect(self._on_fillChanged)
+        document.solved.connect(self._on_solved)
+        self._on_fillChanged()
+
+    # ------------------------------------------------------------ helpers
+    def _slider_fraction_of(self, solution_level=None, volume=None):
+        section = self._doc.section
+        if self.mode.currentIndex() == 0:
+            lo, hi = fill_range(section)
+            level = self._doc.case.level if solution_level is None else solution_level
+            return (level - lo) / (hi - lo) if hi > lo else 0.0
+        cap = capacity(section)
+        if volume is None:
+            sol = self._doc.solution
+            volume = self._doc.case.fill_volume if self._doc.case.fill_volume is not None \
+                else (sol.volume if sol is not None else 0.0)
+        return volume / cap if cap > 0 else 0.0
+
+    def _set_slider(self, fraction):
+        self.slider.blockSignals(True)
+        self.slider.setValue(int(round(min(max(fraction, 0.0), 1.0) * self.STEPS)))
+        self.slider.blockSignals(False)
+
+    def _write_back(self):
+        doc = self._doc
+        units = doc.units
+        mode = self.mode.currentIndex()
+        sol = doc.solution
+        case = doc.case
+        self.value.blockSignals(True)
+        if mode == 0:
+            self.unit.setText(units.length_unit)
+            level = case.fill_level if case.fill_level is not None else (
+                sol.level if sol is not None else case.level)
+            self.value.setText(format_number(units.length(level), 5))
+            self._set_slider(self._slider_fraction_of(level))
+        else:
+            vol = case.fill_volume if case.fill_volume is not None else (
+                sol.volume if sol is not None else None)
+            if vol is None:
+                self.value.setText("")
+            elif mode == 1:
+                self.value.setText(format_number(units.volume(vol), 5))
+            else:
+                cap = capacity(doc.section)
+                self.value.setText(format_number(100 * vol / cap if cap else 0.0, 4))
+            self.unit.setText(units.units.label("volume") if mode == 1 else "%")
+            if vol is not None:
+                self._set_slider(self._slider_fraction_of(volume=vol))
+        self.value.blockSignals(False)
+        section = doc.section
+        if section.is_open:
+            text = f"Spill level {units.fmt_length(section.spill_level)}; " \
+                   f"capacity {units.fmt_volume(capacity(section))}"
+        else:
+            text = (f"Closed section: top {units.fmt_length(section.z_max)}; a level above "
+                    f"it is a head above the roof. Capacity {units.fmt_volume(capacity(section))}")
+        self.range_label.setText(text)
+
+    # --------------------------------------------------------- document
+    def _on_fillChanged(self):
+        self._write_back()
+
+    def _on_solved(self, solution):
+        if self.mode.currentIndex() != 0 or self._doc.case.fill_level is None:
+            self._write_back()
+        notes = []
+        for w in solution.warnings:
+            if "capped" in w:
+                notes.append(f"Capped at the spill level "
+                             f"{self._doc.units.fmt_length(solution.level)}: the level asked "
+                             f"for ({self._doc.units.fmt_length(solution.requested_level)}) "
+                             "would spill.")
+            elif "standpipe" in w:
+                notes.append(f"Head above the roof: "
+                             f"{self._doc.units.fmt_length(solution.head_above_top)} "
+                             "(the roof is pushed up).")
+            elif "empty" in w:
+                notes.append("The section is empty at this level.")
+        _show(self.note, "\n".join(notes), NOTE_STYLE)
+
+    # -------------------------------------------------------------- user
+    def _on_mode_changed(self, _mode):
+        _show(self.error, "")
+        self._write_back()
+
+    def _on_slider_pressed(self):
+        self._drag += 1
+
+    def _on_slider_moved(self, value):
+        key = ("slider", self._drag) if self.slider.isSliderDown() else ("slider-step",)
+        self.apply_fraction(value / self.STEPS, key)
+
+    def apply_fraction(self, fraction, merge_key=None):
+        """Fill to ``fraction`` of the slider's range (as a slider move)."""
+        doc = self._doc
+        if self.mode.currentIndex() == 0:
+            lo, hi = fill_range(doc.section)
+            editing.fill_to_level(doc, lo + fraction * (hi - lo), merge_key)
+        else:
+            editing.fill_to_volume(doc, fraction * capacity(doc.section), merge_key)
+        _show(self.error, "")
+
+    def step(self, direction):
+        """Step the level up (+1) or down (-1) by a twentieth of the range;
+        consecutive steps merge into one undo step."""
+        fraction = self._slider_fraction_of()
+        self.apply_fraction(min(max(fraction + direction / 20.0, 0.0), 1.0), ("fill-step",))
+
+    def _on_value_edited(self):
+        doc = self._doc
+        mode = self.mode.currentIndex()
+        what = ("Level", "Volume", "Percentage")[mode]
+        try:
+            v = parse_number(self.value.text(), what)
+            if mode == 0:
+                editing.fill_to_level(doc, doc.units.length_si(v))
+            elif mode == 1:
+                editing.fill_to_volume(doc, doc.units.volume_si(v))
+            else:
+                editing.fill_to_percent(doc, v)
+        except (ValueError, FillError) as exc:
+            _show(self.error, str(exc))
+            return
+        _show(self.error, "")
+
+
+class TotalsPanel(QGroupBox):
+    """Volume, weight, floor force, support reaction, maximum pressure, spill level."""
+
+    ROWS = (("level", "Level"), ("volume", "Volume"), ("weight", "Liquid weight"),
+            ("floor", "Floor force"), ("support", "Support reaction"),
+            ("max_pressure", "Max. pressure"), ("spill", "Spill level"))
+
+    def __init__(self, document, parent=None):
+        super().__init__("Totals", parent)
+        self._doc = document
+        form = QFormLayout(self)
+        self.values = {}
+        for key, title in self.ROWS:
+            label = QLabel("-")
+            label.setTextInteractionFlags(Qt.TextSelectableByMouse)
+            label.setAlignment(Qt.AlignRight | Qt.AlignVCenter)
+            self.values[key] = label
+            form.addRow(title, label)
+        self.scope = QLabel()
+        self.scope.setStyleSheet("color: #445;")
+        self.scope.setWordWrap(True)
+        form.addRow(self.scope)
+        document.solved.connect(self._on_solved)
+        document.unitsChanged.connect(self._on_unitsChanged)
+
+    def _on_unitsChanged(self):
+        if self._doc.solution is not None:
+            self._on_solved(self._doc.solution)
+
+    def _on_solved(self, s):
+        u = self._doc.units
+        sec = s.section
+        v = self.values
+        v["level"].setText(u.fmt_length(s.level))
+        area = format_number(u.units.to_display(s.volume / sec.width, 'area'))
+        v["volume"].setText(f"{u.fmt_volume(s.volume)}"
+                            + ("" if sec.kind == "axisymmetric" else
+                               f" ({area} {u.units.label('area')} of section)"))
+        v["weight"].setText(u.fmt_force(sec, s.fluid_weight))
+        v["floor"].setText(u.fmt_force(sec, s.floor_force))
+        held = s.support_reaction < -1e-9 * max(s.fluid_weight, 1e-300)
+        v["support"].setText(u.fmt_force(sec, s.support_reaction)
+                             + ("  (held down)" if held else ""))
+        if held != getattr(self, "_held", None):  # a style sheet change is costly
+            self._held = held
+            v["support"].setStyleSheet("color: #8e24aa; font-weight: 600;" if held else "")
+        v["max_pressure"].setText(u.fmt_pressure(s.max_pressure))
+        v["spill"].setText(u.fmt_length(sec.spill_level) if sec.spill_level is not None
+                           else "none (closed)")
+        self.scope.setText(f"Forces {u.force_scope(sec)}. Support reaction: what the "
+                           "supports carry downward; negative means held down.")
+

@@ -1,0 +1,106 @@
+"""New section from a template: pick a shape, type its dimensions in the
+display length unit, and (plane sections) the width."""
+
+from __future__ import annotations
+
+from PySide6.QtWidgets import (
+    QComboBox,
+    QDialog,
+    QDialogButtonBox,
+    QFormLayout,
+    QLabel,
+    QLineEdit,
+    QVBoxLayout,
+)
+
+from wetline.app.model.display import format_number
+from wetline.app.window.panels import ERROR_STYLE, parse_number
+from wetline.core.section import SectionError
+from wetline.core.templates import TEMPLATES
+
+__all__ = ["TemplateDialog", "build_from_fields"]
+
+
+def build_from_fields(template, texts, width_text, units, name=""):
+    """The section and first level from typed dimension texts (display
+    length unit). Raises ValueError / SectionError with a plain message."""
+    dims = {}
+    for d in template.dimensions:
+        dims[d.key] = units.length_si(parse_number(texts[d.key], d.label))
+    width = 1.0
+    if template.kind == "plane":
+        width = units.length_si(parse_number(width_text, "Width"))
+        if not width > 0:
+            raise ValueError("Width must be positive")
+    section = template.build(name=name or template.title, width=width, **dims)
+    return section, template.default_level(section)
+
+
+class TemplateDialog(QDialog):
+    """Choose a template and its dimensions."""
+
+    def __init__(self, units, parent=None):
+        super().__init__(parent)
+        self.setWindowTitle("New section from a template")
+        self._units = units
+        self.result_section = None
+        self.result_level = None
+        lay = QVBoxLayout(self)
+        self.choice = QComboBox()
+        for key, t in TEMPLATES.items():
+            self.choice.addItem(f"{t.title} ({t.kind})", key)
+        lay.addWidget(self.choice)
+        self.description = QLabel()
+        self.description.setWordWrap(True)
+        lay.addWidget(self.description)
+        self.form = QFormLayout()
+        lay.addLayout(self.form)
+        self.error = QLabel()
+        self.error.setStyleSheet(ERROR_STYLE)
+        self.error.setWordWrap(True)
+        lay.addWidget(self.error)
+        buttons = QDialogButtonBox(QDialogButtonBox.Ok | QDialogButtonBox.Cancel)
+        buttons.accepted.connect(self.accept)
+        buttons.rejected.connect(self.reject)
+        lay.addWidget(buttons)
+        self.fields = {}
+        self.width_field = None
+        self.name_field = None
+        self.choice.currentIndexChanged.connect(self._on_choice_changed)
+        self._on_choice_changed()
+
+    @property
+    def template(self):
+        return TEMPLATES[self.choice.currentData()]
+
+    def _on_choice_changed(self, *_):
+        while self.form.rowCount():
+            self.form.removeRow(0)
+        t = self.template
+        L = self._units.length_unit
+        self.description.setText(t.description)
+        self.fields = {}
+        self.name_field = QLineEdit(t.title)
+        self.form.addRow("Name", self.name_field)
+        for d in t.dimensions:
+            edit = QLineEdit(format_number(self._units.length(d.default), 6))
+            self.fields[d.key] = edit
+            self.form.addRow(f"{d.label} [{L}]", edit)
+        self.width_field = QLineEdit(format_number(self._units.length(1.0), 6))
+        if t.kind == "plane":
+            self.form.addRow(f"Width out of the drawing [{L}]", self.width_field)
+        self.error.setText("")
+
+    def select(self, key):
+        self.choice.setCurrentIndex(self.choice.findData(key))
+
+    def accept(self):
+        try:
+            texts = {k: e.text() for k, e in self.fields.items()}
+            self.result_section, self.result_level = build_from_fields(
+                self.template, texts, self.width_field.text(), self._units,
+                self.name_field.text().strip())
+        except (ValueError, SectionError) as exc:
+            self.error.setText(str(exc))
+            return
+        super().accept()

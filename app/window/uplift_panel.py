@@ -1,0 +1,367 @@
+"""The uplift check, live: what holds each part down, and whether it is enough.
+
+For every loaded part of the section the panel has two fields, the part's
+self-weight and any extra holding-down resistance (bolts, ballast), in
+display units: per metre of width for plane sections (kN/m, lbf/ft), totals
+for axisymmetric ones (kN, lbf); the document keeps them in N/m or N (see
+:mod:`wetline.core.uplift`). Below them: the required factor, with where its default
+comes from and the caution that the governing code sets it.
+
+The results come from :meth:`wetline.core.case.Case.uplift` each time the document
+is solved (a level, vertex or liquid change) and each time a resistance or
+the required factor changes: the factor achieved at the current level and at
+the worst level in the fill range, each with its verdict, OK or NOT OK.
+
+Every edit is one undo command (:class:`wetline.app.model.commands.ResistanceCommand`,
+:class:`wetline.app.model.commands.RequiredFactorCommand`); bad input is shown in red
+under the fields and changes nothing.
+"""
+
+from __future__ import annotations
+
+import html
+import math
+
+from PySide6.QtCore import Qt
+from PySide6.QtWidgets import (
+    QGridLayout,
+    QGroupBox,
+    QHBoxLayout,
+    QLabel,
+    QLineEdit,
+    QPushButton,
+    QVBoxLayout,
+    QWidget,
+)
+
+from wetline.app.model.commands import RequiredFactorCommand, ResistanceCommand, resistance_unit
+from wetline.app.window.panels import parse_number
+from wetline.core.case import CaseError
+from wetline.core.report_tables import fmt
+from wetline.core.uplift import (
+    DEFAULT_REQUIRED_FACTOR,
+    REQUIRED_FACTOR_SOURCE,
+    UPLIFT_CAUTION,
+    uplift_check,
+    worst_uplifts,
+)
+
+__all__ = ["UpliftPanel", "UpliftChecker", "OK_COLOUR", "NOT_OK_COLOUR"]
+
+OK_COLOUR = "#1b7a3a"
+NOT_OK_COLOUR = "#b00020"
+MUTED = "#6b7480"
+FIELDS = ("self_weight", "holding_down")
+
+
+def verdict_html(ok, factor, level_text=None):
+    """Rich text of one verdict: a coloured tag and below it the factor and,
+    optionally, the level it applies at."""
+    colour = OK_COLOUR if ok else NOT_OK_COLOUR
+    tag = (f'<span style="background-color:{colour}; color:white; font-weight:600;">'
+           f'&nbsp;{"OK" if ok else "NOT OK"}&nbsp;</span>')
+    value = "no uplift" if math.isinf(factor) else fmt(factor, 3)
+    text = f"{tag}<br>{value}"
+    if level_text:
+        text += f' <span style="color:{MUTED};">at {html.escape(level_text)}</span>'
+    return text
+
+
+class UpliftChecker:
+    """:func:`wetline.core.uplift.uplift_check`, keeping each part's worst level.
+
+    The worst level depends on the outline and the liquid, not on the
+    current level (:func:`wetline.core.uplift.worst_uplifts`): a slider drag then
+    costs one look-up per part instead of a search over the range, which on
+    a part of hundreds of edges takes milliseconds.
+    """
+
+    def __init__(self):
+        self._key = None
+        self._worst = {}
+
+    def check(self, case, solution):
+        """The same list of :class:`wetline.core.uplift.UpliftResult` as
+        ``case.uplift(solution)``."""
+        section = case.section
+        density, gravity = case.liquid.density, case.gravity
+        if (self._key is None or self._key[0] is not section
+                or self._key[1:] != (density, gravity)):
+            self._key = (section, density, gravity)
+            self._worst = {}
+        resistances = case.resistance_map
+        missing = [p for p in section.loaded_part_names
+                   if p in resistances and p not in self._worst]
+        if missing:
+            self._worst.update(worst_uplifts(section, missing, density, gravity))
+        return uplift_check(case, resistances, case.required_uplift_factor, solution,
+                            worst=self._worst)
+
+
+class _PartRow:
+    """The widgets of one part's row."""
+
+    def __init__(self, part):
+        self.part = part
+        self.name = QLabel(part)
+        self.edits = {}
+        for field in FIELDS:
+            edit = QLineEdit()
+            edit.setAlignment(Qt.AlignRight | Qt.AlignVCenter)
+            edit.setMinimumWidth(48)
+            edit.setMaximumWidth(84)
+            edit.setObjectName(f"{part}:{field}")
+            self.edits[field] = edit
+        self.now = QLabel()
+        self.worst = QLabel()
+        for label in (self.now, self.worst):
+            label.setTextFormat(Qt.RichText)
+            label.setTextInteractionFlags(Qt.TextSelectableByMouse)
+        self.shown = {}  # field -> text written into the edit
+
+
+class UpliftPanel(QGroupBox):
+    """Self-weight and holding-down of each part, the required factor, and
+    the factor achieved now and at the worst level, with verdicts."""
+
+    def __init__(self, document, parent=None):
+        super().__init__("Uplift check", parent)
+        self._doc = document
+        self._rows = {}
+        self._parts = None
+        self._checker = UpliftChecker()
+        self.results = []
+        lay = QVBoxLayout(self)
+        self._grid_host = QWidget()
+        self._grid = QGridLayout(self._grid_host)
+        self._grid.setContentsMargins(0, 0, 0, 0)
+        self._grid.setHorizontalSpacing(6)
+        lay.addWidget(self._grid_host)
+        self.details = QLabel()
+        self.details.setWordWrap(True)
+        self.details.setStyleSheet("color: #445;")
+        self.details.setTextInteractionFlags(Qt.TextSelectableByMouse)
+        lay.addWidget(self.details)
+
+        row = QHBoxLayout()
+        row.addWidget(QLabel("Required factor"))
+        self.factor = QLineEdit()
+        self.factor.setAlignment(Qt.AlignRight | Qt.AlignVCenter)
+        self.factor.setMaximumWidth(80)
+        self.factor.setToolTip("Required factor against uplift: (self-weight + holding-down)"
+                               " / upward load")
+        row.addWidget(self.factor)
+        self.default_button = QPushButton("Default")
+        self.default_button.setToolTip(REQUIRED_FACTOR_SOURCE)
+        row.addWidget(self.default_button)
+        row.addStretch(1)
+        lay.addLayout(row)
+        self.source = QLabel()
+        self.source.setWordWrap(True)
+        self.source.setStyleSheet(f"color: {MUTED};")
+        lay.addWidget(self.source)
+        self.caution = QLabel(UPLIFT_CAUTION)
+        self.caution.setWordWrap(True)
+        self.caution.setStyleSheet("color: #8a5a00;")
+        lay.addWidget(self.caution)
+        self.error = QLabel()
+        self.error.setWordWrap(True)
+        self.error.setStyleSheet("color: #b00020;")
+        self.error.hide()
+        lay.addWidget(self.error)
+
+        self.factor.editingFinished.connect(self._on_factor_edited)
+        self.default_button.clicked.connect(self._on_default_clicked)
+        document.sectionChanged.connect(self._on_sectionChanged)
+        document.unitsChanged.connect(self._on_unitsChanged)
+        document.upliftInputsChanged.connect(self._on_upliftInputsChanged)
+        document.solved.connect(self._on_solved)
+        self._on_sectionChanged()
+
+    # ----------------------------------------------------------- building
+    def _build_rows(self, parts):
+        grid = self._grid
+        while grid.count():
+            item = grid.takeAt(0)
+            if item.widget() is not None:
+                item.widget().deleteLater()
+        self._rows = {}
+        self._headers = [QLabel() for _ in range(5)]
+        for c, label in enumerate(self._headers):
+            label.setStyleSheet("font-weight: 600;")
+            grid.addWidget(label, 0, c)
+        for r, part in enumerate(parts, start=1):
+            row = _PartRow(part)
+            grid.addWidget(row.name, r, 0)
+            for c, field in enumerate(FIELDS, start=1):
+                edit = row.edits[field]
+                edit.editingFinished.connect(
+                    lambda p=part, f=field: self._on_resistance_edited(p, f))
+                grid.addWidget(edit, r, c)
+            grid.addWidget(row.now, r, 3)
+            grid.addWidget(row.worst, r, 4)
+            self._rows[part] = row
+        grid.setColumnStretch(4, 1)
+        self._parts = parts
+
+    def edit(self, part, field):
+        """The field of ``part`` (``"self_weight"`` or ``"holding_down"``)."""
+        return self._rows[part].edits[field]
+
+    def row_texts(self, part):
+        """(now, worst) result texts of ``part`` as plain text (tests, status)."""
+        row = self._rows[part]
+        return _plain(row.now.text()), _plain(row.worst.text())
+
+    # ------------------------------------------------------- document -> view
+    def _on_sectionChanged(self):
+        parts = self._doc.section.loaded_part_names
+        if parts != self._parts:
+            self._build_rows(parts)
+        self._write_back()
+
+    def _on_unitsChanged(self):
+        self._write_back()
+
+    def _on_upliftInputsChanged(self):
+        self._write_back()
+
+    def _write_back(self):
+        doc = self._doc
+        units = doc.units.units
+        q, label = resistance_unit(doc)
+        scope = "total" if doc.section.is_axisymmetric else "per m of width"
+        titles = ("Part", f"Self-weight\n[{label}]", f"Holding-down\n[{label}]",
+                  "Now", "Worst level")
+        for header, title in zip(self._headers, titles, strict=True):
+            header.setText(title)
+        self._headers[1].setToolTip(f"Weight of the part itself, {scope}")
+        self._headers[2].setToolTip(f"Extra resistance (bolts, ballast ...), {scope}")
+        res = doc.case.resistance_map
+        for part, row in self._rows.items():
+            r = res.get(part)
+            for field in FIELDS:
+                edit = row.edits[field]
+                value = 0.0 if r is None else getattr(r, field)
+                text = fmt(units.to_display(value, q))
+                row.shown[field] = text
+                edit.blockSignals(True)
+                edit.setText(text)
+                edit.blockSignals(False)
+        f = doc.case.required_uplift_factor
+        self.factor.blockSignals(True)
+        self.factor.setText(fmt(f))
+        self.factor.blockSignals(False)
+        self._factor_shown = self.factor.text()
+        if f == DEFAULT_REQUIRED_FACTOR:
+            self.source.setText(f"Required factor: {REQUIRED_FACTOR_SOURCE}.")
+        else:
+            self.source.setText(f"Required factor {fmt(f)} set for this case "
+                                f"({REQUIRED_FACTOR_SOURCE}).")
+        self.default_button.setEnabled(f != DEFAULT_REQUIRED_FACTOR)
+        self._show_error("")
+        self._update_results()
+
+    def _on_solved(self, _solution):
+        self._update_results()
+
+    def _update_results(self):
+        doc = self._doc
+        sol = doc.solution
+        case = doc.case
+        if sol is None:
+            return  # the first solve brings the results
+        if sol.section is not case.section:
+            # The results are of another outline (a drag being previewed, or
+            # a solve still pending): check that outline with these inputs.
+            try:
+                case = case.with_section(sol.section)
+            except ValueError:
+                return
+        self.results = self._checker.check(case, sol) if case.resistances else []
+        by_part = {r.part: r for r in self.results}
+        units = doc.units
+        force = units.force_label(case.section)
+        lines = []
+        for part, row in self._rows.items():
+            r = by_part.get(part)
+            if r is None:
+                load = sol.parts.get(part)
+                lifted = load is not None and load.down < 0
+                row.now.setText(f'<span style="color:{MUTED};">-</span>')
+                row.worst.setText("")
+                row.now.setToolTip("Enter a self-weight or holding-down resistance to check "
+                                   "this part" + (" (it is pushed up now)" if lifted else ""))
+                continue
+            level_now = units.fmt_length(sol.level)
+            level_worst = units.fmt_length(r.worst_level)
+            row.now.setText(verdict_html(r.ok_now, r.factor))
+            row.now.setToolTip(f"Factor at the current level {level_now}")
+            row.worst.setText(verdict_html(r.ok, r.worst_factor, level_worst))
+            row.worst.setToolTip("The level in the fill range with the greatest uplift")
+            lines.append(
+                f"{part}: resistance {units.fmt_force(case.section, r.resistance)}; uplift "
+                f"{units.fmt_force(case.section, r.uplift)} now, "
+                f"{units.fmt_force(case.section, r.worst_uplift)} at {level_worst} (worst); "
+                f"required {fmt(r.required_factor, 3)}")
+        if not lines:
+            lines.append("Enter a self-weight or holding-down resistance of a part to check "
+                         f"it against uplift. Forces {units.force_scope(case.section)} "
+                         f"({force}).")
+        self.details.setText("\n".join(lines))
+
+    # ------------------------------------------------------- view -> document
+    def _show_error(self, text):
+        self.error.setText(text)
+        self.error.setVisible(bool(text))
+
+    def _on_resistance_edited(self, part, field):
+        row = self._rows.get(part)
+        if row is None:
+            return
+        edit = row.edits[field]
+        if edit.text().strip() == row.shown.get(field):
+            return  # unchanged (focus passing through)
+        what = "Self-weight" if field == "self_weight" else "Holding-down"
+        doc = self._doc
+        q, _ = resistance_unit(doc)
+        try:
+            text = edit.text().strip() or "0"
+            value = doc.units.units.from_display(parse_number(text, f"{what} of {part}"), q)
+            if value < 0:
+                raise ValueError(f"{what} of {part} must be >= 0")
+            doc.undo_stack.push(ResistanceCommand(doc, part, field, value))
+        except ValueError as exc:
+            self._show_error(str(exc))
+            return
+        self._show_error("")
+
+    def _on_factor_edited(self):
+        if self.factor.text().strip() == self._factor_shown:
+            return
+        try:
+            value = parse_number(self.factor.text(), "Required factor")
+            if not value > 0:
+                raise ValueError("Required factor must be positive")
+            self.set_required_factor(value)
+        except (ValueError, CaseError) as exc:
+            self._show_error(str(exc))
+
+    def _on_default_clicked(self):
+        self.set_required_factor(DEFAULT_REQUIRED_FACTOR)
+
+    def set_required_factor(self, value):
+        """Push the command that sets the required factor (if it changes)."""
+        doc = self._doc
+        if value != doc.case.required_uplift_factor:
+            doc.undo_stack.push(RequiredFactorCommand(doc, value))
+        self._show_error("")
+
+
+def _plain(rich):
+    """Rich label text as plain text."""
+    from PySide6.QtGui import QTextDocument
+
+    d = QTextDocument()
+    d.setHtml(rich)
+    return " ".join(d.toPlainText().split())

@@ -1,0 +1,128 @@
+"""Live views during a vertex drag: the totals, the part and edge tables and
+the chart show the dragged outline's results at every step (the document's
+preview), the canvas marks an invalid outline, and the drag is one undo step."""
+
+import numpy as np
+import pytest
+from PySide6.QtCore import QEvent, QPointF, Qt
+from PySide6.QtGui import QMouseEvent
+from PySide6.QtWidgets import QApplication
+
+from wetline.app.model.display import format_number
+from wetline.core.fill import volume_below
+from wetline.core.level_table import level_table
+
+
+def _drag_to(w, index, x, z, settle):
+    w.canvas.handles.dragMoved.emit(index, x, z)
+    settle(w)
+
+
+def test_totals_tables_and_chart_show_the_dragged_outline(make_window, settle):
+    w = make_window()
+    doc, u = w.doc, w.doc.units
+    before = doc.case
+    x, z = before.section.outline[1]
+    h = w.canvas.handles
+    repaints = []  # the vertex table must be told to repaint at each step
+    w.vertices_table.model().dataChanged.connect(lambda *a: repaints.append(a))
+    h.dragStarted.emit(1)
+    for dx in (0.1, 0.25, 0.4):
+        repaints.clear()
+        _drag_to(w, 1, x + dx, z, settle)
+        dragged = before.section.replace(outline=np.array(doc.working_outline()[0]))
+        assert dragged.outline[1, 0] == pytest.approx(x + dx)
+        sol = doc.solution
+        assert sol.section == dragged  # the preview's solution, not the case's
+        # Totals: core's exact volume of the dragged section, as shown.
+        volume = volume_below(dragged, before.level)
+        assert sol.volume == volume
+        assert w.totals.values["volume"].text().startswith(u.fmt_volume(volume))
+        assert w.totals.values["weight"].text() == u.fmt_force(dragged, sol.fluid_weight)
+        assert w.totals.values["floor"].text() == u.fmt_force(dragged, sol.floor_force)
+        # Parts table: the floor row's downward load.
+        parts = w.parts_table.model()
+        row = [parts.index(r, 0).data() for r in range(parts.rowCount())].index("floor")
+        assert parts.index(row, 3).data() == format_number(
+            u.force(dragged, sol.parts["floor"].down))
+        # Edges table: the length of the stretched floor edge 0.
+        edges = w.edges_table.model()
+        assert edges.index(0, 1).data() == format_number(u.length(dragged.geometry.length[0]))
+        # Chart: the liquid weight curve is the dragged section's.
+        table = level_table(dragged, before.liquid.density, before.gravity,
+                            levels=doc.level_table.levels)
+        cx, cy = w.chart._curves[0].getData()
+        assert cx == pytest.approx(u.length(table.levels))
+        assert cy == pytest.approx(u.force(dragged, table.fluid_weight), rel=1e-12)
+        assert w.chart.cursor_level == pytest.approx(sol.level)
+        # Vertex table: the dragged vertex's x as the canvas shows it.
+        vertices = w.vertices_table.model()
+        assert vertices.index(1, 0).data() == format_number(u.length(x + dx), 6)
+        assert repaints
+    assert doc.undo_stack.count() == 0 and doc.case is before
+    h.dragFinished.emit(1, x + 0.4, z)
+    settle(w)
+    assert doc.undo_stack.count() == 1 and doc.preview is None
+    assert doc.solution.section is doc.section
+    assert doc.level_table.levels.size == 121  # the full table once released
+    assert w.totals.values["volume"].text().startswith(u.fmt_volume(doc.solution.volume))
+    w.actions_by_name["undo"].trigger()
+    settle(w)
+    assert doc.case is before
+    assert w.totals.values["volume"].text().startswith(
+        u.fmt_volume(before.solve().volume))
+
+
+def test_invalid_drag_step_keeps_last_valid_results_and_marks_fault(make_window, settle):
+    w = make_window()
+    doc = w.doc
+    before = doc.case
+    x, z = before.section.outline[1]
+    h = w.canvas.handles
+    h.dragStarted.emit(1)
+    _drag_to(w, 1, x + 0.3, z, settle)
+    valid_text = w.totals.values["volume"].text()
+    valid = doc.solution
+    _drag_to(w, 1, -1.0, 2.5, settle)  # crosses the far wall
+    assert doc.solution is valid
+    assert w.totals.values["volume"].text() == valid_text
+    assert w.canvas._fault_text.isVisible()
+    assert "crosses" in w.canvas._fault_text.toPlainText()
+    assert len(w.canvas._draft_curve.getData()[0]) == before.section.n_edges + 1
+    _drag_to(w, 1, x + 0.2, z, settle)  # valid again: fault gone, results follow
+    assert not w.canvas._fault_text.isVisible()
+    assert doc.solution.section.outline[1, 0] == pytest.approx(x + 0.2)
+    h.dragFinished.emit(1, x + 0.2, z)
+    settle(w)
+    assert doc.undo_stack.count() == 1 and doc.draft is None
+
+
+def test_real_mouse_drag_updates_totals_before_release(make_window, settle):
+    w = make_window()
+    c = w.canvas
+    vp = c.viewport()
+
+    def at(x, z):
+        return c.mapFromScene(c._vb.mapViewToScene(QPointF(x, z))).toPointF()
+
+    def send(kind, pos, button, buttons):
+        QApplication.sendEvent(vp, QMouseEvent(kind, pos, vp.mapToGlobal(pos), button,
+                                               buttons, Qt.NoModifier))
+
+    x, z = w.doc.section.outline[1]
+    start_text = w.totals.values["volume"].text()
+    p0, p1 = at(x, z), at(x + 0.5, z)
+    send(QEvent.MouseButtonPress, p0, Qt.LeftButton, Qt.LeftButton)
+    texts = []
+    for k in range(1, 6):
+        send(QEvent.MouseMove, QPointF(p0.x() + (p1.x() - p0.x()) * k / 5, p0.y()),
+             Qt.NoButton, Qt.LeftButton)
+        for _ in range(3):  # the coalescing timers fire in the event loop
+            QApplication.processEvents()
+        texts.append(w.totals.values["volume"].text())
+    assert w.doc.undo_stack.count() == 0
+    assert len(set(texts)) == 5 and start_text not in texts  # a new volume every step
+    send(QEvent.MouseButtonRelease, p1, Qt.LeftButton, Qt.NoButton)
+    settle(w)
+    assert w.doc.undo_stack.count() == 1
+    assert w.totals.values["volume"].text() == texts[-1]

@@ -1,0 +1,254 @@
+"""The uplift check panel and the calculation sheet header, from the GUI."""
+
+import json
+
+import numpy as np
+import pytest
+from PySide6.QtCore import Qt
+
+from wetline.app.model import editing
+from wetline.app.model.display import DisplayChoice
+from wetline.app.window import dialogs
+from wetline.app.window.uplift_panel import NOT_OK_COLOUR, OK_COLOUR
+from wetline.core.case import ReportInfo
+from wetline.core.report_tables import fmt
+from wetline.core.section_file import read_section_file
+from wetline.core.uplift import DEFAULT_REQUIRED_FACTOR, REQUIRED_FACTOR_SOURCE, UPLIFT_CAUTION
+
+KN = 1000.0
+
+
+def type_into(edit, text):
+    """Type ``text`` into a line edit and finish editing (as Return does)."""
+    edit.setText(text)
+    edit.editingFinished.emit()
+
+
+@pytest.fixture
+def sump_window(make_window, settle, sample):
+    w = make_window()
+    assert w.open_path(str(sample("sump_with_lid")))
+    settle(w)
+    return w
+
+
+def lid_weight(w, self_weight="1.8", holding_down="2.5"):
+    panel = w.uplift_panel
+    type_into(panel.edit("lid", "self_weight"), self_weight)
+    type_into(panel.edit("lid", "holding_down"), holding_down)
+    w.doc.flush()
+
+
+def test_panel_shows_the_core_check_and_verdicts(sump_window, settle):
+    w = sump_window
+    panel = w.uplift_panel
+    assert set(panel._rows) == {"floor", "wall", "lid"}  # loaded parts only
+    assert panel.row_texts("lid")[0] == "-"  # nothing entered, nothing checked
+    lid_weight(w)
+    settle(w)
+    res = w.doc.case.resistance_map["lid"]
+    assert (res.self_weight, res.holding_down) == pytest.approx((1800.0, 2500.0))
+    (r,) = w.doc.case.uplift()  # the core's own check of the same case
+    assert r.ok_now and not r.ok  # OK at 2.2 m, NOT OK at the worst level
+    now, worst = panel.row_texts("lid")
+    assert now == f"OK {fmt(r.factor, 3)}"
+    assert worst == f"NOT OK {fmt(r.worst_factor, 3)} at {w.doc.units.fmt_length(r.worst_level)}"
+    assert r.worst_level == pytest.approx(2.8)  # the spill level of the sump
+    row = panel._rows["lid"]
+    assert OK_COLOUR in row.now.text() and NOT_OK_COLOUR in row.worst.text()
+    assert panel.results == [r] or panel.results[0].worst_factor == r.worst_factor
+    assert "4.300 kN/m" in panel.details.text()  # resistance 1.8 + 2.5 kN/m
+    assert REQUIRED_FACTOR_SOURCE in panel.source.text()
+    assert panel.caution.text() == UPLIFT_CAUTION
+    assert panel.factor.text() == fmt(DEFAULT_REQUIRED_FACTOR)
+
+
+def test_results_follow_level_vertex_and_liquid(sump_window, settle):
+    w = sump_window
+    panel = w.uplift_panel
+    lid_weight(w)
+    settle(w)
+    now = panel.row_texts("lid")[0]
+    editing.fill_to_level(w.doc, 2.6)  # higher: more uplift, smaller factor
+    settle(w)
+    assert panel.row_texts("lid")[0] != now
+    assert panel.results[0].factor == pytest.approx(w.doc.case.uplift()[0].factor)
+    editing.fill_to_level(w.doc, 1.0)  # below the lid: no uplift
+    settle(w)
+    assert panel.row_texts("lid")[0] == "OK no uplift"
+    worst = panel.row_texts("lid")[1]
+    editing.move_vertex(w.doc, 2, 2.4, 1.2)  # one lid end lower: more head on the lid
+    settle(w)
+    assert panel.row_texts("lid")[1] != worst
+    from wetline.core.liquids import custom_liquid
+
+    before = panel.results[0].worst_factor
+    editing.set_liquid(w.doc, custom_liquid(1500.0))
+    settle(w)
+    assert panel.results[0].worst_factor == pytest.approx(before * 998.2 / 1500.0, rel=1e-3)
+
+
+def test_resistance_edits_are_undo_steps_with_readable_text(sump_window, settle):
+    w = sump_window
+    stack = w.doc.undo_stack
+    panel = w.uplift_panel
+    type_into(panel.edit("lid", "self_weight"), "2.5")
+    assert stack.undoText() == "Lid self-weight 2.5 kN/m"
+    type_into(panel.edit("lid", "holding_down"), "4")
+    assert stack.undoText() == "Lid holding-down 4 kN/m"
+    type_into(panel.factor, "1.25")
+    assert stack.undoText() == "Required uplift factor 1.25"
+    assert stack.count() == 3
+    type_into(panel.edit("lid", "holding_down"), "4")  # unchanged: no step
+    assert stack.count() == 3
+    w.undo()
+    settle(w)
+    assert w.doc.case.required_uplift_factor == DEFAULT_REQUIRED_FACTOR
+    assert panel.factor.text() == fmt(DEFAULT_REQUIRED_FACTOR)
+    w.undo()
+    assert panel.edit("lid", "holding_down").text() == "0"
+    w.undo()
+    assert w.doc.case.resistances == ()
+    assert not w.isWindowModified()
+    stack.redo()
+    assert panel.edit("lid", "self_weight").text() == "2.5"
+
+
+def test_bad_input_shows_why_and_changes_nothing(sump_window):
+    w = sump_window
+    panel = w.uplift_panel
+    before = w.doc.case
+    type_into(panel.edit("lid", "self_weight"), "-3")
+    assert panel.error.isVisibleTo(panel) and ">= 0" in panel.error.text()
+    type_into(panel.edit("lid", "self_weight"), "heavy")
+    assert "not a number" in panel.error.text()
+    type_into(panel.factor, "0")
+    assert "positive" in panel.error.text()
+    assert w.doc.case is before and w.doc.undo_stack.count() == 0
+    type_into(panel.edit("lid", "self_weight"), "1")
+    assert not panel.error.isVisibleTo(panel)
+
+
+def test_default_button_restores_the_default_factor(sump_window):
+    w = sump_window
+    panel = w.uplift_panel
+    assert not panel.default_button.isEnabled()
+    type_into(panel.factor, "1.5")
+    assert panel.default_button.isEnabled()
+    assert "1.5 set for this case" in panel.source.text()
+    panel.default_button.click()
+    assert w.doc.case.required_uplift_factor == DEFAULT_REQUIRED_FACTOR
+    assert w.doc.undo_stack.undoText() == "Required uplift factor: default"
+
+
+def test_us_units_and_axisymmetric_totals(make_window, settle, sample):
+    w = make_window()
+    assert w.open_path(str(sample("sump_with_lid")))
+    editing.set_units(w.doc, DisplayChoice("us", "in"))
+    panel = w.uplift_panel
+    assert "[lbf/ft]" in panel._headers[1].text()
+    type_into(panel.edit("lid", "self_weight"), "100")
+    lbf_per_ft = 4.4482216152605 / 0.3048
+    assert w.doc.case.resistance_map["lid"].self_weight == pytest.approx(100 * lbf_per_ft)
+    assert w.doc.undo_stack.undoText() == "Lid self-weight 100 lbf/ft"
+    assert w.open_path(str(sample("cone_hopper")), ask=False)
+    settle(w)
+    assert "[lbf]" in panel._headers[1].text() and "/ft" not in panel._headers[1].text()
+    editing.set_units(w.doc, DisplayChoice("si", "m"))
+    part = w.doc.section.loaded_part_names[0]
+    type_into(panel.edit(part, "holding_down"), "12")
+    assert w.doc.case.resistance_map[part].holding_down == pytest.approx(12 * KN)
+    assert w.doc.undo_stack.undoText().endswith("holding-down 12 kN")
+
+
+def test_saved_v2_file_reopens_with_the_same_uplift_and_header(
+        sump_window, make_window, tmp_path, monkeypatch, settle):
+    w = sump_window
+    lid_weight(w)
+    type_into(w.uplift_panel.factor, "1.25")
+    info = ReportInfo("Inlet works upgrade", "C-0417", "design team")
+    monkeypatch.setattr(dialogs, "ask_report_info", lambda parent, report: info)
+    assert w.edit_report_info()
+    path = tmp_path / "sump.section.json"
+    monkeypatch.setattr(dialogs, "ask_save_path", lambda parent, suggested: str(path))
+    assert w.save_as()
+    data = json.loads(path.read_text())
+    assert data["version"] == 2
+    assert data["uplift"] == {"required_factor": 1.25,
+                              "parts": {"lid": {"self_weight": 1800.0,
+                                                "holding_down": 2500.0}}}
+    assert data["report"]["job_reference"] == "C-0417"
+    w2 = make_window()
+    assert w2.open_path(str(path))
+    settle(w2)
+    assert w2.doc.case == w.doc.case
+    assert w2.uplift_panel.edit("lid", "self_weight").text() == "1.8"
+    assert w2.uplift_panel.factor.text() == "1.25"
+    assert w2.uplift_panel.row_texts("lid") == w.uplift_panel.row_texts("lid")
+    assert w2.doc.case.report == info
+
+
+def test_header_fields_are_one_undo_step(sump_window, monkeypatch):
+    w = sump_window
+    info = ReportInfo("Inlet works upgrade", "C-0417", "")
+    monkeypatch.setattr(dialogs, "ask_report_info", lambda parent, report: info)
+    w.actions_by_name["report_info"].trigger()
+    assert w.doc.case.report == info
+    assert w.doc.undo_stack.undoText() == "Sheet header: project, job reference"
+    assert w.isWindowModified()
+    assert not w.edit_report_info()  # same fields again: no step
+    monkeypatch.setattr(dialogs, "ask_report_info", lambda parent, report: None)
+    assert not w.edit_report_info()  # cancelled
+    assert w.doc.undo_stack.count() == 1
+    w.undo()
+    assert w.doc.case.report == ReportInfo()
+    assert not w.isWindowModified()
+
+
+def test_header_dialog_shows_and_returns_the_fields(qtbot):
+    from wetline.app.window.report_info_dialog import ReportInfoDialog
+
+    dlg = ReportInfoDialog(ReportInfo("P", "J-1", "someone"))
+    qtbot.addWidget(dlg)
+    assert (dlg.project.text(), dlg.job_reference.text(), dlg.prepared_by.text()) == (
+        "P", "J-1", "someone")
+    dlg.project.setText("  Inlet works  ")
+    dlg.prepared_by.clear()
+    assert dlg.result_report() == ReportInfo("Inlet works", "J-1", "")
+
+
+def test_a_renamed_part_keeps_its_resistance_out_of_the_file(
+        sump_window, tmp_path, monkeypatch):
+    """The lid edge becomes a wall: the lid's resistance stays for undo but
+    is not written, so the saved file reads back."""
+    w = sump_window
+    lid_weight(w)
+    model = w.vertices_table.model()
+    assert model.setData(model.index(2, 2), "wall", Qt.EditRole)
+    assert "lid" not in w.uplift_panel._rows
+    path = tmp_path / "renamed.section.json"
+    monkeypatch.setattr(dialogs, "ask_save_path", lambda parent, suggested: str(path))
+    assert w.save_as()
+    assert read_section_file(path).resistances == ()
+    w.undo()
+    assert w.uplift_panel.edit("lid", "self_weight").text() == "1.8"
+
+
+@pytest.mark.parametrize("name", ["sump_with_lid", "closed_tank", "cone_hopper",
+                                  "chamber_under_riser"])
+def test_remembered_worst_levels_match_the_core_check(name, sample):
+    """The panel's checker keeps each part's worst level while only the fill
+    changes; its results equal core's at every level, above a closed roof too."""
+    from wetline.app.window.uplift_panel import UpliftChecker
+    from wetline.core.uplift import PartResistance
+
+    case = read_section_file(sample(name))
+    for part in case.section.loaded_part_names:
+        case = case.with_resistance(part, PartResistance(500.0, 250.0))
+    checker = UpliftChecker()
+    s = case.section
+    top = s.z_max + (0 if s.is_open else 0.5 * (s.z_max - s.z_min))
+    for level in np.linspace(s.z_min - 0.1, top, 9):
+        c = case.with_level(level)
+        sol = c.solve()
+        assert checker.check(c, sol) == c.uplift(sol), level
