@@ -22,6 +22,7 @@ Modules, one concern each:
 - :mod:`wetline.core.report_tables`: result tables in display units (CLI, CSV, sheet).
 - :mod:`wetline.core.dxf_io`: outlines from and to DXF drawings.
 - :mod:`wetline.core.coordinates`: coordinate lists pasted from a spreadsheet or CSV.
+- :mod:`wetline.core.limits`: the representable range of every input.
 """
 
 STANDARD_GRAVITY = 9.80665
