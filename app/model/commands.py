@@ -14,8 +14,8 @@ from PySide6.QtGui import QUndoCommand
 from wetline.core.report_tables import fmt
 from wetline.core.uplift import DEFAULT_REQUIRED_FACTOR, PartResistance
 
-__all__ = ["CaseCommand", "UnitsCommand", "DiagramScaleCommand", "ResistanceCommand",
-           "RequiredFactorCommand", "ReportInfoCommand", "resistance_unit"]
+__all__ = ["CaseCommand", "NewSectionCommand", "UnitsCommand", "DiagramScaleCommand",
+           "ResistanceCommand", "RequiredFactorCommand", "ReportInfoCommand", "resistance_unit"]
 
 _CASE_ID = 1001
 _UNITS_ID = 1002
@@ -60,6 +60,34 @@ class CaseCommand(QUndoCommand):
 
     def undo(self):
         self._doc.set_case(self._old)
+
+
+class NewSectionCommand(CaseCommand):
+    """Start a new, untitled section (a template, a drawn outline, an
+    import): the document leaves its file, so Save asks for a name and never
+    overwrites the file the old section came from. Undo returns the old case
+    with its file and saved state.
+
+    Parameters
+    ----------
+    document : wetline.app.model.document.Document
+    case : wetline.core.case.Case
+        The new section's case.
+    text : str
+        What started it ("New section: Open tank").
+    """
+
+    def __init__(self, document, case, text):
+        super().__init__(document, case, text)
+        self._old_file = document.file_state
+
+    def redo(self):
+        self._doc.set_file_state(None, None)
+        self._doc.set_case(self._new)
+
+    def undo(self):
+        self._doc.set_case(self._old)
+        self._doc.set_file_state(*self._old_file)
 
 
 class UnitsCommand(QUndoCommand):

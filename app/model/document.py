@@ -308,6 +308,22 @@ class Document(QObject):
         self._timer.start()
         self._update_modified()
 
+    @property
+    def file_state(self):
+        """(path, saved case) of the file the document belongs to: what
+        :meth:`set_file_state` takes back (undo of a new section)."""
+        return self._path, self._saved_case
+
+    def set_file_state(self, path, saved_case):
+        """Belong to the file at ``path`` holding ``saved_case``, or to no file
+        (None, None: an untitled section that Save asks a name for)."""
+        path = None if path is None else str(path)
+        self._saved_case = saved_case
+        if path != self._path:
+            self._path = path
+            self.pathChanged.emit()
+        self._update_modified()
+
     def mark_saved(self, path):
         """The case is now in the file at ``path``."""
         self._saved_case = self._case

@@ -11,7 +11,12 @@ from __future__ import annotations
 
 import numpy as np
 
-from wetline.app.model.commands import CaseCommand, DiagramScaleCommand, UnitsCommand
+from wetline.app.model.commands import (
+    CaseCommand,
+    DiagramScaleCommand,
+    NewSectionCommand,
+    UnitsCommand,
+)
 from wetline.app.model.display import format_number
 from wetline.app.model.document import Draft
 from wetline.app.model.gravity import format_gravity, gravity_label
@@ -20,7 +25,8 @@ from wetline.core.section import SectionError
 
 __all__ = [
     "apply_outline", "move_vertex", "insert_vertex", "delete_vertex", "set_edge_part",
-    "replace_section", "set_kind", "set_width", "rename", "set_liquid", "set_gravity",
+    "replace_section", "start_new_section", "set_kind", "set_width", "rename", "set_liquid",
+    "set_gravity",
     "fill_to_level", "fill_to_volume", "fill_to_percent", "set_units",
     "set_diagram_scale", "discard_draft",
 ]
@@ -90,11 +96,20 @@ def set_edge_part(doc, edge, name):
 
 
 def replace_section(doc, section, level=None, text="New section"):
-    """A whole new section (template, drawn outline), optionally refilled."""
+    """A whole new section (template, drawn outline), optionally refilled:
+    an untitled document (see :func:`start_new_section`). The liquid,
+    gravity and uplift inputs carry over."""
     case = doc.case.with_section(section)
     if level is not None:
         case = case.with_level(level)
-    doc.undo_stack.push(CaseCommand(doc, case, text))
+    start_new_section(doc, case, text)
+
+
+def start_new_section(doc, case, text="New section"):
+    """Make ``case`` the document's, as a new untitled section: one undo
+    step that leaves the file (:class:`wetline.app.model.commands.NewSectionCommand`).
+    The caller asks about unsaved changes first."""
+    doc.undo_stack.push(NewSectionCommand(doc, case, text))
 
 
 def set_kind(doc, kind):

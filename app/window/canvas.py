@@ -208,6 +208,9 @@ class SectionCanvas(pg.PlotWidget):
         self.snap_spacing = 0.1
         """Snap grid spacing [m]."""
         self._drawn = []
+        self.confirm_new_section = lambda: True
+        """Asked before a drawn outline replaces the section (the window
+        asks about unsaved changes); False keeps the drawing going."""
         self._polygon = None
         self._runs = None
         self._solution = None
@@ -1006,6 +1009,10 @@ class SectionCanvas(pg.PlotWidget):
         """Close the outline being drawn and make it the section (or a draft
         marked with its fault)."""
         pts = list(self._drawn)
+        if pts and not self.confirm_new_section():
+            self.message.emit("The drawing is kept: finish it again once the changes are "
+                              "saved or discarded")
+            return False
         self._drawn = []
         self._sketch.setData([], [])
         self.set_mode("edit")
@@ -1018,6 +1025,8 @@ class SectionCanvas(pg.PlotWidget):
                                     name=old.name)
         except SectionError as exc:
             from wetline.app.model.document import Draft
+            # A new untitled section still, shown as the invalid outline to fix.
+            editing.start_new_section(self._doc, self._doc.case, "Draw new outline")
             self._doc.set_draft(Draft(np.array(pts, float).reshape(-1, 2), parts, exc))
             self.message.emit(f"Invalid outline: {exc}")
             self._schedule(outline=True)

@@ -11,9 +11,10 @@ a CSV file or the clipboard (:mod:`wetline.core.coordinates`, read in the displa
 length unit).
 
 Every path is asked for through :mod:`wetline.app.window.dialogs`, every failure is shown
-there too, and nothing that fails changes the document. An import replaces
-the outline as one undo step, keeping the liquid, the uplift inputs and,
-where it still makes sense, the fill.
+there too, and nothing that fails changes the document. An import starts a
+new untitled section (unsaved changes are asked about first; Save asks for
+a name) as one undo step, keeping the liquid, the uplift inputs and, where
+it still makes sense, the fill; a paste is an edit of the open section.
 """
 
 from __future__ import annotations
@@ -23,6 +24,7 @@ from pathlib import Path
 from PySide6.QtCore import QObject, QThread, Signal
 from PySide6.QtWidgets import QApplication
 
+from wetline.app.model import editing
 from wetline.app.model.commands import CaseCommand
 from wetline.app.model.document import fill_range
 from wetline.app.window import dialogs
@@ -132,7 +134,15 @@ class Transfer(QObject):
         self._window.statusBar().showMessage(text, 8000)
 
     def _folder(self):
-        return str(Path(self.doc.path).parent) if self.doc.path else ""
+        if self.doc.path:
+            return str(Path(self.doc.path).parent)
+        last = getattr(self._window, "last_folder", None)
+        return last() if last is not None else ""
+
+    def _may_start_new(self):
+        """An import starts a new section: ask about unsaved changes first."""
+        ask = getattr(self._window, "maybe_save", None)
+        return ask() if ask is not None else True
 
     def _ask(self, title, extension, file_filter):
         suggested = str(Path(self._folder()) / f"{_base_name(self.doc)}{extension}") \
@@ -278,14 +288,21 @@ class Transfer(QObject):
         return True
 
     # ------------------------------------------------------------ imports
-    def _replace_section(self, section, text):
+    def _replace_section(self, section, text, new=False):
+        """The outline replaced, as one undo step; ``new``: as a new untitled
+        section (an import), else an edit of the open one (a paste)."""
         case = _refilled(self.doc.case.with_section(section))
-        self.doc.undo_stack.push(CaseCommand(self.doc, case, text))
+        if new:
+            editing.start_new_section(self.doc, case, text)
+        else:
+            self.doc.undo_stack.push(CaseCommand(self.doc, case, text))
         fit = getattr(self._window, "canvas", None)
         if fit is not None:
             fit.fit()
 
     def import_dxf(self):
+        if not self._may_start_new():
+            return False
         path = dialogs.ask_import_file(self._window, "Import outline from DXF", self._folder(),
                                        "DXF drawings (*.dxf);;All files (*)")
         return self.import_dxf_from(path) if path else False
@@ -320,7 +337,7 @@ class Transfer(QObject):
         except Exception as exc:
             return self._error("Cannot import the drawing", f"{name}: {exc}")
         self._replace_section(section, f"Import outline from {name} (#{outline.index}, "
-                                       f"{outline.n_vertices} vertices)")
+                                       f"{outline.n_vertices} vertices)", new=True)
         if outline.warnings:
             dialogs.show_warning(self._window, "Imported with assumptions",
                                  f"{name}:\n" + "\n".join(outline.warnings))
@@ -329,6 +346,8 @@ class Transfer(QObject):
         return True
 
     def import_coordinates(self):
+        if not self._may_start_new():
+            return False
         path = dialogs.ask_import_file(self._window, "Import coordinate list", self._folder(),
                                        "Coordinate lists (*.csv *.txt *.tsv);;All files (*)")
         return self.import_coordinates_from(path) if path else False
@@ -342,7 +361,7 @@ class Transfer(QObject):
         except OSError as exc:
             return self._error("Cannot read the coordinates",
                                f"{path}: {exc.strerror or exc}")
-        return self.paste_coordinates_text(text, source=Path(path).name)
+        return self.paste_coordinates_text(text, source=Path(path).name, new=True)
 
     def paste_coordinates(self):
         """Edit > Paste coordinates: the clipboard's text as the outline."""
@@ -354,11 +373,12 @@ class Transfer(QObject):
             return False
         return self.paste_coordinates_text(text)
 
-    def paste_coordinates_text(self, text, source="the clipboard"):
+    def paste_coordinates_text(self, text, source="the clipboard", new=False):
         """Replace the outline by a coordinate list (display length unit).
         Parts: from a third column if there is one, else the current parts
         when the vertex count is unchanged, else all walls. One undo step;
-        bad input shows the line at fault and changes nothing."""
+        bad input shows the line at fault and changes nothing. ``new``: a new
+        untitled section (File > Import), else an edit (Edit > Paste)."""
         doc = self.doc
         unit = doc.units.length_unit
         try:
@@ -380,7 +400,7 @@ class Transfer(QObject):
         except SectionError as exc:
             return self._error("The coordinates are not a valid outline", f"{source}: {exc}")
         self._replace_section(section, f"Paste {n} vertices" if source == "the clipboard"
-                              else f"Import {n} vertices from {source}")
+                              else f"Import {n} vertices from {source}", new=new)
         self._status(f"Read {n} vertices in {unit} from {source}{note}")
         return True
 

@@ -59,6 +59,8 @@ class MainWindow(QMainWindow):
         self.resize(1500, 940)
 
         self.canvas = SectionCanvas(doc)
+        # A drawn outline replaces the section: unsaved changes are asked about.
+        self.canvas.confirm_new_section = self.maybe_save
         central = QWidget()
         lay = QVBoxLayout(central)
         lay.setContentsMargins(0, 0, 0, 0)
@@ -361,13 +363,20 @@ class MainWindow(QMainWindow):
             self.statusBar().showMessage(text, 8000)
 
     def _on_pathChanged(self):
-        self.setWindowTitle(f"{self.doc.display_name}[*] - Wetline")
+        if self.doc.path:
+            name = Path(self.doc.path).name
+        else:  # no file: Save asks for a name
+            section = self.doc.section.name.strip()
+            name = f"Untitled ({section})" if section else "Untitled"
+        self.setWindowTitle(f"{name}[*] - Wetline")
         self.setWindowFilePath(self.doc.path or "")
 
     def _on_modifiedChanged(self, modified):
         self.setWindowModified(modified)
 
     def _on_sectionChanged(self):
+        if not self.doc.path:
+            self._on_pathChanged()  # the title names the untitled section
         axi = self.doc.section.is_axisymmetric
         self.actions_by_name["axi" if axi else "plane"].setChecked(True)
         self.actions_by_name["width"].setEnabled(not axi)
@@ -493,6 +502,8 @@ class MainWindow(QMainWindow):
         return answer == "discard"
 
     def new_from_template(self):
+        if not self.maybe_save():
+            return False
         result = dialogs.ask_template(self, self.doc.units)
         if result is None:
             return False
@@ -502,10 +513,20 @@ class MainWindow(QMainWindow):
         self.canvas.fit()
         return True
 
+    def last_folder(self):
+        """The folder a section file was last opened from or saved to
+        (remembered in the settings), or "" if none is known or it is gone."""
+        folder = self.settings.value("last_folder", "")
+        folder = str(folder) if folder else ""
+        return folder if folder and Path(folder).is_dir() else ""
+
+    def _remember_folder(self, path):
+        self.settings.setValue("last_folder", str(Path(path).resolve().parent))
+
     def open_dialog(self):
         if not self.maybe_save():
             return False
-        folder = str(Path(self.doc.path).parent) if self.doc.path else ""
+        folder = str(Path(self.doc.path).parent) if self.doc.path else self.last_folder()
         path = dialogs.ask_open_path(self, folder)
         return self.open_path(path, ask=False) if path else False
 
@@ -524,6 +545,7 @@ class MainWindow(QMainWindow):
         self.doc.load(case, path)
         self.canvas._first_fit = True
         self._add_recent(path)
+        self._remember_folder(path)
         self._status(f"Opened {path}")
         return True
 
@@ -533,7 +555,12 @@ class MainWindow(QMainWindow):
         return self._write(self.doc.path)
 
     def save_as(self):
-        suggested = self.doc.path or f"{self.doc.section.name or 'section'}.section.json"
+        suggested = self.doc.path
+        if not suggested:
+            stem = (self.doc.section.name.strip() or "section").replace("/", "-")
+            folder = self.last_folder()
+            suggested = str(Path(folder) / f"{stem}.section.json") if folder \
+                else f"{stem}.section.json"
         path = dialogs.ask_save_path(self, suggested)
         return self._write(path) if path else False
 
@@ -556,6 +583,7 @@ class MainWindow(QMainWindow):
             return False
         self.doc.mark_saved(path)
         self._add_recent(path)
+        self._remember_folder(path)
         self._status(f"Saved {path}")
         return True
 
