@@ -10,7 +10,7 @@ from PySide6.QtWidgets import QFileDialog, QMessageBox, QProgressDialog
 __all__ = ["show_error", "ask_save_changes", "ask_open_path", "ask_save_path",
            "ask_export_path", "ask_template", "show_about", "show_warning",
            "ask_export_file", "ask_import_file", "ask_dxf_outline", "ask_report_info",
-           "make_progress"]
+           "ask_recovery", "ask_preferences", "make_progress"]
 
 SECTION_FILTER = "Section files (*.section.json);;JSON files (*.json);;All files (*)"
 
@@ -117,6 +117,27 @@ def ask_report_info(parent, report):
     dlg = ReportInfoDialog(report, parent)
     if dlg.exec():
         return dlg.result_report()
+    return None
+
+
+def ask_recovery(parent, copies):
+    """What to do with the recovery copies found at start (a list of
+    :class:`wetline.app.model.recovery.RecoveryCopy`, newest first):
+    ("restore", index), ("discard", index) or ("later", None)."""
+    from wetline.app.window.recovery_dialog import RecoveryDialog
+
+    dlg = RecoveryDialog(copies, parent)
+    dlg.exec()
+    return dlg.answer
+
+
+def ask_preferences(parent, values):
+    """Edit > Preferences: the edited ``values`` (a dict as given) or None."""
+    from wetline.app.window.preferences_dialog import PreferencesDialog
+
+    dlg = PreferencesDialog(values, parent)
+    if dlg.exec():
+        return dlg.values()
     return None
 
 

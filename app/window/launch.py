@@ -61,9 +61,11 @@ def launch(path=None):
     A ``path`` given opens with that file as the document's file (an
     absolute path, so Save writes there whatever the working directory
     later is); if it cannot be read, the window says why and shows the
-    bundled sample instead."""
+    bundled sample instead. Recovery copies left by a crash are offered
+    once the window shows (:mod:`wetline.app.model.recovery`)."""
     from PySide6.QtWidgets import QApplication
 
+    from wetline.app.model import recovery
     from wetline.app.window import dialogs
     from wetline.app.window.main_window import MainWindow
 
@@ -74,11 +76,12 @@ def launch(path=None):
     case, _sample_path = default_case()
     # The sample opens without its path, so Save asks where (the bundled
     # file is never overwritten by accident).
-    window = MainWindow(case, None, saved=True)
+    window = MainWindow(case, None, saved=True, recovery_folder=recovery.default_folder())
     if path is not None:
         path = os.path.abspath(os.fspath(path))
         if not window.open_path(path, ask=False):
             dialogs.show_error(window, "Wetline",
                                f"Started on the bundled sample instead of {path}.")
     window.show()
+    window.offer_recovery()
     return app.exec()

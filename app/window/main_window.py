@@ -24,7 +24,7 @@ from PySide6.QtWidgets import (
     QWidget,
 )
 
-from wetline.app.model import editing
+from wetline.app.model import editing, recovery
 from wetline.app.model.commands import ReportInfoCommand
 from wetline.app.model.display import DisplayChoice, format_number
 from wetline.app.model.document import Document
@@ -49,7 +49,10 @@ UNIT_CHOICES = (("si", "m"), ("si", "mm"), ("us", "ft"), ("us", "in"))
 class MainWindow(QMainWindow):
     """Wetline's main window on one document."""
 
-    def __init__(self, case, path=None, settings=None, saved=None):
+    def __init__(self, case, path=None, settings=None, saved=None, recovery_folder=None):
+        """``recovery_folder``: where recovery copies of unsaved changes go
+        (:func:`wetline.app.model.recovery.default_folder` for the program);
+        None: no autosave."""
         super().__init__()
         self.settings = settings if settings is not None else QSettings("Wetline", "Wetline")
         self.doc = Document(case, path, parent=self,
@@ -146,6 +149,11 @@ class MainWindow(QMainWindow):
         self._on_modifiedChanged(doc.is_modified)
         self._on_sectionChanged()
         self._refresh_recent()
+        self.autosaver = None
+        if recovery_folder is not None:
+            self.autosaver = recovery.Autosaver(doc, recovery_folder,
+                                                self.autosave_interval_s())
+            self.autosaver.failed.connect(self._status)
 
     def _dock(self, title, widget, area):
         dock = QDockWidget(title, self)
@@ -204,6 +212,9 @@ class MainWindow(QMainWindow):
             "Calculation sheet &header...", self.edit_report_info, None,
             "Project, job reference and prepared by, printed on every page of the sheet")
         a["quit"] = self._action("&Quit", self.close, S.Quit)
+        a["preferences"] = self._action(
+            "Pre&ferences...", self.edit_preferences, None,
+            "How often a recovery copy of unsaved changes is written")
         undo = self.doc.undo_stack.createUndoAction(self, "&Undo")
         undo.setShortcut(QKeySequence(S.Undo))
         redo = self.doc.undo_stack.createRedoAction(self, "&Redo")
@@ -279,6 +290,8 @@ class MainWindow(QMainWindow):
         m.addSeparator()
         m.addAction(a["paste_coords"])
         m.addAction(a["copy_coords"])
+        m.addSeparator()
+        m.addAction(a["preferences"])
         m = mb.addMenu("&Section")
         m.addAction(a["plane"])
         m.addAction(a["axi"])
@@ -565,14 +578,7 @@ class MainWindow(QMainWindow):
         return self._write(path) if path else False
 
     def _write(self, path):
-        case = self.doc.case
-        # Resistances of parts no longer in the outline (renamed, re-imported)
-        # stay in the document for undo but are not written: the file format
-        # only names loaded parts of its outline.
-        loaded = set(case.section.loaded_part_names)
-        for part, _ in case.resistances:
-            if part not in loaded:
-                case = case.with_resistance(part, None)
+        case = recovery.case_to_save(self.doc.case)
         try:
             write_section_file(case, path)
         except OSError as exc:
@@ -638,9 +644,63 @@ class MainWindow(QMainWindow):
             self.recent_menu.addAction(p, lambda _=False, p=p: self.open_path(p))
         self.recent_menu.setEnabled(bool(recent))
 
+    # ------------------------------------------------ autosave, recovery
+    def autosave_interval_s(self):
+        """Seconds between recovery copies, from the settings (0: off)."""
+        value = self.settings.value("autosave_interval_s", recovery.DEFAULT_INTERVAL_S)
+        try:
+            value = int(value)
+        except (TypeError, ValueError):
+            return recovery.DEFAULT_INTERVAL_S
+        return value if value >= 0 else recovery.DEFAULT_INTERVAL_S
+
+    def edit_preferences(self):
+        """Edit > Preferences: stored in the settings, applied at once."""
+        values = dialogs.ask_preferences(
+            self, {"autosave_interval_s": self.autosave_interval_s()})
+        if values is None:
+            return False
+        self.settings.setValue("autosave_interval_s", int(values["autosave_interval_s"]))
+        if self.autosaver is not None:
+            self.autosaver.set_interval(self.autosave_interval_s())
+        return True
+
+    def offer_recovery(self):
+        """Offer the recovery copies a crash left (restore, discard, later);
+        True if one was restored."""
+        if self.autosaver is None:
+            return False
+        folder = self.autosaver.folder
+        copies = recovery.list_copies(folder)
+        while copies:
+            answer, index = dialogs.ask_recovery(self, copies)
+            if answer == "restore":
+                return self.restore_recovery(copies[index])
+            if answer != "discard":
+                break  # later: every copy stays for the next start
+            recovery.remove_copy(folder, copies.pop(index).id)
+        return False
+
+    def restore_recovery(self, copy):
+        """Open a recovery copy as the document: modified, with its original
+        file for Save. Once this program has its own copy the old one goes."""
+        try:
+            case = recovery.read_copy(copy)
+        except SectionFileError as exc:
+            dialogs.show_error(self, "Cannot restore the recovery copy", str(exc))
+            return False
+        self.doc.load(case, copy.original_path, saved=False)
+        self.canvas._first_fit = True
+        if self.autosaver is not None and self.autosaver.write_now() is not None:
+            recovery.remove_copy(self.autosaver.folder, copy.id)
+        self._status(f"Restored {copy.describe()}: save it to keep it")
+        return True
+
     def closeEvent(self, ev):
         if self.maybe_save():
             self.transfer.shutdown()
+            if self.autosaver is not None:
+                self.autosaver.close()  # saved or given up: no copy stays
             ev.accept()
         else:
             ev.ignore()

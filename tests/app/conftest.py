@@ -26,13 +26,26 @@ def no_dialogs(monkeypatch):
     return shown
 
 
+@pytest.fixture(autouse=True)
+def recovery_folder(tmp_path, monkeypatch):
+    """The program's recovery folder, in the test's own tmp_path: nothing a
+    test runs reads or writes the user's application data."""
+    from wetline.app.model import recovery
+
+    folder = tmp_path / "app-data" / "recovery"
+    monkeypatch.setattr(recovery, "default_folder", lambda: folder)
+    return folder
+
+
 @pytest.fixture
 def make_window(qtbot, settings, no_dialogs, template_case):
-    """Factory: a shown main window on a case (default: the sump template)."""
+    """Factory: a shown main window on a case (default: the sump template);
+    ``recovery_folder`` turns autosave on into that folder."""
     from wetline.app.window.main_window import MainWindow
 
-    def make(case=None, path=None):
-        w = MainWindow(case or template_case(), path, settings=settings)
+    def make(case=None, path=None, recovery_folder=None):
+        w = MainWindow(case or template_case(), path, settings=settings,
+                       recovery_folder=recovery_folder)
         qtbot.addWidget(w)
         w.show()
         qtbot.waitExposed(w)

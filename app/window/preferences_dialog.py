@@ -1,0 +1,42 @@
+"""Edit > Preferences: how often a recovery copy of unsaved changes is
+written. Stored in the settings (QSettings) by the main window."""
+
+from __future__ import annotations
+
+from PySide6.QtWidgets import QDialog, QDialogButtonBox, QFormLayout, QLabel, QSpinBox
+
+__all__ = ["PreferencesDialog", "MAX_AUTOSAVE_S"]
+
+MAX_AUTOSAVE_S = 3600
+"""Longest autosave interval offered [s]."""
+
+
+class PreferencesDialog(QDialog):
+    """The autosave interval [s] (0 = off)."""
+
+    def __init__(self, values, parent=None):
+        super().__init__(parent)
+        self.setWindowTitle("Preferences")
+        form = QFormLayout(self)
+        self.autosave = QSpinBox()
+        self.autosave.setRange(0, MAX_AUTOSAVE_S)
+        self.autosave.setSuffix(" s")
+        self.autosave.setSpecialValueText("off")
+        self.autosave.setValue(int(values["autosave_interval_s"]))
+        self.autosave.setToolTip("How often a recovery copy of unsaved changes is written "
+                                 "(the first one a few seconds after the first edit); 0 = off")
+        form.addRow("Recovery copy every", self.autosave)
+        note = QLabel("Recovery copies are kept in the application data folder, not beside "
+                      "your files, and offered at the next start if Wetline ends without "
+                      "saving.")
+        note.setWordWrap(True)
+        note.setStyleSheet("color: #445;")
+        form.addRow(note)
+        buttons = QDialogButtonBox(QDialogButtonBox.Ok | QDialogButtonBox.Cancel)
+        buttons.accepted.connect(self.accept)
+        buttons.rejected.connect(self.reject)
+        form.addRow(buttons)
+
+    def values(self):
+        """The settings as edited: {"autosave_interval_s": int}."""
+        return {"autosave_interval_s": self.autosave.value()}
