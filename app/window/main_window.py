@@ -43,6 +43,7 @@ __all__ = ["MainWindow", "CAUTION"]
 CAUTION = ("Hydrostatic loads only: no sloshing, seismic, wind, surge or structural "
            "capacity. Verify against local codes and licensed practice.")
 MAX_RECENT = 8
+REDO_KEYS = ("Ctrl+Y", "Ctrl+Shift+Z")
 UNIT_CHOICES = (("si", "m"), ("si", "mm"), ("us", "ft"), ("us", "in"))
 
 
@@ -218,7 +219,9 @@ class MainWindow(QMainWindow):
         undo = self.doc.undo_stack.createUndoAction(self, "&Undo")
         undo.setShortcut(QKeySequence(S.Undo))
         redo = self.doc.undo_stack.createRedoAction(self, "&Redo")
-        redo.setShortcut(QKeySequence(S.Redo))
+        # Both common redo keys on every platform (the standard key is only
+        # one of them: Ctrl+Y on some desktops, Ctrl+Shift+Z on others).
+        redo.setShortcuts([QKeySequence(k) for k in REDO_KEYS])
         # Undo with an invalid outline pending drops that outline first.
         undo.triggered.disconnect()
         undo.triggered.connect(self.undo)
