@@ -106,6 +106,10 @@ def _readonly(a):
     return a
 
 
+_DERIVED_ARRAYS = ("geometry", "volume_curve")
+"""Cached properties of a :class:`Section` that hold arrays as long as the outline."""
+
+
 @dataclass(frozen=True, eq=False)
 class Section:
     """A validated container cross-section.
@@ -255,6 +259,25 @@ class Section:
                     width=self.width, name=self.name)
         args.update(changes)
         return Section.build(**args)
+
+    def forget_derived(self):
+        """Drop the cached per-edge arrays (:attr:`geometry`, :attr:`volume_curve`);
+        they are computed again when next needed, with the same values.
+
+        An undo history keeps many sections it does not compute with: without
+        these arrays each costs little more than its outline.
+
+        >>> s = Section.build([(0, 0), (2, 0), (2, 1), (0, 1)])
+        >>> s.geometry.length.tolist()
+        [2.0, 1.0, 2.0, 1.0]
+        >>> s.forget_derived()
+        >>> "geometry" in vars(s)
+        False
+        >>> s.geometry.length.tolist()
+        [2.0, 1.0, 2.0, 1.0]
+        """
+        for name in _DERIVED_ARRAYS:
+            self.__dict__.pop(name, None)
 
     # ---------------------------------------------------------- properties
     @property

@@ -39,7 +39,10 @@ from wetline.core.case import Case
 from wetline.core.level_table import level_table
 from wetline.core.section import SectionError
 
-__all__ = ["Document", "Draft", "Preview", "fill_range", "preview_steps"]
+__all__ = ["Document", "Draft", "Preview", "fill_range", "preview_steps", "UNDO_LIMIT"]
+
+UNDO_LIMIT = 1000
+"""Undo steps kept by default; the oldest go first."""
 
 CHART_STEPS = 121
 """Levels in the loads-against-level table."""
@@ -161,6 +164,8 @@ class Document(QObject):
         self._need_solve = True
         self._need_table = True
         self.undo_stack = QUndoStack(self)
+        self._undo_limit = UNDO_LIMIT
+        self.undo_stack.setUndoLimit(UNDO_LIMIT)
         self._timer = QTimer(self)
         self._timer.setSingleShot(True)
         self._timer.setInterval(0)
@@ -235,6 +240,23 @@ class Document(QObject):
     def selected_vertex(self):
         return self._selected_vertex
 
+    @property
+    def undo_limit(self):
+        """Undo steps kept (the stack's own limit may be an older one until
+        the next :meth:`load`)."""
+        return self._undo_limit
+
+    def set_undo_limit(self, steps):
+        """Keep at most ``steps`` undo steps: at once if nothing can be undone
+        yet, else from the next :meth:`load` (Qt sets a limit only on an
+        empty stack; the history is never cut behind the user's back)."""
+        steps = int(steps)
+        if steps < 1:
+            raise ValueError(f"an undo limit is at least 1 step, not {steps}")
+        self._undo_limit = steps
+        if self.undo_stack.count() == 0:
+            self.undo_stack.setUndoLimit(steps)
+
     def working_outline(self):
         """(outline [m], parts) being edited: the dragged preview's if any,
         else the draft's, else the section's."""
@@ -253,6 +275,9 @@ class Document(QObject):
         self._case = case
         self.end_preview()
         self.set_draft(None)
+        if old.section is not case.section:
+            # The old section lives on only in the undo history: keep it light.
+            old.section.forget_derived()
         section_changed = old.section is not case.section and old.section != case.section
         liquid_changed = old.liquid != case.liquid or old.gravity != case.gravity
         fill_changed = (old.fill_level != case.fill_level
@@ -286,6 +311,7 @@ class Document(QObject):
         if not isinstance(case, Case):
             raise TypeError("a Document holds a core.case.Case")
         self.undo_stack.clear()
+        self.undo_stack.setUndoLimit(self._undo_limit)
         self._path = None if path is None else str(path)
         self._selected_edge = self._selected_vertex = None
         if saved is None:

@@ -27,7 +27,7 @@ from PySide6.QtWidgets import (
 from wetline.app.model import editing, recovery
 from wetline.app.model.commands import ReportInfoCommand
 from wetline.app.model.display import DisplayChoice, format_number
-from wetline.app.model.document import Document
+from wetline.app.model.document import UNDO_LIMIT, Document
 from wetline.app.window import dialogs
 from wetline.app.window.canvas import SectionCanvas
 from wetline.app.window.chart import LoadChart
@@ -59,6 +59,7 @@ class MainWindow(QMainWindow):
         self.doc = Document(case, path, parent=self,
                             saved=(path is not None) if saved is None else saved)
         doc = self.doc
+        doc.set_undo_limit(self.undo_limit())
         self.setWindowTitle("Wetline")
         self.resize(1500, 940)
 
@@ -657,15 +658,28 @@ class MainWindow(QMainWindow):
             return recovery.DEFAULT_INTERVAL_S
         return value if value >= 0 else recovery.DEFAULT_INTERVAL_S
 
+    def undo_limit(self):
+        """Undo steps kept, from the settings."""
+        value = self.settings.value("undo_limit", UNDO_LIMIT)
+        try:
+            value = int(value)
+        except (TypeError, ValueError):
+            return UNDO_LIMIT
+        return value if value >= 1 else UNDO_LIMIT
+
     def edit_preferences(self):
-        """Edit > Preferences: stored in the settings, applied at once."""
+        """Edit > Preferences: stored in the settings and applied (a new undo
+        limit from the next section opened, if there is history now)."""
         values = dialogs.ask_preferences(
-            self, {"autosave_interval_s": self.autosave_interval_s()})
+            self, {"autosave_interval_s": self.autosave_interval_s(),
+                   "undo_limit": self.undo_limit()})
         if values is None:
             return False
         self.settings.setValue("autosave_interval_s", int(values["autosave_interval_s"]))
+        self.settings.setValue("undo_limit", int(values["undo_limit"]))
         if self.autosaver is not None:
             self.autosaver.set_interval(self.autosave_interval_s())
+        self.doc.set_undo_limit(self.undo_limit())
         return True
 
     def offer_recovery(self):

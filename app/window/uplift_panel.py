@@ -22,6 +22,7 @@ from __future__ import annotations
 import html
 import math
 
+import shiboken6
 from PySide6.QtCore import Qt
 from PySide6.QtWidgets import (
     QGridLayout,
@@ -119,6 +120,9 @@ class _PartRow:
             label.setTextInteractionFlags(Qt.TextSelectableByMouse)
         self.shown = {}  # field -> text written into the edit
 
+    def widgets(self):
+        return (self.name, *self.edits.values(), self.now, self.worst)
+
 
 class UpliftPanel(QGroupBox):
     """Self-weight and holding-down of each part, the required factor, and
@@ -179,28 +183,39 @@ class UpliftPanel(QGroupBox):
         self._on_sectionChanged()
 
     # ----------------------------------------------------------- building
+    def _new_row(self, part):
+        row = _PartRow(part)
+        for field in FIELDS:
+            row.edits[field].editingFinished.connect(
+                lambda p=part, f=field: self._on_resistance_edited(p, f))
+        return row
+
     def _build_rows(self, parts):
+        """Lay out one row per part: rows of parts still there are kept, the
+        rows of parts gone are deleted at once (a deferred delete would wait
+        for the event loop, and many edits in a row would pile them up)."""
         grid = self._grid
         while grid.count():
-            item = grid.takeAt(0)
-            if item.widget() is not None:
-                item.widget().deleteLater()
-        self._rows = {}
-        self._headers = [QLabel() for _ in range(5)]
+            grid.takeAt(0)  # layout items only: the widgets are placed again
+        if not getattr(self, "_headers", None):
+            self._headers = [QLabel() for _ in range(5)]
+            for label in self._headers:
+                label.setStyleSheet("font-weight: 600;")
         for c, label in enumerate(self._headers):
-            label.setStyleSheet("font-weight: 600;")
             grid.addWidget(label, 0, c)
+        old, self._rows = self._rows, {}
         for r, part in enumerate(parts, start=1):
-            row = _PartRow(part)
+            row = old.pop(part, None) or self._new_row(part)
             grid.addWidget(row.name, r, 0)
             for c, field in enumerate(FIELDS, start=1):
-                edit = row.edits[field]
-                edit.editingFinished.connect(
-                    lambda p=part, f=field: self._on_resistance_edited(p, f))
-                grid.addWidget(edit, r, c)
+                grid.addWidget(row.edits[field], r, c)
             grid.addWidget(row.now, r, 3)
             grid.addWidget(row.worst, r, 4)
             self._rows[part] = row
+        for row in old.values():
+            for widget in row.widgets():
+                widget.hide()
+                shiboken6.delete(widget)
         grid.setColumnStretch(4, 1)
         self._parts = parts
 

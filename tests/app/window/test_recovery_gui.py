@@ -108,22 +108,27 @@ def test_discard_deletes_and_later_keeps(make_window, sump_file, recovery_folder
     assert [c.id for c in recovery.list_copies(recovery_folder)] == ["newer"]
 
 
-def test_preferences_set_the_interval_and_zero_turns_it_off(make_window, settings,
+def test_preferences_set_interval_and_undo_steps_and_zero_is_off(make_window, settings,
                                                             recovery_folder, monkeypatch, qtbot):
     w = make_window(recovery_folder=recovery_folder)
     assert w.autosaver.interval_s == recovery.DEFAULT_INTERVAL_S
     asked = []
     monkeypatch.setattr(dialogs, "ask_preferences", lambda parent, values: asked.append(
-        values) or {"autosave_interval_s": 1})
+        values) or {"autosave_interval_s": 1, "undo_limit": 200})
     w.actions_by_name["preferences"].trigger()
-    assert asked == [{"autosave_interval_s": recovery.DEFAULT_INTERVAL_S}]
+    assert asked == [{"autosave_interval_s": recovery.DEFAULT_INTERVAL_S, "undo_limit": 1000}]
     assert int(settings.value("autosave_interval_s")) == 1 and w.autosaver.interval_s == 1
+    assert int(settings.value("undo_limit")) == 200
+    assert w.doc.undo_stack.undoLimit() == 200  # nothing to undo yet: at once
     editing.fill_to_level(w.doc, 1.0)
     qtbot.waitUntil(lambda: w.autosaver.copy is not None, timeout=5000)
     monkeypatch.setattr(dialogs, "ask_preferences", lambda parent, values: {
-        "autosave_interval_s": 0})
+        "autosave_interval_s": 0, "undo_limit": 300})
     w.edit_preferences()
     assert w.autosaver.interval_s == 0 and copies_in(recovery_folder) == []
+    assert w.doc.undo_stack.undoLimit() == 200 and w.doc.undo_limit == 300  # history kept
+    # a later window starts with the stored limit
+    assert make_window().doc.undo_stack.undoLimit() == 300
     assert "Pre&ferences..." in [a.text() for a in w.menuBar().actions()[1].menu().actions()]
 
 
@@ -145,11 +150,13 @@ def test_the_offer_lists_name_time_and_file_and_answers(qtbot, recovery_folder, 
         assert dlg.answer == answer
 
 
-def test_the_preferences_dialog_edits_the_interval(qtbot):
+def test_the_preferences_dialog_edits_interval_and_undo_steps(qtbot):
     from wetline.app.window.preferences_dialog import PreferencesDialog
 
-    dlg = PreferencesDialog({"autosave_interval_s": 60})
+    dlg = PreferencesDialog({"autosave_interval_s": 60, "undo_limit": 1000})
     qtbot.addWidget(dlg)
-    assert dlg.values() == {"autosave_interval_s": 60}
+    assert dlg.values() == {"autosave_interval_s": 60, "undo_limit": 1000}
     dlg.autosave.setValue(0)
-    assert dlg.autosave.text() == "off" and dlg.values() == {"autosave_interval_s": 0}
+    dlg.undo_limit.setValue(5)  # below the fewest offered
+    assert dlg.autosave.text() == "off"
+    assert dlg.values() == {"autosave_interval_s": 0, "undo_limit": 10}

@@ -252,3 +252,19 @@ def test_remembered_worst_levels_match_the_core_check(name, sample):
         c = case.with_level(level)
         sol = c.solve()
         assert checker.check(c, sol) == c.uplift(sol), level
+
+
+def test_rebuilt_rows_leave_no_widgets_behind(sump_window, settle):
+    """Each change of the parts rebuilds the rows; the old widgets go at once
+    (not at some later turn of the event loop), so edits never pile them up."""
+    from PySide6.QtWidgets import QLabel, QLineEdit
+
+    w = sump_window
+    panel = w.uplift_panel
+    labels = len(panel.findChildren(QLabel))
+    for k in range(30):
+        editing.set_edge_part(w.doc, 2, f"lid {k}")
+        settle(w)
+    assert set(panel._rows) == {"floor", "wall", "lid 29"}
+    assert len(panel.findChildren(QLineEdit)) == 2 * 3 + 1  # two per part, the factor
+    assert len(panel.findChildren(QLabel)) == labels
