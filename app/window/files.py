@@ -11,7 +11,9 @@ a CSV file or the clipboard (:mod:`wetline.core.coordinates`, read in the displa
 length unit).
 
 Every path is asked for through :mod:`wetline.app.window.dialogs`, every failure is shown
-there too, and nothing that fails changes the document. An import starts a
+there too, and nothing that fails changes the document. While the outline
+being edited is invalid every export refuses and says why (the results are
+of the last valid outline: never exported as current). An import starts a
 new untitled section (unsaved changes are asked about first; Save asks for
 a name) as one undo step, keeping the liquid, the uplift inputs and, where
 it still makes sense, the fill; a paste is an edit of the open section.
@@ -153,8 +155,25 @@ class Transfer(QObject):
         dialogs.show_error(self._window, title, str(exc) or type(exc).__name__)
         return False
 
+    def refuse_stale(self, what):
+        """True (after saying why) if the outline being edited is invalid:
+        the results are of the last valid outline, and an export would pass
+        them off as the section's. Every export asks this first."""
+        fault = self.doc.fault()
+        if fault is None:
+            return False
+        dialogs.show_error(
+            self._window, f"Cannot export the {what}",
+            f"The outline being edited is invalid: {fault[1]}. The results shown are of "
+            "the last valid outline. Fix the outline, undo or discard it, then export "
+            "again; nothing was written.")
+        self._status(f"Not exported: the outline is invalid ({fault[1]})")
+        return True
+
     # ------------------------------------------------------------ exports
     def export_pdf(self):
+        if self.refuse_stale("calculation sheet"):
+            return None
         path = self._ask("Export calculation sheet", ".pdf", "PDF files (*.pdf)")
         return self.export_pdf_to(path) if path else None
 
@@ -163,6 +182,8 @@ class Transfer(QObject):
         (None if one is still running)."""
         if self.pdf_job is not None and self.pdf_job.isRunning():
             self._status("A calculation sheet is still being written")
+            return None
+        if self.refuse_stale("calculation sheet"):
             return None
         self.doc.flush()
         job = PdfJob(self.doc.case, path, self.doc.units.system, self)
@@ -232,12 +253,16 @@ class Transfer(QObject):
         self._close_progress()
 
     def export_svg(self):
+        if self.refuse_stale("diagram"):
+            return False
         path = self._ask("Export diagram as SVG", ".svg", "SVG drawings (*.svg)")
         return self.export_svg_to(path) if path else False
 
     def export_svg_to(self, path):
         from wetline.app.render.svg import export_svg
 
+        if self.refuse_stale("diagram"):
+            return False
         try:
             export_svg(self.doc.case, path, units=self.doc.units.system)
         except Exception as exc:
@@ -246,10 +271,14 @@ class Transfer(QObject):
         return True
 
     def export_edges_csv(self):
+        if self.refuse_stale("per-edge results"):
+            return False
         path = self._ask("Export per-edge results (CSV)", ".csv", "CSV files (*.csv)")
         return self.export_edges_csv_to(path) if path else False
 
     def export_edges_csv_to(self, path):
+        if self.refuse_stale("per-edge results"):
+            return False
         try:
             self.doc.flush()
             text = to_csv(edges_table(self.doc.solution, self.doc.units.units))
@@ -260,10 +289,14 @@ class Transfer(QObject):
         return True
 
     def export_level_csv(self):
+        if self.refuse_stale("loads against level"):
+            return False
         path = self._ask("Export loads against level (CSV)", ".csv", "CSV files (*.csv)")
         return self.export_level_csv_to(path) if path else False
 
     def export_level_csv_to(self, path, steps=LEVEL_CSV_STEPS):
+        if self.refuse_stale("loads against level"):
+            return False
         try:
             text = to_csv(level_load_table(self.doc.case, self.doc.units.units, steps))
             write_atomically(path, text)
@@ -273,12 +306,16 @@ class Transfer(QObject):
         return True
 
     def export_dxf(self):
+        if self.refuse_stale("outline"):
+            return False
         path = self._ask("Export outline as DXF", ".dxf", "DXF drawings (*.dxf)")
         return self.export_dxf_to(path) if path else False
 
     def export_dxf_to(self, path):
         from wetline.core.dxf_io import write_outline
 
+        if self.refuse_stale("outline"):
+            return False
         case = self.doc.case
         try:
             write_outline(case.section, path, unit=case.length_unit)

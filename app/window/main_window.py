@@ -606,12 +606,17 @@ class MainWindow(QMainWindow):
         return True
 
     def export_dialog(self):
+        if self.transfer.refuse_stale("diagram"):
+            return False
         base = Path(self.doc.path).name.split(".")[0] if self.doc.path else "diagram"
         path = dialogs.ask_export_path(self, f"{base}.png")
         return self.export_to(path) if path else False
 
     def export_to(self, path, size=None):
-        """Write the pressure diagram PNG (through :mod:`wetline.app.render.scene`)."""
+        """Write the pressure diagram PNG (through :mod:`wetline.app.render.scene`);
+        refused while the outline being edited is invalid."""
+        if self.transfer.refuse_stale("diagram"):
+            return False
         try:
             from wetline.app.render import scene
         except ImportError as exc:
