@@ -13,8 +13,10 @@ the required factor changes: the factor achieved at the current level and at
 the worst level in the fill range, each with its verdict, OK or NOT OK.
 
 Every edit is one undo command (:class:`wetline.app.model.commands.ResistanceCommand`,
-:class:`wetline.app.model.commands.RequiredFactorCommand`); bad input is shown in red
-under the fields and changes nothing.
+:class:`wetline.app.model.commands.RequiredFactorCommand`); bad input (letters, a
+negative value) turns its field red with the reason in its tooltip and in red
+under the fields, and changes nothing. The field keeps what was typed until
+it is corrected or the document's value of that field changes (an undo).
 """
 
 from __future__ import annotations
@@ -52,6 +54,8 @@ __all__ = ["UpliftPanel", "UpliftChecker", "OK_COLOUR", "NOT_OK_COLOUR"]
 OK_COLOUR = "#1b7a3a"
 NOT_OK_COLOUR = "#b00020"
 MUTED = "#6b7480"
+INVALID_FIELD_STYLE = (f"QLineEdit {{ border: 1px solid {NOT_OK_COLOUR}; "
+                       "background-color: #fdecee; }")
 FIELDS = ("self_weight", "holding_down")
 
 
@@ -141,6 +145,12 @@ class UpliftPanel(QGroupBox):
         self._grid.setContentsMargins(0, 0, 0, 0)
         self._grid.setHorizontalSpacing(6)
         lay.addWidget(self._grid_host)
+        self._invalid = {}  # (part, field) or "factor" -> (edit, reason, value it replaced)
+        self.error = QLabel()  # the reasons of bad input, right under the fields
+        self.error.setWordWrap(True)
+        self.error.setStyleSheet(f"color: {NOT_OK_COLOUR};")
+        self.error.hide()
+        lay.addWidget(self.error)
         self.details = QLabel()
         self.details.setWordWrap(True)
         self.details.setStyleSheet("color: #445;")
@@ -168,11 +178,6 @@ class UpliftPanel(QGroupBox):
         self.caution.setWordWrap(True)
         self.caution.setStyleSheet("color: #8a5a00;")
         lay.addWidget(self.caution)
-        self.error = QLabel()
-        self.error.setWordWrap(True)
-        self.error.setStyleSheet("color: #b00020;")
-        self.error.hide()
-        lay.addWidget(self.error)
 
         self.factor.editingFinished.connect(self._on_factor_edited)
         self.default_button.clicked.connect(self._on_default_clicked)
@@ -213,6 +218,8 @@ class UpliftPanel(QGroupBox):
             grid.addWidget(row.worst, r, 4)
             self._rows[part] = row
         for row in old.values():
+            for field in FIELDS:
+                self._invalid.pop((row.part, field), None)
             for widget in row.widgets():
                 widget.hide()
                 shiboken6.delete(widget)
@@ -260,21 +267,24 @@ class UpliftPanel(QGroupBox):
                 value = 0.0 if r is None else getattr(r, field)
                 text = fmt(units.to_display(value, q))
                 row.shown[field] = text
+                if self._keeps_bad_input((part, field), value):
+                    continue  # what was typed stays, red, until corrected
                 edit.blockSignals(True)
                 edit.setText(text)
                 edit.blockSignals(False)
         f = doc.case.required_uplift_factor
-        self.factor.blockSignals(True)
-        self.factor.setText(fmt(f))
-        self.factor.blockSignals(False)
-        self._factor_shown = self.factor.text()
+        self._factor_shown = fmt(f)
+        if not self._keeps_bad_input("factor", f):
+            self.factor.blockSignals(True)
+            self.factor.setText(fmt(f))
+            self.factor.blockSignals(False)
         if f == DEFAULT_REQUIRED_FACTOR:
             self.source.setText(f"Required factor: {REQUIRED_FACTOR_SOURCE}.")
         else:
             self.source.setText(f"Required factor {fmt(f)} set for this case "
                                 f"({REQUIRED_FACTOR_SOURCE}).")
         self.default_button.setEnabled(f != DEFAULT_REQUIRED_FACTOR)
-        self._show_error("")
+        self._show_errors()
         self._update_results()
 
     def _on_solved(self, _solution):
@@ -326,43 +336,85 @@ class UpliftPanel(QGroupBox):
         self.details.setText("\n".join(lines))
 
     # ------------------------------------------------------- view -> document
-    def _show_error(self, text):
-        self.error.setText(text)
+    def _show_errors(self):
+        text = "\n".join(reason for _, reason, _ in self._invalid.values())
+        if self.error.text() != text:
+            self.error.setText(text)
         self.error.setVisible(bool(text))
+
+    def _mark(self, key, edit, reason, value):
+        """Show ``edit`` as holding bad input (red, the reason as its tooltip);
+        ``value`` is the document's value it did not replace."""
+        if edit.property("base_tip") is None:
+            edit.setProperty("base_tip", edit.toolTip())
+        self._invalid[key] = (edit, reason, value)
+        edit.setProperty("invalid", True)
+        edit.setStyleSheet(INVALID_FIELD_STYLE)
+        edit.setToolTip(reason)
+        self._show_errors()
+
+    def _unmark(self, key):
+        entry = self._invalid.pop(key, None)
+        if entry is not None:
+            edit = entry[0]
+            edit.setProperty("invalid", False)
+            edit.setStyleSheet("")
+            edit.setToolTip(edit.property("base_tip") or "")
+        self._show_errors()
+
+    def _keeps_bad_input(self, key, value):
+        """True if the field ``key`` keeps its bad input while the document
+        still has ``value`` there; else the mark goes (the value changed)."""
+        entry = self._invalid.get(key)
+        if entry is None:
+            return False
+        if entry[2] == value:
+            return True
+        self._unmark(key)
+        return False
 
     def _on_resistance_edited(self, part, field):
         row = self._rows.get(part)
         if row is None:
             return
         edit = row.edits[field]
+        key = (part, field)
         if edit.text().strip() == row.shown.get(field):
-            return  # unchanged (focus passing through)
+            self._unmark(key)
+            return  # unchanged (focus passing through), or typed back
         what = "Self-weight" if field == "self_weight" else "Holding-down"
         doc = self._doc
         q, _ = resistance_unit(doc)
+        r = doc.case.resistance_map.get(part)
+        current = 0.0 if r is None else getattr(r, field)
         try:
             text = edit.text().strip() or "0"
             value = doc.units.units.from_display(parse_number(text, f"{what} of {part}"), q)
             if value < 0:
                 raise ValueError(f"{what} of {part} must be >= 0")
-            doc.undo_stack.push(ResistanceCommand(doc, part, field, value))
+            command = ResistanceCommand(doc, part, field, value)
         except ValueError as exc:
-            self._show_error(str(exc))
+            self._mark(key, edit, str(exc), current)
             return
-        self._show_error("")
+        self._unmark(key)
+        doc.undo_stack.push(command)
 
     def _on_factor_edited(self):
         if self.factor.text().strip() == self._factor_shown:
+            self._unmark("factor")
             return
+        current = self._doc.case.required_uplift_factor
         try:
             value = parse_number(self.factor.text(), "Required factor")
             if not value > 0:
                 raise ValueError("Required factor must be positive")
+            self._unmark("factor")
             self.set_required_factor(value)
         except (ValueError, CaseError) as exc:
-            self._show_error(str(exc))
+            self._mark("factor", self.factor, str(exc), current)
 
     def _on_default_clicked(self):
+        self._unmark("factor")
         self.set_required_factor(DEFAULT_REQUIRED_FACTOR)
 
     def set_required_factor(self, value):
@@ -370,7 +422,6 @@ class UpliftPanel(QGroupBox):
         doc = self._doc
         if value != doc.case.required_uplift_factor:
             doc.undo_stack.push(RequiredFactorCommand(doc, value))
-        self._show_error("")
 
 
 def _plain(rich):

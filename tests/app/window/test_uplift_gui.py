@@ -126,6 +126,9 @@ def test_bad_input_shows_why_and_changes_nothing(sump_window):
     assert "positive" in panel.error.text()
     assert w.doc.case is before and w.doc.undo_stack.count() == 0
     type_into(panel.edit("lid", "self_weight"), "1")
+    # the factor still holds its bad input: its reason stays until corrected
+    assert "not a number" not in panel.error.text() and "positive" in panel.error.text()
+    type_into(panel.factor, "1.2")
     assert not panel.error.isVisibleTo(panel)
 
 
@@ -268,3 +271,52 @@ def test_rebuilt_rows_leave_no_widgets_behind(sump_window, settle):
     assert set(panel._rows) == {"floor", "wall", "lid 29"}
     assert len(panel.findChildren(QLineEdit)) == 2 * 3 + 1  # two per part, the factor
     assert len(panel.findChildren(QLabel)) == labels
+
+
+def test_letters_mark_the_field_red_with_the_reason_and_apply_nothing(sump_window, settle):
+    w = sump_window
+    panel = w.uplift_panel
+    type_into(panel.edit("lid", "self_weight"), "1.8")
+    before, count = w.doc.case, w.doc.undo_stack.count()
+    field = panel.edit("lid", "self_weight")
+    type_into(field, "1.8 kN")
+    assert field.property("invalid") is True and NOT_OK_COLOUR in field.styleSheet()
+    assert "'1.8 kN' is not a number" in field.toolTip()
+    # the reason right under the fields, above the required factor
+    assert panel.error.isVisibleTo(panel) and "not a number" in panel.error.text()
+    assert panel.error.mapTo(panel, panel.error.rect().topLeft()).y() < \
+        panel.factor.mapTo(panel, panel.factor.rect().topLeft()).y()
+    assert w.doc.case is before and w.doc.undo_stack.count() == count
+    # Another field's edit neither hides the fault nor puts the old value back.
+    type_into(panel.edit("lid", "holding_down"), "2")
+    settle(w)
+    assert w.doc.case.resistance_map["lid"].self_weight == 1800.0
+    assert field.text() == "1.8 kN" and field.property("invalid") is True
+    assert "not a number" in panel.error.text()
+    # A number clears it and is applied.
+    type_into(field, "2.2")
+    assert field.property("invalid") is False and NOT_OK_COLOUR not in field.styleSheet()
+    assert not panel.error.isVisibleTo(panel)
+    assert w.doc.case.resistance_map["lid"].self_weight == pytest.approx(2200.0)
+
+
+def test_undo_of_the_field_shows_the_document_value_again(sump_window, settle):
+    w = sump_window
+    panel = w.uplift_panel
+    field = panel.edit("lid", "self_weight")
+    type_into(field, "3")
+    type_into(field, "heavy")
+    assert field.property("invalid") is True
+    w.undo()  # the field's own value changes: the document's value is shown
+    settle(w)
+    assert field.text() == "0" and field.property("invalid") is False
+    assert not panel.error.isVisibleTo(panel)
+
+
+def test_a_bad_required_factor_is_marked_too(sump_window):
+    panel = sump_window.uplift_panel
+    type_into(panel.factor, "one")
+    assert panel.factor.property("invalid") is True and "not a number" in panel.factor.toolTip()
+    type_into(panel.factor, "1.3")
+    assert panel.factor.property("invalid") is False
+    assert sump_window.doc.case.required_uplift_factor == 1.3
