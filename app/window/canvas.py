@@ -46,6 +46,7 @@ from wetline.app.render.geometry import (
 )
 from wetline.app.render.labels import LabelLayout
 from wetline.app.window.grid import LightGrid
+from wetline.app.window.view_range import smallest_span, usable_range
 from wetline.core.section import AXIS, FLOOR, OPEN, Section, SectionError
 
 __all__ = ["SectionCanvas", "VertexHandles", "part_colour", "RESERVED_PART_CHOICES"]
@@ -223,6 +224,7 @@ class SectionCanvas(pg.PlotWidget):
         self.setMouseTracking(True)
         self.setFocusPolicy(Qt.StrongFocus)
         vb = plot.getViewBox()
+        vb.disableAutoRange()  # fit() sets the range, never an empty one
         self._vb = vb
 
         self._liquid = QGraphicsPathItem()
@@ -372,8 +374,15 @@ class SectionCanvas(pg.PlotWidget):
             if r.width() > 0 or r.height() > 0:
                 x0, x1 = min(x0, r.left()), max(x1, r.right())
                 z0, z1 = min(z0, r.top()), max(z1, r.bottom())
-        pad = 0.08 * max(x1 - x0, z1 - z0, 1e-9)
-        self._vb.setRange(xRange=(x0 - pad, x1 + pad), yRange=(z0 - pad, z1 + pad), padding=0)
+        pad = 0.08 * max(x1 - x0, z1 - z0)
+        # A box around one point or along one line (an outline being drawn)
+        # is widened to a tenth of the section: never an empty range.
+        span = 0.1 * float(np.ptp(self._doc.section.outline, axis=0).max())
+        xr = usable_range(x0 - pad, x1 + pad, span)
+        zr = usable_range(z0 - pad, z1 + pad, span)
+        self._vb.setLimits(minXRange=smallest_span(max(map(abs, xr)), 1e-3 * span),
+                           minYRange=smallest_span(max(map(abs, zr)), 1e-3 * span))
+        self._vb.setRange(xRange=xr, yRange=zr, padding=0)
 
     def snap(self, x, z):
         if self.snap_enabled and self.snap_spacing > 0:

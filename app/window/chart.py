@@ -18,6 +18,7 @@ from wetline.app.model import editing
 from wetline.app.model.document import fill_range
 from wetline.app.window.canvas import part_colour
 from wetline.app.window.grid import LightGrid
+from wetline.app.window.view_range import smallest_span, usable_range
 from wetline.core.section import FLOOR
 
 __all__ = ["LoadChart"]
@@ -39,6 +40,9 @@ class LoadChart(pg.PlotWidget):
         plot.setMenuEnabled(False)
         plot.hideButtons()
         self._legend = plot.addLegend(offset=(8, 8), labelTextSize="8pt")
+        # The ranges are set from the level table (never left to pyqtgraph's
+        # auto-range, which hands a view the empty range of constant data).
+        plot.getViewBox().disableAutoRange()
         self._curves = []
         self._series_key = None
         self.cursor = pg.InfiniteLine(angle=90, movable=True,
@@ -97,19 +101,36 @@ class LoadChart(pg.PlotWidget):
             self._series_key = key
         ys = [u.force(section, y) for y, *_rest in series]
         vb = plot.getViewBox()
-        if self._doc.preview is not None and self._inside_view(vb, x, ys):
-            # A drag step whose curves fit the view: keep the axes (fitting
-            # them again every step relabels and repaints both axes).
-            vb.disableAutoRange()
-        else:
-            vb.enableAutoRange()
         for curve, y in zip(self._curves, ys, strict=True):
             curve.setData(x, y)
+        if not (self._doc.preview is not None and self._inside_view(vb, x, ys)):
+            # (A drag step whose curves fit the view keeps the axes: fitting
+            # them again every step relabels and repaints both axes.)
+            self._fit_view(vb, section, x, ys)
         labels = (f"Level [{u.length_unit}]", f"Load [{u.force_label(section)}]")
         if labels != getattr(self, "_axis_labels", None):  # a new label repaints the axis
             self._axis_labels = labels
             plot.setLabel("bottom", labels[0])
             plot.setLabel("left", labels[1])
+
+    def _fit_view(self, vb, section, x, ys):
+        """Show every curve: the levels and loads of the table, padded, each
+        axis at least a usable span (the level range collapses when the
+        section spills at its lowest point; the loads are all zero when it
+        holds nothing)."""
+        u = self._doc.units
+        height = float(u.length(max(section.z_max - section.z_min, 1e-6)))
+        x_span = smallest_span(0.0, 1e-3 * height)
+        lo = min(float(y.min()) for y in ys)
+        hi = max(float(y.max()) for y in ys)
+        peak = max(abs(lo), abs(hi))
+        y_span = smallest_span(peak, 1e-3 * peak if peak > 0 else 1.0)
+        xr = usable_range(float(x.min()), float(x.max()), x_span, pad=0.02)
+        yr = usable_range(lo, hi, y_span, pad=0.05)
+        # The user's zoom stays above the same spans.
+        vb.setLimits(minXRange=smallest_span(max(map(abs, xr)), x_span),
+                     minYRange=smallest_span(max(map(abs, yr)), y_span))
+        vb.setRange(xRange=xr, yRange=yr, padding=0)
 
     @staticmethod
     def _inside_view(vb, x, ys):
