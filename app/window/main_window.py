@@ -609,7 +609,9 @@ class MainWindow(QMainWindow):
         if self.transfer.refuse_stale("diagram"):
             return False
         base = Path(self.doc.path).name.split(".")[0] if self.doc.path else "diagram"
-        path = dialogs.ask_export_path(self, f"{base}.png")
+        folder = self.transfer._folder()  # beside the file, else the last folder used
+        path = dialogs.ask_export_path(self, str(Path(folder) / f"{base}.png") if folder
+                                       else f"{base}.png")
         return self.export_to(path) if path else False
 
     def export_to(self, path, size=None):

@@ -250,3 +250,22 @@ def test_an_invalid_drawn_outline_is_an_untitled_section_to_fix(opened, answers,
     w.undo()  # drops the invalid outline
     w.undo()  # back to the file
     assert w.doc.draft is None and w.doc.path == str(path) and w.doc.case is before
+
+
+def test_exports_start_beside_the_file_else_in_the_last_folder(opened, monkeypatch, tmp_path,
+                                                               template_case):
+    w, path, _ = opened
+    suggested = []
+    monkeypatch.setattr(dialogs, "ask_export_path", lambda parent, s="": suggested.append(s))
+    monkeypatch.setattr(dialogs, "ask_export_file",
+                        lambda parent, title, s, *a: suggested.append(s))
+    w.actions_by_name["export"].trigger()
+    w.actions_by_name["export_svg"].trigger()
+    from pathlib import Path
+    assert [Path(s).parent for s in suggested] == [path.parent] * 2
+    assert Path(suggested[0]).name == "sump.png"
+    w.doc.load(template_case(), None)  # untitled: the folder last used (the file's)
+    suggested.clear()
+    w.actions_by_name["export"].trigger()
+    w.actions_by_name["export_svg"].trigger()
+    assert [Path(s).parent for s in suggested] == [path.parent] * 2
