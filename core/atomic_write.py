@@ -29,7 +29,14 @@ from collections.abc import Iterator
 from contextlib import contextmanager
 from pathlib import Path
 
-__all__ = ["TEMP_MARK", "WriteError", "atomic_path", "check_target", "write_atomically"]
+__all__ = [
+    "TEMP_MARK",
+    "WriteError",
+    "atomic_path",
+    "check_target",
+    "same_file",
+    "write_atomically",
+]
 
 TEMP_MARK = ".wetline-tmp-"
 """What every temporary file's name holds: ``.NAME`` + this + random letters."""
@@ -93,6 +100,27 @@ def check_target(path: PathLike, what: str = "the file") -> Path:
         target that is not a regular file (a device, a pipe ...).
     """
     return _real_target(path, what)[0]
+
+
+def same_file(a: PathLike, b: PathLike) -> bool:
+    """True if ``a`` and ``b`` name one file: the same path, another path to
+    it, a symbolic or a hard link (:func:`os.path.samefile`); for a path that
+    does not exist yet, the same path once links are resolved.
+
+    A writer checks its output against its inputs with this before reading
+    anything, so a command never writes over its own input.
+
+    Examples
+    --------
+    >>> same_file("a/b/../c.json", "a/c.json")
+    True
+    """
+    try:
+        return os.path.samefile(a, b)
+    except OSError:  # one of them does not exist (yet), or cannot be reached
+        return os.path.realpath(a) == os.path.realpath(b)
+    except (TypeError, ValueError):  # not a path at all (a NUL byte ...)
+        return False
 
 
 def _give_mode(tmp: str, status: os.stat_result | None) -> None:

@@ -17,7 +17,9 @@ Headless commands for batch work and scripts; they import no Qt (except
 ``wetline`` alone, or ``wetline FILE``, opens the desktop program.
 
 Bad input of any kind ends with exit status 2 and one line ``error: ...`` on
-standard error, never a traceback.
+standard error, never a traceback. An output that is the same file as an
+input (by any path, symbolic or hard link) or as another output is refused
+before anything is read or written.
 """
 
 from __future__ import annotations
@@ -136,6 +138,28 @@ def _load(path, level=None, volume=None):
     return case
 
 
+def _refuse_overwriting_inputs(outputs, inputs, distinct=True):
+    """Refuse any output that is the same file as an input, or (``distinct``)
+    as another output, before anything is read or written.
+
+    ``outputs`` holds ``(option, path)`` pairs (``("--png", "d.png")``);
+    ``inputs`` the paths read. A batch passes ``distinct=False``: two files
+    with one sheet name are reported one by one, as the batch goes.
+    """
+    from wetline.core.atomic_write import same_file
+
+    for option, out in outputs:
+        for src in inputs:
+            if same_file(out, src):
+                raise CommandError(f"{option} {out} is the input file {src}; "
+                                   "give another output file")
+    for k, (option_a, a) in enumerate(outputs if distinct else ()):
+        for option_b, b in outputs[k + 1:]:
+            if same_file(a, b):
+                raise CommandError(f"{option_a} and {option_b} name the same file {a}; "
+                                   "give two files")
+
+
 def _table(rows, header, align=None):
     widths = [max(len(str(r[i])) for r in [header] + rows) for i in range(len(header))]
     align = align or ["<"] + [">"] * (len(header) - 1)
@@ -252,6 +276,9 @@ def _cmd_export(args, out):
         except ValueError:
             raise CommandError(f"--size must look like 3508x2480, not {args.size!r}") from None
         size = (w, h)
+    outputs = [(f"--{kind}", path) for kind, path in
+               (("png", args.png), ("svg", args.svg), ("dxf", args.dxf)) if path is not None]
+    _refuse_overwriting_inputs(outputs, [args.file])
     case = _load(args.file, args.level, args.volume)
     if args.dxf is not None:
         from wetline.core.dxf_io import write_outline
@@ -323,6 +350,7 @@ def _cmd_report(args, out):
 
     files = list(args.files)
     if len(files) == 1:
+        _refuse_overwriting_inputs([("-o", args.output)], files)
         case = _load(files[0], args.level, args.volume)
         write_report(case, args.output, units=args.units)
         out.write(f"wrote {args.output}\n")
@@ -330,6 +358,8 @@ def _cmd_report(args, out):
     folder = Path(args.output)
     if folder.exists() and not folder.is_dir():
         raise CommandError(f"{folder} is not a folder (with several FILEs, -o names a folder)")
+    _refuse_overwriting_inputs([(f"-o {folder}: the sheet", folder / f"{_stem(path)}.pdf")
+                                for path in files], files, distinct=False)
     try:
         folder.mkdir(parents=True, exist_ok=True)
     except OSError as exc:
@@ -378,6 +408,7 @@ def _cmd_import(args, out):
     from wetline.core.units import length_factor, to_si_exactly
 
     drawing = Path(args.file)
+    _refuse_overwriting_inputs([("-o", args.output)], [args.file])
     outlines = list_outlines(drawing, unit=args.unit)
     outline = choose_outline(outlines, args.choose, source=drawing.name)
     section = outline.to_section(kind="axisymmetric" if args.axisymmetric else "plane",
