@@ -22,10 +22,12 @@ vertex indices and a location, so a drawing view can mark the spot.
 
 from __future__ import annotations
 
+from collections.abc import Sequence
 from dataclasses import dataclass, field
 from functools import cached_property
 
 import numpy as np
+import numpy.typing as npt
 
 __all__ = [
     "AXIS",
@@ -46,6 +48,8 @@ AXIS = "axis"
 """Part name of an edge on the axis of an axisymmetric section; carries nothing."""
 RESERVED_PARTS = (OPEN, FLOOR, AXIS)
 KINDS = ("plane", "axisymmetric")
+
+FloatArray = npt.NDArray[np.float64]
 
 _AXIS_TOL = 1e-12
 """Relative tolerance [] (of the outline's size) for "lies on x = 0"."""
@@ -166,78 +170,19 @@ class Section:
         SectionError
             With a one-line message naming the fault and where it is.
         """
-        if kind not in KINDS:
-            raise SectionError(f"geometry kind must be 'plane' or 'axisymmetric', not {kind!r}")
-        try:
-            pts = np.array(outline, dtype=np.float64)
-        except (TypeError, ValueError):
-            raise SectionError("outline must be a list of [x, z] number pairs") from None
-        if pts.ndim != 2 or pts.shape[1] != 2:
-            raise SectionError("outline must be a list of [x, z] number pairs")
-        n = pts.shape[0]
-        bad = np.flatnonzero(~np.isfinite(pts).all(axis=1))
-        if bad.size:
-            i = int(bad[0])
-            raise SectionError(f"vertex {i} has a non-finite coordinate", vertices=(i,))
-        distinct = _distinct_up_to_3(pts)
-        if distinct < 3:
-            raise SectionError(
-                f"outline has {distinct} distinct vertices, need at least 3")
-        if parts is None:
-            parts = ("wall",) * n
-        else:
-            if isinstance(parts, str) or not all(isinstance(p, str) for p in parts):
-                raise SectionError("parts must be a list of names, one per edge")
-            parts = tuple(parts)
-            if len(parts) != n:
-                raise SectionError(
-                    f"parts has {len(parts)} names but the outline has {n} edges")
-            for i, p in enumerate(parts):
-                if not p.strip():
-                    raise SectionError(f"edge {i} has an empty part name", edges=(i,))
-        if isinstance(width, bool) or not isinstance(width, (int, float, np.floating)):
-            raise SectionError("width must be a number")
-        width = float(width)
-        if kind == "axisymmetric":
-            width = 1.0
-        elif not (np.isfinite(width) and width > 0):
-            raise SectionError(f"width must be positive, not {width:g}")
-
+        _check_kind(kind)
+        pts = _vertex_array(outline)
+        _check_finite(pts)
+        _check_distinct(pts)
+        names = _checked_parts(parts, pts.shape[0])
+        width = _checked_width(width, kind)
         nxt = np.roll(pts, -1, axis=0)
-        seg = nxt - pts
-        zero = np.flatnonzero((seg == 0).all(axis=1))
-        if zero.size:
-            i = int(zero[0])
-            j = (i + 1) % n
-            raise SectionError(
-                f"edge {i} has zero length (vertices {i} and {j} coincide)",
-                edges=(i,), vertices=(i, j), location=pts[i])
+        _check_edge_lengths(pts, nxt)
         size = float(np.max(np.abs(pts))) or 1.0
-        if kind == "axisymmetric":
-            neg = np.flatnonzero(pts[:, 0] < 0)
-            if neg.size:
-                i = int(neg[0])
-                raise SectionError(
-                    f"vertex {i} has x = {pts[i, 0]:g} m < 0; an axisymmetric outline "
-                    "lies at x >= 0 (x is the radius)", vertices=(i,), location=pts[i])
-            for i, p in enumerate(parts):
-                if p == AXIS and (abs(pts[i, 0]) > _AXIS_TOL * size
-                                  or abs(nxt[i, 0]) > _AXIS_TOL * size):
-                    raise SectionError(
-                        f"edge {i} is marked 'axis' but does not lie on x = 0",
-                        edges=(i,), location=pts[i])
-        elif AXIS in parts:
-            i = parts.index(AXIS)
-            raise SectionError(
-                f"edge {i} is marked 'axis', which only an axisymmetric section has",
-                edges=(i,))
-
-        twice_area = float(np.dot(pts[:, 0], nxt[:, 1]) - np.dot(nxt[:, 0], pts[:, 1]))
+        _check_axis_edges(pts, nxt, names, kind, size)
         _check_simple(pts, size)
-        if not twice_area > 0 and not twice_area < 0:
-            raise SectionError("outline encloses no area (its vertices lie on one line)")
-        return cls(outline=_readonly(pts), parts=parts, kind=kind, width=width,
-                   name=str(name), orientation=1.0 if twice_area > 0 else -1.0)
+        return cls(outline=_readonly(pts), parts=names, kind=kind, width=width,
+                   name=str(name), orientation=_orientation(pts, nxt))
 
     # ---------------------------------------------------------- equality
     def __eq__(self, other):
@@ -351,6 +296,108 @@ class Section:
         for a in arrays.values():
             a.setflags(write=False)
         return EdgeGeometry(**arrays)
+
+
+# ------------------------------------------------------------- the checks
+# Section.build runs these in this order; the first fault found is reported.
+
+
+def _check_kind(kind: object) -> None:
+    if kind not in KINDS:
+        raise SectionError(f"geometry kind must be 'plane' or 'axisymmetric', not {kind!r}")
+
+
+def _vertex_array(outline: object) -> FloatArray:
+    """The outline as an (N, 2) float array [m]."""
+    try:
+        pts = np.array(outline, dtype=np.float64)
+    except (TypeError, ValueError):
+        raise SectionError("outline must be a list of [x, z] number pairs") from None
+    if pts.ndim != 2 or pts.shape[1] != 2:
+        raise SectionError("outline must be a list of [x, z] number pairs")
+    return pts
+
+
+def _check_finite(pts: FloatArray) -> None:
+    bad = np.flatnonzero(~np.isfinite(pts).all(axis=1))
+    if bad.size:
+        i = int(bad[0])
+        raise SectionError(f"vertex {i} has a non-finite coordinate", vertices=(i,))
+
+
+def _check_distinct(pts: FloatArray) -> None:
+    distinct = _distinct_up_to_3(pts)
+    if distinct < 3:
+        raise SectionError(f"outline has {distinct} distinct vertices, need at least 3")
+
+
+def _checked_parts(parts: Sequence[str] | None, n: int) -> tuple[str, ...]:
+    """One part name per edge (default all ``"wall"``)."""
+    if parts is None:
+        return ("wall",) * n
+    if isinstance(parts, str) or not all(isinstance(p, str) for p in parts):
+        raise SectionError("parts must be a list of names, one per edge")
+    names = tuple(parts)
+    if len(names) != n:
+        raise SectionError(f"parts has {len(names)} names but the outline has {n} edges")
+    for i, p in enumerate(names):
+        if not p.strip():
+            raise SectionError(f"edge {i} has an empty part name", edges=(i,))
+    return names
+
+
+def _checked_width(width: object, kind: str) -> float:
+    """The width [m] as a float: 1.0 for axisymmetric sections."""
+    if isinstance(width, bool) or not isinstance(width, (int, float, np.floating)):
+        raise SectionError("width must be a number")
+    value = float(width)
+    if kind == "axisymmetric":
+        return 1.0
+    if not (np.isfinite(value) and value > 0):
+        raise SectionError(f"width must be positive, not {value:g}")
+    return value
+
+
+def _check_edge_lengths(pts: FloatArray, nxt: FloatArray) -> None:
+    zero = np.flatnonzero(((nxt - pts) == 0).all(axis=1))
+    if zero.size:
+        i = int(zero[0])
+        j = (i + 1) % pts.shape[0]
+        raise SectionError(
+            f"edge {i} has zero length (vertices {i} and {j} coincide)",
+            edges=(i,), vertices=(i, j), location=pts[i])
+
+
+def _check_axis_edges(pts: FloatArray, nxt: FloatArray, parts: tuple[str, ...], kind: str,
+                      size: float) -> None:
+    """x >= 0 and ``axis`` edges on x = 0 (axisymmetric); no ``axis`` (plane)."""
+    if kind != "axisymmetric":
+        if AXIS in parts:
+            i = parts.index(AXIS)
+            raise SectionError(
+                f"edge {i} is marked 'axis', which only an axisymmetric section has",
+                edges=(i,))
+        return
+    neg = np.flatnonzero(pts[:, 0] < 0)
+    if neg.size:
+        i = int(neg[0])
+        raise SectionError(
+            f"vertex {i} has x = {pts[i, 0]:g} m < 0; an axisymmetric outline "
+            "lies at x >= 0 (x is the radius)", vertices=(i,), location=pts[i])
+    for i, p in enumerate(parts):
+        if p == AXIS and (abs(pts[i, 0]) > _AXIS_TOL * size
+                          or abs(nxt[i, 0]) > _AXIS_TOL * size):
+            raise SectionError(
+                f"edge {i} is marked 'axis' but does not lie on x = 0",
+                edges=(i,), location=pts[i])
+
+
+def _orientation(pts: FloatArray, nxt: FloatArray) -> float:
+    """+1.0 counter-clockwise, -1.0 clockwise; a SectionError if no area."""
+    twice_area = float(np.dot(pts[:, 0], nxt[:, 1]) - np.dot(nxt[:, 0], pts[:, 1]))
+    if not twice_area > 0 and not twice_area < 0:
+        raise SectionError("outline encloses no area (its vertices lie on one line)")
+    return 1.0 if twice_area > 0 else -1.0
 
 
 def _distinct_up_to_3(pts):

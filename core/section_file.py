@@ -28,8 +28,10 @@ from __future__ import annotations
 
 import json
 import math
+from collections.abc import Collection
 from decimal import Decimal, localcontext
 from pathlib import Path
+from typing import Any
 
 import numpy as np
 
@@ -37,7 +39,7 @@ from . import STANDARD_GRAVITY
 from .atomic_write import write_atomically
 from .case import Case, CaseError, ReportInfo
 from .fill import FillError
-from .liquids import LiquidError, liquid_from_spec, liquid_to_spec
+from .liquids import Liquid, LiquidError, liquid_from_spec, liquid_to_spec
 from .section import Section, SectionError
 from .units import UnitError, length_factor
 from .uplift import DEFAULT_REQUIRED_FACTOR, PartResistance
@@ -65,7 +67,7 @@ _GEOMETRY_KEYS = {"kind", "width"}
 _FILL_KEYS = {"level", "volume"}
 _V2_KEYS = {"uplift", "report"}
 _UPLIFT_KEYS = {"required_factor", "parts"}
-_RESISTANCE_KEYS = {"self_weight", "holding_down"}
+_RESISTANCE_KEYS = ("self_weight", "holding_down")  # checked in this order
 _REPORT_KEYS = {"project", "job_reference", "prepared_by"}
 
 
@@ -96,7 +98,8 @@ def _number(obj, key, where):
     return float(v)
 
 
-def _check_keys(obj, allowed, where):
+def _object(obj: object, allowed: Collection[str], where: str) -> dict[str, Any]:
+    """``obj`` if it is a JSON object holding only ``allowed`` keys."""
     if not isinstance(obj, dict):
         label = where.rstrip(".") or "the file"
         raise SectionFileError(f"{label} must be a JSON object")
@@ -104,118 +107,30 @@ def _check_keys(obj, allowed, where):
         if key not in allowed:
             inside = f" in {where.rstrip('.')}" if where else ""
             raise SectionFileError(f"unknown key {key!r}{inside}")
+    return obj
 
 
-def case_from_dict(data):
+def case_from_dict(data: object) -> Case:
     """Build a :class:`~wetline.core.case.Case` from a parsed section file.
+
+    The keys are read group by group, in this order: the header (format,
+    version, known keys), name and length unit, geometry, outline and parts,
+    fluid, gravity, fill, then the version 2 groups uplift and report. The
+    first fault found is reported.
 
     Raises
     ------
     SectionFileError
         Naming the key or the geometric fault.
     """
-    _check_keys(data, _TOP_KEYS | _V2_KEYS, "")
-    if data.get("format") != FORMAT:
-        if "format" not in data:
-            raise SectionFileError(f"missing key 'format' (a section file says \"{FORMAT}\")")
-        raise SectionFileError(f"format must be \"{FORMAT}\", not {json.dumps(data['format'])}")
-    if "version" not in data:
-        raise SectionFileError("missing key 'version'")
-    version = data["version"]
-    if not isinstance(version, int) or isinstance(version, bool) or version < 1:
-        raise SectionFileError(f"version must be a whole number >= 1, not {json.dumps(version)}")
-    if version > VERSION:
-        raise SectionFileError(
-            f"section file version {version} is newer than this program reads "
-            f"(up to {VERSION}); use a newer Wetline")
-
-    if version < 2:
-        for key in _V2_KEYS:
-            if key in data:
-                raise SectionFileError(
-                    f"key {key!r} needs section file version 2 (this file says version 1)")
-
-    name = data.get("name", "")
-    if not isinstance(name, str):
-        raise SectionFileError("name must be text")
-    unit = data.get("length_unit", "m")
-    if not isinstance(unit, str):
-        raise SectionFileError("length_unit must be text such as \"m\" or \"mm\"")
-    try:
-        scale = length_factor(unit)
-    except UnitError as exc:
-        raise SectionFileError(f"length_unit: {exc}") from None
-
-    if "geometry" not in data:
-        raise SectionFileError("missing key 'geometry'")
-    geometry = data["geometry"]
-    _check_keys(geometry, _GEOMETRY_KEYS, "geometry.")
-    if "kind" not in geometry:
-        raise SectionFileError("missing key 'kind' in geometry")
-    kind = geometry["kind"]
-    if kind not in ("plane", "axisymmetric"):
-        raise SectionFileError(
-            f"geometry.kind must be \"plane\" or \"axisymmetric\", not {json.dumps(kind)}")
-    width = 1.0
-    if "width" in geometry:
-        if kind == "axisymmetric":
-            raise SectionFileError("geometry.width applies to plane sections only")
-        width = _number(geometry, "width", "geometry.")
-        if width <= 0:
-            raise SectionFileError(f"geometry.width must be positive, not {width:g}")
-
-    if "outline" not in data:
-        raise SectionFileError("missing key 'outline'")
-    outline = data["outline"]
-    if not isinstance(outline, list):
-        raise SectionFileError("outline must be a list of [x, z] pairs")
-    for i, pt in enumerate(outline):
-        if (not isinstance(pt, list) or len(pt) != 2
-                or not all(_is_number(c) for c in pt)):
-            raise SectionFileError(f"outline vertex {i} must be an [x, z] pair of numbers, "
-                                   f"not {json.dumps(pt)}", vertices=(i,))
-    parts = data.get("parts")
-    if parts is not None:
-        if not isinstance(parts, list) or not all(isinstance(p, str) for p in parts):
-            raise SectionFileError("parts must be a list of names, one per edge")
-    try:
-        pts = np.array(outline, dtype=np.float64).reshape(-1, 2)
-        if scale != 1.0 and np.isfinite(pts).all():
-            # from the parsed numbers themselves: they remember their text
-            pts = np.array([[_to_metres(x, scale), _to_metres(z, scale)] for x, z in outline],
-                           dtype=np.float64).reshape(-1, 2)
-        section = Section.build(pts, parts=parts, kind=kind, width=_to_metres(width, scale),
-                                name=name)
-    except SectionError as exc:
-        raise SectionFileError(str(exc), edges=exc.edges, vertices=exc.vertices,
-                               location=exc.location) from None
-
-    if "fluid" not in data:
-        raise SectionFileError("missing key 'fluid'")
-    try:
-        liquid = liquid_from_spec(data["fluid"])
-    except LiquidError as exc:
-        raise SectionFileError(str(exc)) from None
-
-    gravity = STANDARD_GRAVITY
-    if "gravity" in data:
-        gravity = _number(data, "gravity", "")
-        if gravity <= 0:
-            raise SectionFileError(f"gravity must be positive, not {gravity:g}")
-
-    if "fill" not in data:
-        raise SectionFileError("missing key 'fill' (give \"level\" or \"volume\")")
-    fill = data["fill"]
-    _check_keys(fill, _FILL_KEYS, "fill.")
-    if len(fill) != 1:
-        raise SectionFileError("fill must give exactly one of \"level\" and \"volume\"")
-    level = volume = None
-    if "level" in fill:
-        level = _to_metres(_number(fill, "level", "fill."), scale)
-    else:
-        volume = _number(fill, "volume", "fill.")
-        if volume < 0:
-            raise SectionFileError(f"fill.volume must be >= 0, not {volume:g}")
+    data = _read_header(data)
+    name = _read_name(data)
+    unit, scale = _read_length_unit(data)
+    kind, width = _read_geometry(data)
+    section = _read_section(data, kind, _to_metres(width, scale), name, scale)
+    liquid = _read_fluid(data)
+    gravity = _read_gravity(data)
+    level, volume = _read_fill(data, scale)
     resistances, factor = _read_uplift(data.get("uplift", {}), section)
     report = _read_report(data.get("report", {}))
     try:
@@ -226,9 +141,141 @@ def case_from_dict(data):
         raise SectionFileError(str(exc)) from None
 
 
-def _read_uplift(uplift, section):
+def _required(data: dict, key: str, hint: str = "") -> object:
+    """``data[key]``, or a "missing key" SectionFileError."""
+    if key not in data:
+        raise SectionFileError(f"missing key {key!r}{hint}")
+    return data[key]
+
+
+def _read_header(obj: object) -> dict[str, Any]:
+    """The file's object, after checking its keys, format and version."""
+    data = _object(obj, _TOP_KEYS | _V2_KEYS, "")
+    if data.get("format") != FORMAT:
+        if "format" not in data:
+            raise SectionFileError(f"missing key 'format' (a section file says \"{FORMAT}\")")
+        raise SectionFileError(f"format must be \"{FORMAT}\", not {json.dumps(data['format'])}")
+    version = _required(data, "version")
+    if not isinstance(version, int) or isinstance(version, bool) or version < 1:
+        raise SectionFileError(f"version must be a whole number >= 1, not {json.dumps(version)}")
+    if version > VERSION:
+        raise SectionFileError(
+            f"section file version {version} is newer than this program reads "
+            f"(up to {VERSION}); use a newer Wetline")
+    if version < 2:
+        for key in _V2_KEYS:
+            if key in data:
+                raise SectionFileError(
+                    f"key {key!r} needs section file version 2 (this file says version 1)")
+    return data
+
+
+def _read_name(data: dict) -> str:
+    name = data.get("name", "")
+    if not isinstance(name, str):
+        raise SectionFileError("name must be text")
+    return name
+
+
+def _read_length_unit(data: dict) -> tuple[str, float]:
+    """The file's length unit and metres in one of it."""
+    unit = data.get("length_unit", "m")
+    if not isinstance(unit, str):
+        raise SectionFileError("length_unit must be text such as \"m\" or \"mm\"")
+    try:
+        return unit, length_factor(unit)
+    except UnitError as exc:
+        raise SectionFileError(f"length_unit: {exc}") from None
+
+
+def _read_geometry(data: dict) -> tuple[str, float]:
+    """The kind and the width in the file's unit (1 if not given)."""
+    geometry = _object(_required(data, "geometry"), _GEOMETRY_KEYS, "geometry.")
+    kind = _required(geometry, "kind", " in geometry")
+    if kind not in ("plane", "axisymmetric"):
+        raise SectionFileError(
+            f"geometry.kind must be \"plane\" or \"axisymmetric\", not {json.dumps(kind)}")
+    width = 1.0
+    if "width" in geometry:
+        if kind == "axisymmetric":
+            raise SectionFileError("geometry.width applies to plane sections only")
+        width = _number(geometry, "width", "geometry.")
+        if width <= 0:
+            raise SectionFileError(f"geometry.width must be positive, not {width:g}")
+    return str(kind), width
+
+
+def _read_outline(data: dict) -> list:
+    """The outline's vertices as the file gives them (checked pairs)."""
+    outline = _required(data, "outline")
+    if not isinstance(outline, list):
+        raise SectionFileError("outline must be a list of [x, z] pairs")
+    for i, pt in enumerate(outline):
+        if (not isinstance(pt, list) or len(pt) != 2
+                or not all(_is_number(c) for c in pt)):
+            raise SectionFileError(f"outline vertex {i} must be an [x, z] pair of numbers, "
+                                   f"not {json.dumps(pt)}", vertices=(i,))
+    return outline
+
+
+def _read_parts(data: dict) -> list[str] | None:
+    parts = data.get("parts")
+    if parts is not None:
+        if not isinstance(parts, list) or not all(isinstance(p, str) for p in parts):
+            raise SectionFileError("parts must be a list of names, one per edge")
+    return parts
+
+
+def _read_section(data: dict, kind: str, width: float, name: str, scale: float) -> Section:
+    """The validated Section of the outline and parts; ``width`` [m]."""
+    outline = _read_outline(data)
+    parts = _read_parts(data)
+    try:
+        pts = np.array(outline, dtype=np.float64).reshape(-1, 2)
+        if scale != 1.0 and np.isfinite(pts).all():
+            # from the parsed numbers themselves: they remember their text
+            pts = np.array([[_to_metres(x, scale), _to_metres(z, scale)] for x, z in outline],
+                           dtype=np.float64).reshape(-1, 2)
+        return Section.build(pts, parts=parts, kind=kind, width=width, name=name)
+    except SectionError as exc:
+        raise SectionFileError(str(exc), edges=exc.edges, vertices=exc.vertices,
+                               location=exc.location) from None
+
+
+def _read_fluid(data: dict) -> Liquid:
+    try:
+        return liquid_from_spec(_required(data, "fluid"))
+    except LiquidError as exc:
+        raise SectionFileError(str(exc)) from None
+
+
+def _read_gravity(data: dict) -> float:
+    gravity = STANDARD_GRAVITY
+    if "gravity" in data:
+        gravity = _number(data, "gravity", "")
+        if gravity <= 0:
+            raise SectionFileError(f"gravity must be positive, not {gravity:g}")
+    return gravity
+
+
+def _read_fill(data: dict, scale: float) -> tuple[float | None, float | None]:
+    """``(level [m], None)`` or ``(None, volume [m3])``."""
+    fill = _object(_required(data, "fill", " (give \"level\" or \"volume\")"), _FILL_KEYS,
+                   "fill.")
+    if len(fill) != 1:
+        raise SectionFileError("fill must give exactly one of \"level\" and \"volume\"")
+    if "level" in fill:
+        return _to_metres(_number(fill, "level", "fill."), scale), None
+    volume = _number(fill, "volume", "fill.")
+    if volume < 0:
+        raise SectionFileError(f"fill.volume must be >= 0, not {volume:g}")
+    return None, volume
+
+
+def _read_uplift(obj: object, section: Section) -> tuple[tuple[tuple[str, PartResistance], ...],
+                                                         float]:
     """Resistances by part and the required factor from a version 2 file."""
-    _check_keys(uplift, _UPLIFT_KEYS, "uplift.")
+    uplift = _object(obj, _UPLIFT_KEYS, "uplift.")
     factor = DEFAULT_REQUIRED_FACTOR
     if "required_factor" in uplift:
         factor = _number(uplift, "required_factor", "uplift.")
@@ -237,26 +284,29 @@ def _read_uplift(uplift, section):
     parts = uplift.get("parts", {})
     if not isinstance(parts, dict):
         raise SectionFileError("uplift.parts must be an object of part names")
-    resistances = []
-    for name, res in parts.items():
-        where = f"uplift.parts.{name}."
-        if name not in section.loaded_part_names:
-            raise SectionFileError(
-                f"uplift.parts names {name!r}, which is not a loaded part of the outline "
-                f"(parts: {', '.join(section.loaded_part_names)})")
-        _check_keys(res, _RESISTANCE_KEYS, where)
-        values = {}
-        for key in _RESISTANCE_KEYS:
-            if key in res:
-                values[key] = _number(res, key, where)
-                if values[key] < 0:
-                    raise SectionFileError(f"{where}{key} must be >= 0, not {values[key]:g}")
-        resistances.append((name, PartResistance(**values)))
-    return tuple(resistances), factor
+    return tuple((name, _read_resistance(name, res, section))
+                 for name, res in parts.items()), factor
+
+
+def _read_resistance(name: str, obj: object, section: Section) -> PartResistance:
+    """What holds the part ``name`` down (``uplift.parts.NAME``)."""
+    where = f"uplift.parts.{name}."
+    if name not in section.loaded_part_names:
+        raise SectionFileError(
+            f"uplift.parts names {name!r}, which is not a loaded part of the outline "
+            f"(parts: {', '.join(section.loaded_part_names)})")
+    res = _object(obj, _RESISTANCE_KEYS, where)
+    values = {}
+    for key in _RESISTANCE_KEYS:
+        if key in res:
+            values[key] = _number(res, key, where)
+            if values[key] < 0:
+                raise SectionFileError(f"{where}{key} must be >= 0, not {values[key]:g}")
+    return PartResistance(**values)
 
 
 def _read_report(report):
-    _check_keys(report, _REPORT_KEYS, "report.")
+    report = _object(report, _REPORT_KEYS, "report.")
     for key, v in report.items():
         if not isinstance(v, str):
             raise SectionFileError(f"report.{key} must be text")
