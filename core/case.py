@@ -10,10 +10,11 @@ from __future__ import annotations
 import math
 from dataclasses import dataclass, replace
 
-from . import STANDARD_GRAVITY
+from . import STANDARD_GRAVITY, limits
 from .fill import FillError, capacity, level_for_volume
 from .hydrostatics import solve
 from .liquids import Liquid, fresh_water
+from .number_input import range_text
 from .section import Section
 from .uplift import DEFAULT_REQUIRED_FACTOR, PartResistance
 
@@ -94,10 +95,18 @@ class Case:
         g = self.gravity
         if isinstance(g, bool) or not isinstance(g, (int, float)) or not math.isfinite(g) or g <= 0:
             raise CaseError(f"gravity must be a positive number, not {g!r}")
+        lo, hi = limits.GRAVITY_RANGE
+        if not lo <= g <= hi:
+            raise CaseError(f"gravity must be {range_text(lo, hi, 'm/s2')}, not {g:g}")
         if (self.fill_level is None) == (self.fill_volume is None):
             raise CaseError("a fill gives exactly one of level and volume")
-        if self.fill_level is not None and not math.isfinite(self.fill_level):
-            raise CaseError(f"fill level must be a finite number, not {self.fill_level!r}")
+        if self.fill_level is not None:
+            level, limit = self.fill_level, limits.COORDINATE_LIMIT
+            if not math.isfinite(level):
+                raise CaseError(f"fill level must be a finite number, not {level!r}")
+            if not -limit <= level <= limit:
+                raise CaseError(f"fill level must be {range_text(-limit, limit, 'm')}, "
+                                f"not {level:g} m")
         if self.fill_volume is not None:
             v = self.fill_volume
             if not math.isfinite(v) or v < 0:

@@ -32,6 +32,9 @@ import re
 from dataclasses import dataclass
 from types import MappingProxyType
 
+from . import limits
+from .number_input import range_text, shown
+
 __all__ = [
     "LiquidError",
     "Liquid",
@@ -76,10 +79,18 @@ def _number(value, what: str) -> float:
     """`value` as a finite float, or a :class:`LiquidError` naming `what`."""
     if isinstance(value, bool) or not isinstance(value, numbers.Real):
         raise LiquidError(f"{what} must be a number, not {type(value).__name__}")
-    value = float(value)
+    value = _float(value)
     if not math.isfinite(value):
         raise LiquidError(f"{what} must be a finite number, not {value}")
     return value
+
+
+def _float(value: numbers.Real) -> float:
+    """``float(value)``; an integer too large for a float is an infinity."""
+    try:
+        return float(value)
+    except OverflowError:
+        return math.copysign(math.inf, value)
 
 
 def _positive(value, what: str) -> float:
@@ -87,6 +98,16 @@ def _positive(value, what: str) -> float:
     if value <= 0.0:
         raise LiquidError(f"{what} must be positive, not {value:g}")
     return value
+
+
+def _density(value: object) -> float:
+    """A density [kg/m3] in :data:`wetline.core.limits.DENSITY_RANGE`."""
+    density = _positive(value, "density")
+    lo, hi = limits.DENSITY_RANGE
+    if not lo <= density <= hi:
+        raise LiquidError(f"density must be {range_text(lo, hi, 'kg/m3')}, "
+                          f"not {density:g} kg/m3")
+    return density
 
 
 @dataclass(frozen=True)
@@ -126,7 +147,7 @@ class Liquid:
     def __post_init__(self):
         if not isinstance(self.name, str):
             raise LiquidError(f"liquid name must be text, not {type(self.name).__name__}")
-        object.__setattr__(self, "density", _positive(self.density, "density"))
+        object.__setattr__(self, "density", _density(self.density))
         for field in ("temperature", "salinity"):
             value = getattr(self, field)
             if value is not None:
@@ -487,7 +508,7 @@ def _spec_number(spec: dict, key: str) -> float:
         raise LiquidError(
             f"'{key}' in fluid must be a number, not {type(value).__name__}"
         )
-    value = float(value)
+    value = _float(value)
     if not math.isfinite(value):
         raise LiquidError(f"'{key}' in fluid must be a finite number, not {value}")
     return value
@@ -548,6 +569,10 @@ def liquid_from_spec(spec: dict) -> Liquid:
         density = _spec_number(spec, "density")
         if density <= 0.0:
             raise LiquidError(f"fluid density must be positive, not {density:g} kg/m3")
+        lo, hi = limits.DENSITY_RANGE
+        if not lo <= density <= hi:
+            raise LiquidError(f"fluid density must be {range_text(lo, hi, 'kg/m3')}, "
+                              f"not {shown(spec['density'])} kg/m3")
         if name is not None:
             listed = LISTED_LIQUIDS.get(name)
             if listed is not None and listed.density == density:

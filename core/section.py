@@ -29,6 +29,9 @@ from functools import cached_property
 import numpy as np
 import numpy.typing as npt
 
+from . import limits
+from .number_input import number_text, range_text
+
 __all__ = [
     "AXIS",
     "FLOOR",
@@ -173,7 +176,9 @@ class Section:
         _check_kind(kind)
         pts = _vertex_array(outline)
         _check_finite(pts)
+        _check_coordinate_range(pts)
         _check_distinct(pts)
+        _check_extent(pts)
         names = _checked_parts(parts, pts.shape[0])
         width = _checked_width(width, kind)
         nxt = np.roll(pts, -1, axis=0)
@@ -325,6 +330,42 @@ def _check_finite(pts: FloatArray) -> None:
         raise SectionError(f"vertex {i} has a non-finite coordinate", vertices=(i,))
 
 
+def _check_coordinate_range(pts: FloatArray) -> None:
+    """|x|, |z| <= COORDINATE_LIMIT and each 0 or >= SMALLEST_COORDINATE [m]."""
+    size = np.abs(pts)
+    limit, smallest = limits.COORDINATE_LIMIT, limits.SMALLEST_COORDINATE
+    large = size > limit
+    bad = np.flatnonzero((large | ((size < smallest) & (size > 0))).ravel())
+    if not bad.size:
+        return
+    i, axis = divmod(int(bad[0]), 2)
+    where = f"vertex {i} has {'xz'[axis]} = {pts[i, axis]:g} m"
+    if large[i, axis]:
+        raise SectionError(f"{where}, outside {range_text(-limit, limit, 'm')}",
+                           vertices=(i,), location=None)
+    raise SectionError(f"{where}; a coordinate is 0 or at least {number_text(smallest)} m "
+                       "in size", vertices=(i,), location=pts[i])
+
+
+def _check_extent(pts: FloatArray) -> None:
+    """Width and height of the outline within EXTENT_RANGE [m], and at least
+    SMALLEST_RELATIVE_EXTENT of the outline's distance from the axes (a zero
+    extent is left to the checks of area and self-intersection, which say
+    more)."""
+    lo, hi = limits.EXTENT_RANGE
+    for axis, word, name in ((0, "wide", "x"), (1, "high", "z")):
+        extent = float(np.ptp(pts[:, axis]))
+        if extent > 0 and not lo <= extent <= hi:
+            raise SectionError(f"outline is {extent:g} m {word}; an outline's width and "
+                               f"height must be {range_text(lo, hi, 'm')}")
+        reach = float(np.max(np.abs(pts[:, axis])))
+        if extent > 0 and extent < limits.SMALLEST_RELATIVE_EXTENT * reach:
+            raise SectionError(
+                f"outline is {extent:g} m {word} but reaches {name} = {reach:g} m; so far "
+                f"out it must be at least {number_text(limits.SMALLEST_RELATIVE_EXTENT)} of "
+                "that, or its numbers lose their precision")
+
+
 def _check_distinct(pts: FloatArray) -> None:
     distinct = _distinct_up_to_3(pts)
     if distinct < 3:
@@ -355,6 +396,9 @@ def _checked_width(width: object, kind: str) -> float:
         return 1.0
     if not (np.isfinite(value) and value > 0):
         raise SectionError(f"width must be positive, not {value:g}")
+    lo, hi = limits.WIDTH_RANGE
+    if not lo <= value <= hi:
+        raise SectionError(f"width must be {range_text(lo, hi, 'm')}, not {value:g} m")
     return value
 
 

@@ -28,6 +28,7 @@ from __future__ import annotations
 
 import json
 import math
+import re
 from collections.abc import Collection
 from decimal import Decimal, localcontext
 from pathlib import Path
@@ -35,12 +36,13 @@ from typing import Any
 
 import numpy as np
 
-from . import STANDARD_GRAVITY
+from . import STANDARD_GRAVITY, limits
 from .atomic_write import write_atomically
 from .case import Case, CaseError, ReportInfo
 from .fill import FillError
 from .liquids import Liquid, LiquidError, liquid_from_spec, liquid_to_spec
-from .section import Section, SectionError
+from .number_input import number_text, range_text, shown
+from .section import FloatArray, Section, SectionError
 from .units import UnitError, length_factor
 from .uplift import DEFAULT_REQUIRED_FACTOR, PartResistance
 
@@ -85,17 +87,25 @@ class SectionFileError(ValueError):
         self.location = location
 
 
-def _is_number(v):
+def _is_number(v: object) -> bool:
     return isinstance(v, (int, float)) and not isinstance(v, bool)
 
 
-def _number(obj, key, where):
+def _number(obj: dict[str, Any], key: str, where: str, *, ranged: bool = False) -> float:
+    """``obj[key]`` as a float, refused unless it is a number.
+
+    NaN and infinities are refused as not finite, except, with ``ranged``, a
+    number the file writes too large for a float (``1e400``, 400 digits):
+    it reads as an infinity that the caller's range check then refuses,
+    showing the file's text.
+    """
     v = obj[key]
     if not _is_number(v):
-        raise SectionFileError(f"{where}{key} must be a number, not {json.dumps(v)}")
-    if not math.isfinite(v):
+        raise SectionFileError(f"{where}{key} must be a number, not {shown(v)}")
+    value = float(v)
+    if not math.isfinite(value) and not (ranged and math.isinf(value) and hasattr(v, "text")):
         raise SectionFileError(f"{where}{key} must be a finite number")
-    return float(v)
+    return value
 
 
 def _object(obj: object, allowed: Collection[str], where: str) -> dict[str, Any]:
@@ -126,11 +136,11 @@ def case_from_dict(data: object) -> Case:
     data = _read_header(data)
     name = _read_name(data)
     unit, scale = _read_length_unit(data)
-    kind, width = _read_geometry(data)
-    section = _read_section(data, kind, _to_metres(width, scale), name, scale)
+    kind, width = _read_geometry(data, unit, scale)
+    section = _read_section(data, kind, width, name, unit, scale)
     liquid = _read_fluid(data)
     gravity = _read_gravity(data)
-    level, volume = _read_fill(data, scale)
+    level, volume = _read_fill(data, unit, scale)
     resistances, factor = _read_uplift(data.get("uplift", {}), section)
     report = _read_report(data.get("report", {}))
     try:
@@ -149,19 +159,23 @@ def _required(data: dict, key: str, hint: str = "") -> object:
 
 
 def _read_header(obj: object) -> dict[str, Any]:
-    """The file's object, after checking its keys, format and version."""
-    data = _object(obj, _TOP_KEYS | _V2_KEYS, "")
-    if data.get("format") != FORMAT:
-        if "format" not in data:
-            raise SectionFileError(f"missing key 'format' (a section file says \"{FORMAT}\")")
-        raise SectionFileError(f"format must be \"{FORMAT}\", not {json.dumps(data['format'])}")
-    version = _required(data, "version")
+    """The file's object, after checking its format, version and keys (in
+    this order: a file that is no section file, or a newer one, says so
+    before anything else)."""
+    if not isinstance(obj, dict):
+        raise SectionFileError("the file must be a JSON object")
+    if "format" not in obj:
+        raise SectionFileError(f'not a Wetline section file (no "format": "{FORMAT}")')
+    if obj["format"] != FORMAT:
+        raise SectionFileError(f"format must be \"{FORMAT}\", not {shown(obj['format'])}")
+    version = _required(obj, "version")
     if not isinstance(version, int) or isinstance(version, bool) or version < 1:
-        raise SectionFileError(f"version must be a whole number >= 1, not {json.dumps(version)}")
+        raise SectionFileError(f"version must be a whole number >= 1, not {shown(version)}")
     if version > VERSION:
         raise SectionFileError(
-            f"section file version {version} is newer than this program reads "
+            f"section file version {shown(version)} is newer than this program reads "
             f"(up to {VERSION}); use a newer Wetline")
+    data = _object(obj, _TOP_KEYS | _V2_KEYS, "")
     if version < 2:
         for key in _V2_KEYS:
             if key in data:
@@ -188,21 +202,26 @@ def _read_length_unit(data: dict) -> tuple[str, float]:
         raise SectionFileError(f"length_unit: {exc}") from None
 
 
-def _read_geometry(data: dict) -> tuple[str, float]:
-    """The kind and the width in the file's unit (1 if not given)."""
+def _read_geometry(data: dict, unit: str, scale: float) -> tuple[str, float]:
+    """The kind and the width [m] (1 of the file's unit if not given)."""
     geometry = _object(_required(data, "geometry"), _GEOMETRY_KEYS, "geometry.")
     kind = _required(geometry, "kind", " in geometry")
     if kind not in ("plane", "axisymmetric"):
         raise SectionFileError(
-            f"geometry.kind must be \"plane\" or \"axisymmetric\", not {json.dumps(kind)}")
+            f"geometry.kind must be \"plane\" or \"axisymmetric\", not {shown(kind)}")
     width = 1.0
     if "width" in geometry:
         if kind == "axisymmetric":
             raise SectionFileError("geometry.width applies to plane sections only")
-        width = _number(geometry, "width", "geometry.")
+        width = _number(geometry, "width", "geometry.", ranged=True)
         if width <= 0:
             raise SectionFileError(f"geometry.width must be positive, not {width:g}")
-    return str(kind), width
+    metres = _to_metres(width, scale)
+    lo, hi = limits.WIDTH_RANGE
+    if not lo <= metres <= hi:
+        raise SectionFileError(f"geometry.width must be {range_text(lo, hi, 'm')}, "
+                               f"not {shown(geometry['width'])} {unit}")
+    return str(kind), metres
 
 
 def _read_outline(data: dict) -> list:
@@ -214,7 +233,7 @@ def _read_outline(data: dict) -> list:
         if (not isinstance(pt, list) or len(pt) != 2
                 or not all(_is_number(c) for c in pt)):
             raise SectionFileError(f"outline vertex {i} must be an [x, z] pair of numbers, "
-                                   f"not {json.dumps(pt)}", vertices=(i,))
+                                   f"not {shown(pt)}", vertices=(i,))
     return outline
 
 
@@ -226,12 +245,33 @@ def _read_parts(data: dict) -> list[str] | None:
     return parts
 
 
-def _read_section(data: dict, kind: str, width: float, name: str, scale: float) -> Section:
+def _check_coordinates(outline: list, pts: FloatArray, unit: str, scale: float) -> None:
+    """Every coordinate within +-COORDINATE_LIMIT [m], and 0 or at least
+    SMALLEST_COORDINATE [m] in size; the message shows the file's number."""
+    size = np.abs(pts) * scale
+    limit, smallest = limits.COORDINATE_LIMIT, limits.SMALLEST_COORDINATE
+    large = size > limit
+    small = (size < smallest) & (size > 0)
+    bad = np.flatnonzero((large | small).ravel())
+    if not bad.size:
+        return
+    i, axis = divmod(int(bad[0]), 2)
+    where = f"outline vertex {i} has {'xz'[axis]} = {shown(outline[i][axis])} {unit}"
+    if large[i, axis]:
+        raise SectionFileError(f"{where}, outside {range_text(-limit, limit, 'm')}",
+                               vertices=(i,))
+    raise SectionFileError(f"{where}; a coordinate is 0 or at least {number_text(smallest)} m "
+                           "in size", vertices=(i,))
+
+
+def _read_section(data: dict, kind: str, width: float, name: str, unit: str,
+                  scale: float) -> Section:
     """The validated Section of the outline and parts; ``width`` [m]."""
     outline = _read_outline(data)
     parts = _read_parts(data)
     try:
         pts = np.array(outline, dtype=np.float64).reshape(-1, 2)
+        _check_coordinates(outline, pts, unit, scale)
         if scale != 1.0 and np.isfinite(pts).all():
             # from the parsed numbers themselves: they remember their text
             pts = np.array([[_to_metres(x, scale), _to_metres(z, scale)] for x, z in outline],
@@ -250,22 +290,31 @@ def _read_fluid(data: dict) -> Liquid:
 
 
 def _read_gravity(data: dict) -> float:
-    gravity = STANDARD_GRAVITY
-    if "gravity" in data:
-        gravity = _number(data, "gravity", "")
-        if gravity <= 0:
-            raise SectionFileError(f"gravity must be positive, not {gravity:g}")
+    if "gravity" not in data:
+        return STANDARD_GRAVITY
+    gravity = _number(data, "gravity", "", ranged=True)
+    if gravity <= 0:
+        raise SectionFileError(f"gravity must be positive, not {gravity:g}")
+    lo, hi = limits.GRAVITY_RANGE
+    if not lo <= gravity <= hi:
+        raise SectionFileError(f"gravity must be {range_text(lo, hi, 'm/s2')}, "
+                               f"not {shown(data['gravity'])}")
     return gravity
 
 
-def _read_fill(data: dict, scale: float) -> tuple[float | None, float | None]:
+def _read_fill(data: dict, unit: str, scale: float) -> tuple[float | None, float | None]:
     """``(level [m], None)`` or ``(None, volume [m3])``."""
     fill = _object(_required(data, "fill", " (give \"level\" or \"volume\")"), _FILL_KEYS,
                    "fill.")
     if len(fill) != 1:
         raise SectionFileError("fill must give exactly one of \"level\" and \"volume\"")
     if "level" in fill:
-        return _to_metres(_number(fill, "level", "fill."), scale), None
+        level = _to_metres(_number(fill, "level", "fill.", ranged=True), scale)
+        limit = limits.COORDINATE_LIMIT
+        if not -limit <= level <= limit:
+            raise SectionFileError(f"fill.level must be {range_text(-limit, limit, 'm')}, "
+                                   f"not {shown(fill['level'])} {unit}")
+        return level, None
     volume = _number(fill, "volume", "fill.")
     if volume < 0:
         raise SectionFileError(f"fill.volume must be >= 0, not {volume:g}")
@@ -284,7 +333,7 @@ def _read_uplift(obj: object, section: Section) -> tuple[tuple[tuple[str, PartRe
     parts = uplift.get("parts", {})
     if not isinstance(parts, dict):
         raise SectionFileError("uplift.parts must be an object of part names")
-    return tuple((name, _read_resistance(name, res, section))
+    return tuple((str(name), _read_resistance(name, res, section))
                  for name, res in parts.items()), factor
 
 
@@ -296,12 +345,17 @@ def _read_resistance(name: str, obj: object, section: Section) -> PartResistance
             f"uplift.parts names {name!r}, which is not a loaded part of the outline "
             f"(parts: {', '.join(section.loaded_part_names)})")
     res = _object(obj, _RESISTANCE_KEYS, where)
+    unit = "N" if section.is_axisymmetric else "N/m"
     values = {}
     for key in _RESISTANCE_KEYS:
         if key in res:
-            values[key] = _number(res, key, where)
+            values[key] = _number(res, key, where, ranged=True)
             if values[key] < 0:
                 raise SectionFileError(f"{where}{key} must be >= 0, not {values[key]:g}")
+            if values[key] > limits.FORCE_LIMIT:
+                raise SectionFileError(
+                    f"{where}{key} must be at most {number_text(limits.FORCE_LIMIT)} {unit}, "
+                    f"not {shown(res[key])}")
     return PartResistance(**values)
 
 
@@ -438,15 +492,67 @@ def _dumps(obj):
     return json.dumps(obj)
 
 
-def loads_case(text, source="section file"):
-    """Parse section file text into a :class:`~wetline.core.case.Case`."""
+class _NotAJSONNumber(Exception):
+    """NaN, Infinity or -Infinity met while parsing (Python's json reads them)."""
+
+
+def _refuse_constant(token: str) -> float:
+    raise _NotAJSONNumber(token)
+
+
+_LONGEST_INT = 300
+"""Integers of more digits are read as floats (infinite beyond 1e308), which
+the range checks refuse; int() of a very long text is slow, and refused by
+Python beyond 4300 digits."""
+
+
+def _parse_int(text: str) -> int | float:
+    if len(text) > _LONGEST_INT:
+        return _Exact(text)
+    return int(text)
+
+
+_CONSTANT_OUTSIDE_STRINGS = re.compile(r'"(?:[^"\\]+|\\.)*"|(-?Infinity|NaN)')
+
+
+def _where_constant(text: str, token: str) -> tuple[int, int]:
+    """Line and column (from 1) of the first ``token`` outside a string."""
+    for match in _CONSTANT_OUTSIDE_STRINGS.finditer(text):
+        if match.group(1) == token:
+            pos = match.start(1)
+            return text.count("\n", 0, pos) + 1, pos - text.rfind("\n", 0, pos)
+    return 1, 1  # pragma: no cover - the parser met it, so it is there
+
+
+def _parse(text: str, source: str) -> object:
+    """The JSON value of ``text``; strict about what JSON allows."""
     try:
-        data = json.loads(text, parse_float=_Exact)
+        return json.loads(text, parse_float=_Exact, parse_int=_parse_int,
+                          parse_constant=_refuse_constant)
     except json.JSONDecodeError as exc:
         raise SectionFileError(
             f"{source} is not valid JSON (line {exc.lineno}, column {exc.colno}: {exc.msg})"
         ) from None
-    return case_from_dict(data)
+    except _NotAJSONNumber as exc:
+        token = str(exc)
+        line, column = _where_constant(text, token)
+        raise SectionFileError(f"{source} is not valid JSON (line {line}, column {column}: "
+                               f"{token} is not a number JSON allows)") from None
+    except RecursionError:
+        raise SectionFileError(
+            f"{source} nests lists or objects too deeply to be a section file") from None
+
+
+def loads_case(text: str, source: str = "section file") -> Case:
+    """Parse section file text into a :class:`~wetline.core.case.Case`.
+
+    Raises
+    ------
+    SectionFileError
+        For text that is not strict JSON (NaN and Infinity included), that
+        nests too deeply, or any fault :func:`case_from_dict` finds.
+    """
+    return case_from_dict(_parse(text, source))
 
 
 def read_section_file(path):

@@ -33,8 +33,9 @@ from dataclasses import dataclass
 
 import numpy as np
 
-from . import STANDARD_GRAVITY
+from . import STANDARD_GRAVITY, limits
 from .level_table import part_down_at
+from .number_input import number_text
 
 __all__ = [
     "DEFAULT_REQUIRED_FACTOR",
@@ -80,6 +81,9 @@ class PartResistance:
                 raise ValueError(f"{name.replace('_', ' ')} must be a number, not {v!r}")
             if v < 0:
                 raise ValueError(f"{name.replace('_', ' ')} must be >= 0, not {v:g}")
+            if v > limits.FORCE_LIMIT:
+                raise ValueError(f"{name.replace('_', ' ')} must be at most "
+                                 f"{number_text(limits.FORCE_LIMIT)}, not {v:g}")
             object.__setattr__(self, name, float(v))
 
     @property

@@ -28,6 +28,7 @@ import argparse
 import json
 import math
 import sys
+import warnings
 
 from wetline.core.report_tables import fmt
 
@@ -452,10 +453,19 @@ def main(argv):
     handlers = {"solve": _cmd_solve, "table": _cmd_table, "export": _cmd_export,
                 "import": _cmd_import, "report": _cmd_report}
     try:
-        args = _parser().parse_args(argv)
-        if args.command is None:
-            raise CommandError("give a command: " + ", ".join(COMMANDS))
-        return handlers[args.command](args, sys.stdout)
+        with warnings.catch_warnings():
+            # A numeric warning means numbers out of range slipped past the
+            # input checks: the run ends in one line rather than printing the
+            # warning and giving results that may not hold.
+            warnings.simplefilter("error", RuntimeWarning)
+            args = _parser().parse_args(argv)
+            if args.command is None:
+                raise CommandError("give a command: " + ", ".join(COMMANDS))
+            return handlers[args.command](args, sys.stdout)
+    except RuntimeWarning as exc:
+        print(f"error: a computation went out of range ({exc}); the input is outside what "
+              "Wetline computes with", file=sys.stderr)
+        return 2
     except CommandError as exc:
         print(f"error: {exc}", file=sys.stderr)
         return 2
