@@ -40,6 +40,7 @@ __all__ = [
     "KINDS",
     "Section",
     "SectionError",
+    "too_many_vertices",
     "EdgeGeometry",
 ]
 
@@ -175,6 +176,7 @@ class Section:
         """
         _check_kind(kind)
         pts = _vertex_array(outline)
+        _check_vertex_count(pts)
         _check_finite(pts)
         _check_coordinate_range(pts)
         _check_distinct(pts)
@@ -321,6 +323,17 @@ def _vertex_array(outline: object) -> FloatArray:
     if pts.ndim != 2 or pts.shape[1] != 2:
         raise SectionError("outline must be a list of [x, z] number pairs")
     return pts
+
+
+def too_many_vertices(n: int) -> str:
+    """The message refusing an outline of ``n`` vertices, more than
+    :data:`~wetline.core.limits.MAX_VERTICES`."""
+    return f"outline has {n} vertices; Wetline computes with at most {limits.MAX_VERTICES}"
+
+
+def _check_vertex_count(pts: FloatArray) -> None:
+    if pts.shape[0] > limits.MAX_VERTICES:
+        raise SectionError(too_many_vertices(pts.shape[0]))
 
 
 def _check_finite(pts: FloatArray) -> None:

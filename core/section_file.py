@@ -28,7 +28,9 @@ from __future__ import annotations
 
 import json
 import math
+import os
 import re
+import stat
 from collections.abc import Collection
 from decimal import Decimal, localcontext
 from pathlib import Path
@@ -42,7 +44,7 @@ from .case import Case, CaseError, ReportInfo
 from .fill import FillError
 from .liquids import Liquid, LiquidError, liquid_from_spec, liquid_to_spec
 from .number_input import number_text, range_text, shown
-from .section import FloatArray, Section, SectionError
+from .section import FloatArray, Section, SectionError, too_many_vertices
 from .units import UnitError, length_factor
 from .uplift import DEFAULT_REQUIRED_FACTOR, PartResistance
 
@@ -229,6 +231,8 @@ def _read_outline(data: dict) -> list:
     outline = _required(data, "outline")
     if not isinstance(outline, list):
         raise SectionFileError("outline must be a list of [x, z] pairs")
+    if len(outline) > limits.MAX_VERTICES:
+        raise SectionFileError(too_many_vertices(len(outline)))
     for i, pt in enumerate(outline):
         if (not isinstance(pt, list) or len(pt) != 2
                 or not all(_is_number(c) for c in pt)):
@@ -552,10 +556,61 @@ def loads_case(text: str, source: str = "section file") -> Case:
         For text that is not strict JSON (NaN and Infinity included), that
         nests too deeply, or any fault :func:`case_from_dict` finds.
     """
+    if len(text) > limits.MAX_FILE_BYTES:
+        raise SectionFileError(f"{source} {_TOO_LARGE}")
+    _refuse_too_many_vertices(text)
     return case_from_dict(_parse(text, source))
 
 
-def read_section_file(path):
+_BRACKETS_BESIDE_VERTICES = 1000
+"""More ``[`` than vertices a file may hold: the outline's own, ``parts``,
+and any in its names (a vertex needs one each)."""
+
+
+def _refuse_too_many_vertices(text: str) -> None:
+    """Refuse an outline of more than MAX_VERTICES vertices (or a file that
+    is no section file) before the careful parse, which costs a Python call
+    per number.
+
+    Counting ``[`` (each vertex needs one) clears every ordinary file at
+    once; a file with more is parsed by the C parser alone, its header
+    checked and its vertices counted exactly.
+    """
+    if text.count("[") <= limits.MAX_VERTICES + _BRACKETS_BESIDE_VERTICES:
+        return
+    try:
+        data = json.loads(text, parse_constant=_refuse_constant)
+    except (ValueError, RecursionError, _NotAJSONNumber):
+        return  # the careful parse says what is wrong
+    outline = _read_header(data).get("outline")
+    if isinstance(outline, list) and len(outline) > limits.MAX_VERTICES:
+        raise SectionFileError(too_many_vertices(len(outline)))
+
+
+_TOO_LARGE = (f"is larger than {limits.MAX_FILE_BYTES // 2 ** 20} MB, the most Wetline reads "
+              "from a section file")
+
+
+class _TooLarge(Exception):
+    """More than MAX_FILE_BYTES to read."""
+
+
+def _read_capped(path: Path) -> bytes:
+    """The bytes of ``path``, refused past :data:`~wetline.core.limits.MAX_FILE_BYTES`:
+    by its size if it is a regular file, else after reading one byte more
+    than the limit (a pipe, or /dev/zero, which says it holds 0 bytes)."""
+    limit = limits.MAX_FILE_BYTES
+    with open(path, "rb") as fh:
+        status = os.fstat(fh.fileno())
+        if stat.S_ISREG(status.st_mode) and status.st_size > limit:
+            raise _TooLarge
+        data = fh.read(limit + 1)
+    if len(data) > limit:
+        raise _TooLarge
+    return data
+
+
+def read_section_file(path: str | os.PathLike[str]) -> Case:
     """Read a section file.
 
     Parameters
@@ -573,7 +628,9 @@ def read_section_file(path):
     """
     path = Path(path)
     try:
-        raw = path.read_bytes()
+        raw = _read_capped(path)
+    except _TooLarge:
+        raise SectionFileError(f"{path}: {_TOO_LARGE}") from None
     except FileNotFoundError:
         raise SectionFileError(f"{path}: no such file") from None
     except IsADirectoryError:
