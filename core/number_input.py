@@ -1,5 +1,12 @@
-"""Numbers people give: the accepted range of each input, said the same way
-everywhere.
+"""Numbers people give: typed decimals read one way, and the accepted range
+of each input said the same way everywhere.
+
+:func:`parse_decimal` reads what a person types as a decimal number, for the
+command line's options and the program's typed fields alike: ASCII digits,
+an optional sign, one point or comma as the decimal separator and an
+optional exponent (``2.5``, ``-0,5``, ``1e3``). Python's ``float()`` also
+takes ``1_0``, digits of other scripts, ``inf`` and ``nan``, which no one
+means as a fill level.
 
 Files, the command line and typed fields refuse a number outside the range
 Wetline computes with (:mod:`wetline.core.limits`) with a message naming the
@@ -12,8 +19,63 @@ from __future__ import annotations
 
 import json
 import math
+import re
 
-__all__ = ["number_text", "range_text", "shown"]
+__all__ = ["NumberError", "number_text", "parse_decimal", "range_text", "shown"]
+
+
+class NumberError(ValueError):
+    """Text that is not a decimal number; the message names the input."""
+
+
+_DECIMAL = re.compile(r"[+-]?(?:[0-9]+(?:[.,][0-9]*)?|[.,][0-9]+)(?:[eE][+-]?[0-9]+)?")
+
+
+def parse_decimal(text: str, what: str = "the number") -> float:
+    """The number a person typed as ``text``.
+
+    Parameters
+    ----------
+    text : str
+        An optional sign, ASCII digits with at most one decimal point or
+        comma, and an optional exponent: ``"2.5"``, ``"-0,5"``, ``".5"``,
+        ``"3."``, ``"1e3"``, ``"-2.5E-3"``. Spaces and tabs around it are
+        ignored; nothing else is accepted (no ``1_0``, no thousands
+        separators, no ``inf`` or ``nan``, no digits of other scripts).
+    what : str
+        The input's name for the message (``"--level"``, ``"the level"``).
+
+    Returns
+    -------
+    float
+        The correctly rounded float of the decimal (as ``float()`` gives it);
+        ``-0`` is 0.0.
+
+    Raises
+    ------
+    NumberError
+        For any other text, or a number beyond the largest float (1.8e308).
+
+    Examples
+    --------
+    >>> parse_decimal("2,5"), parse_decimal("-1e308"), parse_decimal(" .5 ")
+    (2.5, -1e+308, 0.5)
+    >>> parse_decimal("1_0", "--level")
+    Traceback (most recent call last):
+    ...
+    wetline.core.number_input.NumberError: --level must be a finite decimal number ... not '1_0'
+    """
+    if not isinstance(text, str):
+        raise NumberError(f"{what} must be a decimal number, not {type(text).__name__}")
+    body = text.strip(" \t")
+    if _DECIMAL.fullmatch(body) is None:
+        raise NumberError(f"{what} must be a finite decimal number such as 2.5, -0.5 or 1e3, "
+                          f"not {text!r}")
+    value = float(body.replace(",", "."))
+    if not math.isfinite(value):
+        raise NumberError(f"{what} must be a finite decimal number, not {body} "
+                          "(larger than any float)")
+    return value + 0.0
 
 
 def number_text(value: float) -> str:
