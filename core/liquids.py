@@ -176,10 +176,32 @@ def _boiling_point() -> float:
 
 @functools.lru_cache(maxsize=512)
 def _fresh_water_state(temperature: float) -> tuple[float, bool]:
-    """IAPWS-95 density [kg/m3] at `temperature` [deg C] and 1 atm.
+    """IAPWS-95 density [kg/m3] at `temperature` [deg C] and 1 atm, and
+    whether it is the saturated liquid's (see :func:`iapws95_state`).
+
+    Temperatures on the 0.1 C grid from 0 to 100 C are looked up in
+    :mod:`wetline.core.fresh_water_table`, which holds exactly what
+    :func:`iapws95_state` gives there (importing ``iapws`` costs about 0.3 s
+    of scipy); any other temperature is computed.
+    """
+    tenths = round(temperature * 10.0)
+    if 0 <= tenths <= 1000 and tenths / 10 == temperature:
+        from .fresh_water_table import DENSITIES, FIRST_SATURATED
+
+        return DENSITIES[tenths], tenths >= FIRST_SATURATED
+    return iapws95_state(temperature)
+
+
+def iapws95_state(temperature: float) -> tuple[float, bool]:
+    """IAPWS-95 density [kg/m3] at `temperature` [deg C] and one atmosphere,
+    computed by ``iapws`` (no table).
 
     Returns ``(density, saturated)``; `saturated` is true when one atmosphere
     is below the saturation pressure and the saturated liquid is used.
+
+    References
+    ----------
+    IAPWS R6-95 (2018), via ``iapws.IAPWS95``.
     """
     import iapws
 
