@@ -31,6 +31,7 @@ import numbers
 import re
 from dataclasses import dataclass
 from types import MappingProxyType
+from typing import Any
 
 from . import limits
 from .number_input import range_text, shown
@@ -75,29 +76,29 @@ class LiquidError(ValueError):
     """An impossible or unknown liquid; the one-line message says what is wrong."""
 
 
-def _number(value, what: str) -> float:
+def _number(value: object, what: str) -> float:
     """`value` as a finite float, or a :class:`LiquidError` naming `what`."""
     if isinstance(value, bool) or not isinstance(value, numbers.Real):
         raise LiquidError(f"{what} must be a number, not {type(value).__name__}")
-    value = _float(value)
-    if not math.isfinite(value):
-        raise LiquidError(f"{what} must be a finite number, not {value}")
-    return value
+    number = _float(value)
+    if not math.isfinite(number):
+        raise LiquidError(f"{what} must be a finite number, not {number}")
+    return number
 
 
 def _float(value: numbers.Real) -> float:
     """``float(value)``; an integer too large for a float is an infinity."""
     try:
         return float(value)
-    except OverflowError:
-        return math.copysign(math.inf, value)
+    except OverflowError:  # an integer beyond the largest float
+        return -math.inf if value < 0 else math.inf
 
 
-def _positive(value, what: str) -> float:
-    value = _number(value, what)
-    if value <= 0.0:
-        raise LiquidError(f"{what} must be positive, not {value:g}")
-    return value
+def _positive(value: object, what: str) -> float:
+    number = _number(value, what)
+    if number <= 0.0:
+        raise LiquidError(f"{what} must be positive, not {number:g}")
+    return number
 
 
 def _density(value: object) -> float:
@@ -144,7 +145,7 @@ class Liquid:
     temperature: float | None = None
     salinity: float | None = None
 
-    def __post_init__(self):
+    def __post_init__(self) -> None:
         if not isinstance(self.name, str):
             raise LiquidError(f"liquid name must be text, not {type(self.name).__name__}")
         object.__setattr__(self, "density", _density(self.density))
@@ -169,9 +170,9 @@ class Liquid:
 @functools.lru_cache(maxsize=1)
 def _boiling_point() -> float:
     """Boiling point of pure water at one atmosphere [deg C], IAPWS-95."""
-    import iapws
+    import iapws  # type: ignore[import-untyped]
 
-    return iapws.IAPWS95(P=ATMOSPHERE / 1e6, x=0).T - 273.15
+    return float(iapws.IAPWS95(P=ATMOSPHERE / 1e6, x=0).T) - 273.15
 
 
 @functools.lru_cache(maxsize=512)
@@ -324,7 +325,7 @@ def seawater(temperature: float = 10.0, salinity: float = 35.0) -> Liquid:
     >>> round(seawater(10, 35).density, 3)
     1026.826
     """
-    import gsw
+    import gsw  # type: ignore[import-untyped]
 
     t = _number(temperature, "seawater temperature")
     sa = _number(salinity, "seawater salinity")
@@ -367,7 +368,7 @@ def _listed(key: str, density: float, temperature: float, source: str) -> Liquid
 _CHECK_SUPPLIER = "check the supplier's data sheet"
 
 LISTED_LIQUIDS = MappingProxyType({
-    liquid.preset: liquid
+    str(liquid.preset): liquid
     for liquid in (
         _listed("diesel fuel", 835.0, 15.0,
                 "typical value inside the EN 590 limits of 820-845 kg/m3 at 15 C "
@@ -524,19 +525,19 @@ _DEFAULT_TEMPERATURE = {FRESH_WATER: 20.0, SEAWATER: 10.0}
 _DEFAULT_SALINITY = 35.0
 
 
-def _spec_number(spec: dict, key: str) -> float:
+def _spec_number(spec: dict[str, Any], key: str) -> float:
     value = spec[key]
     if isinstance(value, bool) or not isinstance(value, numbers.Real):
         raise LiquidError(
             f"'{key}' in fluid must be a number, not {type(value).__name__}"
         )
-    value = _float(value)
-    if not math.isfinite(value):
-        raise LiquidError(f"'{key}' in fluid must be a finite number, not {value}")
-    return value
+    number = _float(value)
+    if not math.isfinite(number):
+        raise LiquidError(f"'{key}' in fluid must be a finite number, not {number}")
+    return number
 
 
-def liquid_from_spec(spec: dict) -> Liquid:
+def liquid_from_spec(spec: object) -> Liquid:
     """The liquid described by a section file's ``fluid`` object.
 
     Parameters
@@ -628,7 +629,7 @@ def liquid_from_spec(spec: dict) -> Liquid:
     return liquid
 
 
-def liquid_to_spec(liquid: Liquid) -> dict:
+def liquid_to_spec(liquid: Liquid) -> dict[str, Any]:
     """The section file ``fluid`` object for `liquid`.
 
     Fresh water and seawater are written as presets with their inputs, so

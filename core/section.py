@@ -22,15 +22,19 @@ vertex indices and a location, so a drawing view can mark the spot.
 
 from __future__ import annotations
 
-from collections.abc import Sequence
+from collections.abc import Iterable, Sequence
 from dataclasses import dataclass, field
 from functools import cached_property
+from typing import TYPE_CHECKING, Any
 
 import numpy as np
 import numpy.typing as npt
 
 from . import limits
 from .number_input import number_text, range_text
+
+if TYPE_CHECKING:  # pragma: no cover - types only
+    from .fill import VolumeCurve
 
 __all__ = [
     "AXIS",
@@ -72,7 +76,9 @@ class SectionError(ValueError):
         A point [m] near the fault, for marking it on a drawing.
     """
 
-    def __init__(self, message, *, edges=(), vertices=(), location=None):
+    def __init__(self, message: str, *, edges: Iterable[int] = (),
+                 vertices: Iterable[int] = (),
+                 location: Sequence[float] | FloatArray | None = None) -> None:
         super().__init__(message)
         self.edges = tuple(int(i) for i in edges)
         self.vertices = tuple(int(i) for i in vertices)
@@ -93,23 +99,23 @@ class EdgeGeometry:
     :attr:`Section.part_names`.
     """
 
-    x0: np.ndarray
-    z0: np.ndarray
-    dx: np.ndarray
-    dz: np.ndarray
-    length: np.ndarray
-    nx: np.ndarray
-    nz: np.ndarray
-    z_low: np.ndarray
-    inv_abs_dz: np.ndarray
-    falls: np.ndarray
-    part_index: np.ndarray
-    vertex_z: np.ndarray
+    x0: FloatArray
+    z0: FloatArray
+    dx: FloatArray
+    dz: FloatArray
+    length: FloatArray
+    nx: FloatArray
+    nz: FloatArray
+    z_low: FloatArray
+    inv_abs_dz: FloatArray
+    falls: FloatArray
+    part_index: npt.NDArray[np.intp]
+    vertex_z: FloatArray
     """Vertex heights [m] with the first repeated at the end (N + 1 values)."""
 
 
-def _readonly(a):
-    a = np.array(a, dtype=np.float64, copy=True)
+def _readonly(values: npt.ArrayLike) -> FloatArray:
+    a = np.array(values, dtype=np.float64, copy=True)
     a.setflags(write=False)
     return a
 
@@ -143,8 +149,8 @@ class Section:
     (6.0, 3.0, 4)
     """
 
-    outline: np.ndarray
-    parts: tuple
+    outline: FloatArray
+    parts: tuple[str, ...]
     kind: str = "plane"
     width: float = 1.0
     name: str = ""
@@ -153,7 +159,8 @@ class Section:
 
     # ------------------------------------------------------------------ build
     @classmethod
-    def build(cls, outline, parts=None, kind="plane", width=1.0, name=""):
+    def build(cls, outline: npt.ArrayLike, parts: Sequence[str] | None = None,
+              kind: str = "plane", width: float = 1.0, name: str = "") -> Section:
         """Validate the inputs and return a :class:`Section`.
 
         Parameters
@@ -192,59 +199,60 @@ class Section:
                    name=str(name), orientation=_orientation(pts, nxt))
 
     # ---------------------------------------------------------- equality
-    def __eq__(self, other):
+    def __eq__(self, other: object) -> bool:
         if not isinstance(other, Section):
             return NotImplemented
         return (self.kind == other.kind and self.width == other.width
                 and self.name == other.name and self.parts == other.parts
                 and np.array_equal(self.outline, other.outline))
 
-    __hash__ = None
+    __hash__ = None  # type: ignore[assignment]  # equal by value, holds an array
 
-    def replace(self, **changes):
+    def replace(self, **changes: Any) -> Section:
         """Return a validated copy with some fields changed (see :meth:`build`)."""
-        args = dict(outline=self.outline, parts=self.parts, kind=self.kind,
-                    width=self.width, name=self.name)
+        args: dict[str, Any] = dict(outline=self.outline, parts=self.parts, kind=self.kind,
+                                    width=self.width, name=self.name)
         args.update(changes)
         return Section.build(**args)
 
     # ---------------------------------------------------------- properties
     @property
-    def n_edges(self):
+    def n_edges(self) -> int:
         """Number of edges (= number of vertices)."""
         return int(self.outline.shape[0])
 
     @property
-    def is_axisymmetric(self):
+    def is_axisymmetric(self) -> bool:
+        """True for a half-section revolved about x = 0."""
         return self.kind == "axisymmetric"
 
     @cached_property
-    def part_names(self):
+    def part_names(self) -> tuple[str, ...]:
         """Distinct part names, in order of first appearance (tuple of str)."""
         return tuple(dict.fromkeys(self.parts))
 
     @cached_property
-    def loaded_part_names(self):
+    def loaded_part_names(self) -> tuple[str, ...]:
         """Part names that carry load: all but ``open`` and ``axis``."""
         return tuple(p for p in self.part_names if p not in (OPEN, AXIS))
 
     @cached_property
-    def z_min(self):
+    def z_min(self) -> float:
         """Height of the lowest vertex [m]."""
         return float(self.outline[:, 1].min())
 
     @cached_property
-    def z_max(self):
+    def z_max(self) -> float:
         """Height of the highest vertex [m]."""
         return float(self.outline[:, 1].max())
 
     @cached_property
-    def is_open(self):
+    def is_open(self) -> bool:
         """True if any edge is an ``open`` part (the section can spill)."""
         return OPEN in self.parts
 
     @cached_property
-    def spill_level(self):
+    def spill_level(self) -> float | None:
         """Lowest point of all ``open`` edges [m], or None for a closed section."""
         if not self.is_open:
             return None
@@ -253,13 +261,14 @@ class Section:
         return float(min(z[idx].min(), z[(idx + 1) % self.n_edges].min()))
 
     @cached_property
-    def top_level(self):
+    def top_level(self) -> float:
         """The highest level the cavity can be filled to without spilling or
         pressurising: the spill level if open, else the top of the outline [m]."""
-        return self.spill_level if self.is_open else self.z_max
+        spill = self.spill_level
+        return self.z_max if spill is None else spill
 
     @cached_property
-    def area(self):
+    def area(self) -> float:
         """Enclosed area of the outline [m2], positive.
 
         .. math:: A = \\tfrac12 \\left|\\sum_i (x_i z_{i+1} - x_{i+1} z_i)\\right|
@@ -268,14 +277,15 @@ class Section:
         return 0.5 * abs(float(np.dot(x, np.roll(z, -1)) - np.dot(np.roll(x, -1), z)))
 
     @cached_property
-    def volume_curve(self):
+    def volume_curve(self) -> VolumeCurve:
         """Volumes at the distinct vertex heights (see :func:`wetline.core.fill.volume_curve`)."""
         from .fill import volume_curve
 
-        return volume_curve(self)
+        curve: VolumeCurve = volume_curve(self)
+        return curve
 
     @cached_property
-    def geometry(self):
+    def geometry(self) -> EdgeGeometry:
         """Level-independent per-edge arrays (:class:`EdgeGeometry`)."""
         pts = self.outline
         x0 = np.ascontiguousarray(pts[:, 0])
@@ -457,7 +467,7 @@ def _orientation(pts: FloatArray, nxt: FloatArray) -> float:
     return 1.0 if twice_area > 0 else -1.0
 
 
-def _distinct_up_to_3(pts):
+def _distinct_up_to_3(pts: FloatArray) -> int:
     """Number of distinct vertices, counted up to 3 (O(N), no sort)."""
     if pts.shape[0] == 0:
         return 0
@@ -468,9 +478,9 @@ def _distinct_up_to_3(pts):
     return 2 if (same0 | (pts == other).all(axis=1)).all() else 3
 
 
-def _check_simple(pts, size):
+def _check_simple(pts: FloatArray, size: float) -> None:
     """Raise SectionError unless the closed polygon ``pts`` is simple."""
-    import shapely
+    import shapely  # type: ignore[import-untyped]
 
     ring = shapely.LinearRing(pts)
     if shapely.is_simple(ring):

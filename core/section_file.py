@@ -31,7 +31,7 @@ import math
 import os
 import re
 import stat
-from collections.abc import Collection
+from collections.abc import Collection, Iterable
 from decimal import Decimal, localcontext
 from pathlib import Path
 from typing import Any
@@ -82,7 +82,9 @@ class SectionFileError(ValueError):
     :class:`~wetline.core.section.SectionError`, when that is the cause.
     """
 
-    def __init__(self, message, *, edges=(), vertices=(), location=None):
+    def __init__(self, message: str, *, edges: Iterable[int] = (),
+                 vertices: Iterable[int] = (),
+                 location: tuple[float, float] | None = None) -> None:
         super().__init__(message)
         self.edges = tuple(edges)
         self.vertices = tuple(vertices)
@@ -153,7 +155,7 @@ def case_from_dict(data: object) -> Case:
         raise SectionFileError(str(exc)) from None
 
 
-def _required(data: dict, key: str, hint: str = "") -> object:
+def _required(data: dict[str, Any], key: str, hint: str = "") -> object:
     """``data[key]``, or a "missing key" SectionFileError."""
     if key not in data:
         raise SectionFileError(f"missing key {key!r}{hint}")
@@ -186,14 +188,14 @@ def _read_header(obj: object) -> dict[str, Any]:
     return data
 
 
-def _read_name(data: dict) -> str:
+def _read_name(data: dict[str, Any]) -> str:
     name = data.get("name", "")
     if not isinstance(name, str):
         raise SectionFileError("name must be text")
     return name
 
 
-def _read_length_unit(data: dict) -> tuple[str, float]:
+def _read_length_unit(data: dict[str, Any]) -> tuple[str, float]:
     """The file's length unit and metres in one of it."""
     unit = data.get("length_unit", "m")
     if not isinstance(unit, str):
@@ -204,7 +206,7 @@ def _read_length_unit(data: dict) -> tuple[str, float]:
         raise SectionFileError(f"length_unit: {exc}") from None
 
 
-def _read_geometry(data: dict, unit: str, scale: float) -> tuple[str, float]:
+def _read_geometry(data: dict[str, Any], unit: str, scale: float) -> tuple[str, float]:
     """The kind and the width [m] (1 of the file's unit if not given)."""
     geometry = _object(_required(data, "geometry"), _GEOMETRY_KEYS, "geometry.")
     kind = _required(geometry, "kind", " in geometry")
@@ -226,7 +228,7 @@ def _read_geometry(data: dict, unit: str, scale: float) -> tuple[str, float]:
     return str(kind), metres
 
 
-def _read_outline(data: dict) -> list:
+def _read_outline(data: dict[str, Any]) -> list[list[float]]:
     """The outline's vertices as the file gives them (checked pairs)."""
     outline = _required(data, "outline")
     if not isinstance(outline, list):
@@ -241,15 +243,16 @@ def _read_outline(data: dict) -> list:
     return outline
 
 
-def _read_parts(data: dict) -> list[str] | None:
+def _read_parts(data: dict[str, Any]) -> list[str] | None:
     parts = data.get("parts")
     if parts is not None:
         if not isinstance(parts, list) or not all(isinstance(p, str) for p in parts):
             raise SectionFileError("parts must be a list of names, one per edge")
-    return parts
+    return None if parts is None else list(parts)
 
 
-def _check_coordinates(outline: list, pts: FloatArray, unit: str, scale: float) -> None:
+def _check_coordinates(outline: list[list[float]], pts: FloatArray, unit: str,
+                       scale: float) -> None:
     """Every coordinate within +-COORDINATE_LIMIT [m], and 0 or at least
     SMALLEST_COORDINATE [m] in size; the message shows the file's number."""
     size = np.abs(pts) * scale
@@ -268,7 +271,7 @@ def _check_coordinates(outline: list, pts: FloatArray, unit: str, scale: float) 
                            "in size", vertices=(i,))
 
 
-def _read_section(data: dict, kind: str, width: float, name: str, unit: str,
+def _read_section(data: dict[str, Any], kind: str, width: float, name: str, unit: str,
                   scale: float) -> Section:
     """The validated Section of the outline and parts; ``width`` [m]."""
     outline = _read_outline(data)
@@ -286,14 +289,14 @@ def _read_section(data: dict, kind: str, width: float, name: str, unit: str,
                                location=exc.location) from None
 
 
-def _read_fluid(data: dict) -> Liquid:
+def _read_fluid(data: dict[str, Any]) -> Liquid:
     try:
         return liquid_from_spec(_required(data, "fluid"))
     except LiquidError as exc:
         raise SectionFileError(str(exc)) from None
 
 
-def _read_gravity(data: dict) -> float:
+def _read_gravity(data: dict[str, Any]) -> float:
     if "gravity" not in data:
         return STANDARD_GRAVITY
     gravity = _number(data, "gravity", "", ranged=True)
@@ -306,7 +309,7 @@ def _read_gravity(data: dict) -> float:
     return gravity
 
 
-def _read_fill(data: dict, unit: str, scale: float) -> tuple[float | None, float | None]:
+def _read_fill(data: dict[str, Any], unit: str, scale: float) -> tuple[float | None, float | None]:
     """``(level [m], None)`` or ``(None, volume [m3])``."""
     fill = _object(_required(data, "fill", " (give \"level\" or \"volume\")"), _FILL_KEYS,
                    "fill.")
@@ -363,7 +366,7 @@ def _read_resistance(name: str, obj: object, section: Section) -> PartResistance
     return PartResistance(**values)
 
 
-def _read_report(report):
+def _read_report(report: object) -> ReportInfo:
     report = _object(report, _REPORT_KEYS, "report.")
     for key, v in report.items():
         if not isinstance(v, str):
@@ -375,13 +378,15 @@ class _Exact(float):
     """A float read from file text that remembers the text, so a length in
     another unit converts to metres from the exact decimal written."""
 
-    def __new__(cls, text):
+    text: str
+
+    def __new__(cls, text: str) -> _Exact:
         self = super().__new__(cls, text)
         self.text = text
         return self
 
 
-def _to_metres(value, scale):
+def _to_metres(value: float, scale: float) -> float:
     """``value`` in a unit of ``scale`` metres, converted to metres with one
     correctly rounded decimal product (a binary multiply can miss by an ulp:
     2300 * 0.001 = 2.3000000000000003)."""
@@ -391,7 +396,7 @@ def _to_metres(value, scale):
     return float(exact * Decimal(repr(scale)))
 
 
-def _decimal_text(d):
+def _decimal_text(d: Decimal) -> str:
     """Plain JSON text of a Decimal: no trailing zeros, no exponent for
     ordinary magnitudes."""
     d = d.normalize()
@@ -402,7 +407,7 @@ def _decimal_text(d):
     return f"{d:e}"
 
 
-def _length_text(v, scale=1.0):
+def _length_text(v: float, scale: float = 1.0) -> str:
     """The number to write for the SI length ``v`` [m] in a unit of ``scale``
     metres: the shortest decimal (15 significant digits where they suffice,
     at most 25) that :func:`_to_metres` reads back as exactly ``v``."""
@@ -418,15 +423,15 @@ def _length_text(v, scale=1.0):
     return _decimal_text(y)  # pragma: no cover - 25 digits always suffice
 
 
-def case_to_dict(case):
+def case_to_dict(case: Case) -> dict[str, Any]:
     """The section-file object of ``case``: version 1 unless the case holds
     uplift or report data, which need version 2."""
     scale = length_factor(case.length_unit)
     s = case.section
-    geometry = {"kind": s.kind}
+    geometry: dict[str, Any] = {"kind": s.kind}
     if s.kind == "plane":
         geometry["width"] = float(_length_text(s.width, scale))
-    data = {
+    data: dict[str, Any] = {
         "format": FORMAT,
         "version": 2 if case.uses_version_2 else 1,
         "name": s.name,
@@ -443,7 +448,7 @@ def case_to_dict(case):
     else:
         data["fill"] = {"volume": case.fill_volume}
     if case.uses_version_2:
-        uplift = {"required_factor": case.required_uplift_factor}
+        uplift: dict[str, Any] = {"required_factor": case.required_uplift_factor}
         if case.resistances:
             uplift["parts"] = {name: {"self_weight": r.self_weight,
                                       "holding_down": r.holding_down}
@@ -456,7 +461,7 @@ def case_to_dict(case):
     return data
 
 
-def dumps_case(case):
+def dumps_case(case: Case) -> str:
     """The section file text of ``case``: JSON, one vertex per line, lengths
     written so that reading gives back exactly the same case."""
     data = case_to_dict(case)
@@ -469,7 +474,7 @@ def dumps_case(case):
         data["geometry"] = {"kind": s.kind, "width": _Raw(_length_text(s.width, scale))}
     parts = data.pop("parts")
     fill = data.pop("fill")
-    if "level" in fill:
+    if case.fill_level is not None:
         fill = {"level": _Raw(_length_text(case.fill_level, scale))}
     tail = {k: data.pop(k) for k in ("uplift", "report") if k in data}
     lines = ["{"]
@@ -487,7 +492,7 @@ class _Raw(str):
     """Number text to write as it is."""
 
 
-def _dumps(obj):
+def _dumps(obj: object) -> str:
     """json.dumps for small objects whose numbers may be :class:`_Raw` text."""
     if isinstance(obj, _Raw):
         return str(obj)
@@ -648,7 +653,7 @@ def read_section_file(path: str | os.PathLike[str]) -> Case:
                                vertices=exc.vertices, location=exc.location) from None
 
 
-def write_section_file(case, path):
+def write_section_file(case: Case, path: str | os.PathLike[str]) -> None:
     """Write ``case`` to ``path`` atomically (a temporary file in the same
     folder, then a rename), so a failed save never leaves a half file.
 

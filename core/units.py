@@ -34,11 +34,13 @@ import dataclasses
 import functools
 import math
 import re
+from collections.abc import Sequence
 from dataclasses import dataclass
 from decimal import Decimal
-from typing import TYPE_CHECKING, Any
+from typing import TYPE_CHECKING, Any, overload
 
 import numpy as np
+import numpy.typing as npt
 
 if TYPE_CHECKING:  # pragma: no cover - types only
     import pint
@@ -65,7 +67,7 @@ __all__ = [  # and ``ureg``, built on first use (module __getattr__)
 ]
 
 @functools.lru_cache(maxsize=1)
-def registry() -> pint.UnitRegistry:
+def registry() -> pint.UnitRegistry[Any]:
     """The program's single pint registry, built on first use (about 0.15 s).
 
     Create no other: quantities from two registries cannot be combined.
@@ -73,7 +75,7 @@ def registry() -> pint.UnitRegistry:
     """
     import pint
 
-    reg = pint.UnitRegistry()
+    reg: pint.UnitRegistry[Any] = pint.UnitRegistry()
     pint.set_application_registry(reg)
     return reg
 
@@ -160,7 +162,18 @@ def _length_factor(unit: str) -> float:
     return _round_factor(ureg.Quantity(1.0, parsed).m_as(metre))
 
 
-def to_si_exactly(values, factor):
+FloatArray = npt.NDArray[np.float64]
+
+
+@overload
+def to_si_exactly(values: float, factor: float) -> float: ...
+
+
+@overload
+def to_si_exactly(values: FloatArray | Sequence[float], factor: float) -> FloatArray: ...
+
+
+def to_si_exactly(values: float | FloatArray | Sequence[float], factor: float) -> Any:
     """``values * factor``, each product correctly rounded.
 
     A binary multiply can miss the nearest float by an ulp (2300 * 0.001 is
@@ -186,10 +199,12 @@ def to_si_exactly(values, factor):
     (2.3, 2.3000000000000003)
     """
     if factor == 1.0:
-        return values if np.ndim(values) else float(values)
+        if np.ndim(values):
+            return np.asarray(values, dtype=np.float64)
+        return float(values)  # type: ignore[arg-type]
     f = Decimal(repr(float(factor)))
     if np.ndim(values) == 0:
-        return float(Decimal(repr(float(values))) * f)
+        return float(Decimal(repr(float(values))) * f)  # type: ignore[arg-type]
     arr = np.asarray(values, dtype=np.float64)
     flat = [float(Decimal(repr(v)) * f) if math.isfinite(v) else v * factor
             for v in arr.ravel().tolist()]
@@ -295,7 +310,8 @@ class DisplayUnits:
             raise UnitError(
                 f"unknown quantity '{quantity}' (known: {', '.join(QUANTITIES)})"
             )
-        return getattr(self, quantity)
+        unit: DisplayUnit = getattr(self, quantity)
+        return unit
 
     def label(self, quantity: str) -> str:
         """Plain-text label of the display unit of `quantity`."""
@@ -305,7 +321,13 @@ class DisplayUnits:
         """SI value of one display unit of `quantity` [SI]."""
         return self.unit(quantity).factor
 
-    def to_display(self, value_si, quantity: str):
+    @overload
+    def to_display(self, value_si: float, quantity: str) -> float: ...
+
+    @overload
+    def to_display(self, value_si: FloatArray, quantity: str) -> FloatArray: ...
+
+    def to_display(self, value_si: float | FloatArray, quantity: str) -> Any:
         """Convert `value_si` (float or numpy array, SI) to display units.
 
         Parameters
@@ -322,7 +344,13 @@ class DisplayUnits:
         """
         return value_si / self.unit(quantity).factor
 
-    def from_display(self, value, quantity: str):
+    @overload
+    def from_display(self, value: float, quantity: str) -> float: ...
+
+    @overload
+    def from_display(self, value: FloatArray | Sequence[float], quantity: str) -> FloatArray: ...
+
+    def from_display(self, value: float | FloatArray | Sequence[float], quantity: str) -> Any:
         """Convert `value` from this system's unit of `quantity` to SI.
 
         Inverse of :meth:`to_display`. Each product is correctly rounded

@@ -20,10 +20,10 @@ import contextlib, io, json, sys
 from wetline.app.cli.main import main
 with contextlib.redirect_stdout(io.StringIO()) as out:
     status = main(["solve", sys.argv[1], "--json"])
-heavy = sorted({m for m in sys.modules for h in %r if m == h or m.startswith(h + ".")})
+heavy = sorted({m for m in sys.modules for h in HEAVY if m == h or m.startswith(h + ".")})
 print(json.dumps({"status": status, "heavy": heavy, "weight": json.loads(out.getvalue())[
     "fluid_weight"]}))
-""" % (HEAVY,)
+""".replace("HEAVY", repr(HEAVY))
 
 
 def test_solve_imports_nothing_heavy(sample_path):
