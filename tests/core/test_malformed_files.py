@@ -352,3 +352,15 @@ def test_mutated_numbers_are_refused_in_one_line_or_give_finite_results(sample_t
     assert np.isfinite(np.asarray(table.rows, dtype=float)).all()
     for result in case.uplift():
         assert math.isfinite(result.worst_uplift) and math.isfinite(result.resistance)
+
+
+@pytest.mark.parametrize("value", [10 ** 400, -(10 ** 400)])
+def test_an_integer_beyond_any_float_given_as_a_value(value):
+    # As a parsed object (not text): float() of it raises OverflowError.
+    from wetline.core.liquids import liquid_from_spec
+
+    finite = r"^'density' in fluid must be a finite number, not -?inf$"
+    with pytest.raises(LiquidError, match=finite):
+        liquid_from_spec({"density": value})
+    with pytest.raises(LiquidError, match="must be a finite number"):
+        liquid_from_spec({"preset": "fresh water", "temperature": value})
