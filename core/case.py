@@ -9,13 +9,19 @@ from __future__ import annotations
 
 import math
 from dataclasses import dataclass, replace
+from typing import TYPE_CHECKING, Any
 
-from . import STANDARD_GRAVITY
+from . import STANDARD_GRAVITY, limits
 from .fill import FillError, capacity, level_for_volume
 from .hydrostatics import solve
 from .liquids import Liquid, fresh_water
+from .number_input import range_text
 from .section import Section
 from .uplift import DEFAULT_REQUIRED_FACTOR, PartResistance
+
+if TYPE_CHECKING:  # pragma: no cover - types only
+    from .hydrostatics import Solution
+    from .uplift import UpliftResult
 
 __all__ = ["Case", "CaseError", "ReportInfo"]
 
@@ -28,13 +34,14 @@ class ReportInfo:
     job_reference: str = ""
     prepared_by: str = ""
 
-    def __post_init__(self):
+    def __post_init__(self) -> None:
         for name in ("project", "job_reference", "prepared_by"):
             if not isinstance(getattr(self, name), str):
                 raise CaseError(f"report {name.replace('_', ' ')} must be text")
 
     @property
-    def is_empty(self):
+    def is_empty(self) -> bool:
+        """True if no header field is filled in."""
         return not (self.project or self.job_reference or self.prepared_by)
 
 
@@ -75,15 +82,14 @@ class Case:
     fill_level: float | None = None
     fill_volume: float | None = None
     length_unit: str = "m"
-    resistances: tuple = ()
+    resistances: tuple[tuple[str, PartResistance], ...] = ()
     required_uplift_factor: float = DEFAULT_REQUIRED_FACTOR
     report: ReportInfo = ReportInfo()
 
-    def __post_init__(self):
-        res = self.resistances
-        if isinstance(res, dict):
-            res = tuple(res.items())
-        res = tuple(sorted((str(k), v) for k, v in res))
+    def __post_init__(self) -> None:
+        given: Any = self.resistances  # a dict is accepted too
+        pairs = given.items() if isinstance(given, dict) else given
+        res = tuple(sorted(((str(k), v) for k, v in pairs), key=lambda kv: kv[0]))
         for k, v in res:
             if not isinstance(v, PartResistance):
                 raise CaseError(f"resistance of part {k!r} must be a PartResistance")
@@ -94,10 +100,18 @@ class Case:
         g = self.gravity
         if isinstance(g, bool) or not isinstance(g, (int, float)) or not math.isfinite(g) or g <= 0:
             raise CaseError(f"gravity must be a positive number, not {g!r}")
+        lo, hi = limits.GRAVITY_RANGE
+        if not lo <= g <= hi:
+            raise CaseError(f"gravity must be {range_text(lo, hi, 'm/s2')}, not {g:g}")
         if (self.fill_level is None) == (self.fill_volume is None):
             raise CaseError("a fill gives exactly one of level and volume")
-        if self.fill_level is not None and not math.isfinite(self.fill_level):
-            raise CaseError(f"fill level must be a finite number, not {self.fill_level!r}")
+        if self.fill_level is not None:
+            level, limit = self.fill_level, limits.COORDINATE_LIMIT
+            if not math.isfinite(level):
+                raise CaseError(f"fill level must be a finite number, not {level!r}")
+            if not -limit <= level <= limit:
+                raise CaseError(f"fill level must be {range_text(-limit, limit, 'm')}, "
+                                f"not {level:g} m")
         if self.fill_volume is not None:
             v = self.fill_volume
             if not math.isfinite(v) or v < 0:
@@ -110,13 +124,13 @@ class Case:
                     f"({cap:.6g} m3)")
 
     @classmethod
-    def default(cls, section, level=None):
+    def default(cls, section: Section, level: float | None = None) -> Case:
         """A case with fresh water at 20 C, standard gravity and the given
         level (default: the section's top level)."""
         return cls(section=section, liquid=fresh_water(20.0),
                    fill_level=section.top_level if level is None else float(level))
 
-    def __eq__(self, other):
+    def __eq__(self, other: object) -> bool:
         if not isinstance(other, Case):
             return NotImplemented
         return (self.section == other.section and self.liquid == other.liquid
@@ -127,33 +141,36 @@ class Case:
                 and self.required_uplift_factor == other.required_uplift_factor
                 and self.report == other.report)
 
-    __hash__ = None
+    __hash__ = None  # type: ignore[assignment]  # equal by value, holds a Section
 
     @property
-    def name(self):
+    def name(self) -> str:
+        """The section's name."""
         return self.section.name
 
     @property
-    def level(self):
+    def level(self) -> float:
         """The requested level [m]: as given, or solved from the volume."""
         if self.fill_level is not None:
             return self.fill_level
-        return level_for_volume(self.section, self.fill_volume)
+        level: float = level_for_volume(self.section, self.fill_volume)
+        return level
 
-    def solve(self, level=None):
+    def solve(self, level: float | None = None) -> Solution:
         """Loads at the case's fill, or at ``level`` [m] if given."""
-        return solve(self.section, self.level if level is None else level,
-                     self.liquid.density, self.gravity)
+        solution: Solution = solve(self.section, self.level if level is None else level,
+                                   self.liquid.density, self.gravity)
+        return solution
 
-    def with_level(self, level):
+    def with_level(self, level: float) -> Case:
         """Copy filled to ``level`` [m]."""
         return replace(self, fill_level=float(level), fill_volume=None)
 
-    def with_volume(self, volume):
+    def with_volume(self, volume: float) -> Case:
         """Copy filled with ``volume`` [m3]."""
         return replace(self, fill_level=None, fill_volume=float(volume))
 
-    def with_section(self, section):
+    def with_section(self, section: Section) -> Case:
         """Copy with another section; a fill by volume that the new section
         cannot hold becomes a fill to its top level."""
         if self.fill_volume is not None and self.fill_volume > capacity(section):
@@ -162,24 +179,24 @@ class Case:
         return replace(self, section=section)
 
     @property
-    def resistance_map(self):
+    def resistance_map(self) -> dict[str, PartResistance]:
         """``{part: PartResistance}`` for the uplift check."""
         return dict(self.resistances)
 
     @property
-    def uses_version_2(self):
+    def uses_version_2(self) -> bool:
         """True if the case holds data that only format version 2 can store."""
         return bool(self.resistances or not self.report.is_empty
                     or self.required_uplift_factor != DEFAULT_REQUIRED_FACTOR)
 
-    def uplift(self, solution=None):
+    def uplift(self, solution: Solution | None = None) -> list[UpliftResult]:
         """The uplift check of every part with a resistance entered
         (list of :class:`~wetline.core.uplift.UpliftResult`)."""
         from .uplift import uplift_check
 
         return uplift_check(self, self.resistance_map, self.required_uplift_factor, solution)
 
-    def with_resistance(self, part, resistance):
+    def with_resistance(self, part: str, resistance: PartResistance | None) -> Case:
         """Copy with ``part`` held down by ``resistance`` (None removes it)."""
         res = self.resistance_map
         if resistance is None:
@@ -188,17 +205,22 @@ class Case:
             res[part] = resistance
         return replace(self, resistances=tuple(res.items()))
 
-    def with_required_uplift_factor(self, factor):
+    def with_required_uplift_factor(self, factor: float) -> Case:
+        """Copy with another required factor against uplift []."""
         return replace(self, required_uplift_factor=float(factor))
 
-    def with_report(self, report):
+    def with_report(self, report: ReportInfo) -> Case:
+        """Copy with other calculation sheet header fields."""
         return replace(self, report=report)
 
-    def with_liquid(self, liquid):
+    def with_liquid(self, liquid: Liquid) -> Case:
+        """Copy with another liquid."""
         return replace(self, liquid=liquid)
 
-    def with_gravity(self, gravity):
+    def with_gravity(self, gravity: float) -> Case:
+        """Copy with another acceleration of gravity [m/s2]."""
         return replace(self, gravity=float(gravity))
 
-    def with_length_unit(self, unit):
+    def with_length_unit(self, unit: str) -> Case:
+        """Copy that saves its coordinates in another length unit."""
         return replace(self, length_unit=str(unit))

@@ -17,6 +17,8 @@ __all__ = [
     "MAX_VERTICES",
     "EXTENT_RANGE",
     "COORDINATE_LIMIT",
+    "SMALLEST_COORDINATE",
+    "SMALLEST_RELATIVE_EXTENT",
     "DENSITY_RANGE",
     "GRAVITY_RANGE",
     "WIDTH_RANGE",
@@ -36,6 +38,15 @@ EXTENT_RANGE = (1e-6, 1e7)
 
 COORDINATE_LIMIT = 1e7
 """Largest magnitude of a coordinate or level [m]."""
+
+SMALLEST_COORDINATE = 1e-100
+"""Smallest magnitude of a coordinate other than 0 [m]: differences, squares
+and reciprocals of coordinates then stay normal, finite floats."""
+
+SMALLEST_RELATIVE_EXTENT = 1e-7
+"""Smallest width (height) of an outline as a fraction of its largest |x|
+(|z|) []: drawn farther from the origin, the differences of its coordinates
+lose more than about 2e-9 of their value to round-off."""
 
 DENSITY_RANGE = (1e-3, 1e5)
 """Densities accepted [kg/m3] (a light gas to well above any liquid metal)."""

@@ -31,6 +31,10 @@ import numbers
 import re
 from dataclasses import dataclass
 from types import MappingProxyType
+from typing import Any
+
+from . import limits
+from .number_input import range_text, shown
 
 __all__ = [
     "LiquidError",
@@ -72,21 +76,39 @@ class LiquidError(ValueError):
     """An impossible or unknown liquid; the one-line message says what is wrong."""
 
 
-def _number(value, what: str) -> float:
+def _number(value: object, what: str) -> float:
     """`value` as a finite float, or a :class:`LiquidError` naming `what`."""
     if isinstance(value, bool) or not isinstance(value, numbers.Real):
         raise LiquidError(f"{what} must be a number, not {type(value).__name__}")
-    value = float(value)
-    if not math.isfinite(value):
-        raise LiquidError(f"{what} must be a finite number, not {value}")
-    return value
+    number = _float(value)
+    if not math.isfinite(number):
+        raise LiquidError(f"{what} must be a finite number, not {number}")
+    return number
 
 
-def _positive(value, what: str) -> float:
-    value = _number(value, what)
-    if value <= 0.0:
-        raise LiquidError(f"{what} must be positive, not {value:g}")
-    return value
+def _float(value: numbers.Real) -> float:
+    """``float(value)``; an integer too large for a float is an infinity."""
+    try:
+        return float(value)
+    except OverflowError:  # an integer beyond the largest float
+        return -math.inf if value < 0 else math.inf
+
+
+def _positive(value: object, what: str) -> float:
+    number = _number(value, what)
+    if number <= 0.0:
+        raise LiquidError(f"{what} must be positive, not {number:g}")
+    return number
+
+
+def _density(value: object) -> float:
+    """A density [kg/m3] in :data:`wetline.core.limits.DENSITY_RANGE`."""
+    density = _positive(value, "density")
+    lo, hi = limits.DENSITY_RANGE
+    if not lo <= density <= hi:
+        raise LiquidError(f"density must be {range_text(lo, hi, 'kg/m3')}, "
+                          f"not {density:g} kg/m3")
+    return density
 
 
 @dataclass(frozen=True)
@@ -123,10 +145,10 @@ class Liquid:
     temperature: float | None = None
     salinity: float | None = None
 
-    def __post_init__(self):
+    def __post_init__(self) -> None:
         if not isinstance(self.name, str):
             raise LiquidError(f"liquid name must be text, not {type(self.name).__name__}")
-        object.__setattr__(self, "density", _positive(self.density, "density"))
+        object.__setattr__(self, "density", _density(self.density))
         for field in ("temperature", "salinity"):
             value = getattr(self, field)
             if value is not None:
@@ -148,17 +170,39 @@ class Liquid:
 @functools.lru_cache(maxsize=1)
 def _boiling_point() -> float:
     """Boiling point of pure water at one atmosphere [deg C], IAPWS-95."""
-    import iapws
+    import iapws  # type: ignore[import-untyped]
 
-    return iapws.IAPWS95(P=ATMOSPHERE / 1e6, x=0).T - 273.15
+    return float(iapws.IAPWS95(P=ATMOSPHERE / 1e6, x=0).T) - 273.15
 
 
 @functools.lru_cache(maxsize=512)
 def _fresh_water_state(temperature: float) -> tuple[float, bool]:
-    """IAPWS-95 density [kg/m3] at `temperature` [deg C] and 1 atm.
+    """IAPWS-95 density [kg/m3] at `temperature` [deg C] and 1 atm, and
+    whether it is the saturated liquid's (see :func:`iapws95_state`).
+
+    Temperatures on the 0.1 C grid from 0 to 100 C are looked up in
+    :mod:`wetline.core.fresh_water_table`, which holds exactly what
+    :func:`iapws95_state` gives there (importing ``iapws`` costs about 0.3 s
+    of scipy); any other temperature is computed.
+    """
+    tenths = round(temperature * 10.0)
+    if 0 <= tenths <= 1000 and tenths / 10 == temperature:
+        from .fresh_water_table import DENSITIES, FIRST_SATURATED
+
+        return DENSITIES[tenths], tenths >= FIRST_SATURATED
+    return iapws95_state(temperature)
+
+
+def iapws95_state(temperature: float) -> tuple[float, bool]:
+    """IAPWS-95 density [kg/m3] at `temperature` [deg C] and one atmosphere,
+    computed by ``iapws`` (no table).
 
     Returns ``(density, saturated)``; `saturated` is true when one atmosphere
     is below the saturation pressure and the saturated liquid is used.
+
+    References
+    ----------
+    IAPWS R6-95 (2018), via ``iapws.IAPWS95``.
     """
     import iapws
 
@@ -281,7 +325,7 @@ def seawater(temperature: float = 10.0, salinity: float = 35.0) -> Liquid:
     >>> round(seawater(10, 35).density, 3)
     1026.826
     """
-    import gsw
+    import gsw  # type: ignore[import-untyped]
 
     t = _number(temperature, "seawater temperature")
     sa = _number(salinity, "seawater salinity")
@@ -324,7 +368,7 @@ def _listed(key: str, density: float, temperature: float, source: str) -> Liquid
 _CHECK_SUPPLIER = "check the supplier's data sheet"
 
 LISTED_LIQUIDS = MappingProxyType({
-    liquid.preset: liquid
+    str(liquid.preset): liquid
     for liquid in (
         _listed("diesel fuel", 835.0, 15.0,
                 "typical value inside the EN 590 limits of 820-845 kg/m3 at 15 C "
@@ -481,19 +525,19 @@ _DEFAULT_TEMPERATURE = {FRESH_WATER: 20.0, SEAWATER: 10.0}
 _DEFAULT_SALINITY = 35.0
 
 
-def _spec_number(spec: dict, key: str) -> float:
+def _spec_number(spec: dict[str, Any], key: str) -> float:
     value = spec[key]
     if isinstance(value, bool) or not isinstance(value, numbers.Real):
         raise LiquidError(
             f"'{key}' in fluid must be a number, not {type(value).__name__}"
         )
-    value = float(value)
-    if not math.isfinite(value):
-        raise LiquidError(f"'{key}' in fluid must be a finite number, not {value}")
-    return value
+    number = _float(value)
+    if not math.isfinite(number):
+        raise LiquidError(f"'{key}' in fluid must be a finite number, not {number}")
+    return number
 
 
-def liquid_from_spec(spec: dict) -> Liquid:
+def liquid_from_spec(spec: object) -> Liquid:
     """The liquid described by a section file's ``fluid`` object.
 
     Parameters
@@ -548,6 +592,10 @@ def liquid_from_spec(spec: dict) -> Liquid:
         density = _spec_number(spec, "density")
         if density <= 0.0:
             raise LiquidError(f"fluid density must be positive, not {density:g} kg/m3")
+        lo, hi = limits.DENSITY_RANGE
+        if not lo <= density <= hi:
+            raise LiquidError(f"fluid density must be {range_text(lo, hi, 'kg/m3')}, "
+                              f"not {shown(spec['density'])} kg/m3")
         if name is not None:
             listed = LISTED_LIQUIDS.get(name)
             if listed is not None and listed.density == density:
@@ -581,7 +629,7 @@ def liquid_from_spec(spec: dict) -> Liquid:
     return liquid
 
 
-def liquid_to_spec(liquid: Liquid) -> dict:
+def liquid_to_spec(liquid: Liquid) -> dict[str, Any]:
     """The section file ``fluid`` object for `liquid`.
 
     Fresh water and seawater are written as presets with their inputs, so

@@ -16,8 +16,14 @@ edge's ``resultant`` is |fz| (the net force over the revolution is vertical).
 from __future__ import annotations
 
 import math
+from typing import TYPE_CHECKING, Any
 
 import numpy as np
+import numpy.typing as npt
+
+if TYPE_CHECKING:  # pragma: no cover - types only
+    from .case import Case
+    from .hydrostatics import Solution
 
 __all__ = ["ASSUMPTIONS", "CAUTIONS", "results_record"]
 
@@ -33,7 +39,7 @@ CAUTIONS = (
 )
 
 
-def _num(v):
+def _num(v: float | None) -> float | None:
     """Plain float, None for NaN, 0.0 for -0.0."""
     if v is None:
         return None
@@ -43,13 +49,13 @@ def _num(v):
     return v + 0.0
 
 
-def _point(p):
+def _point(p: npt.NDArray[np.float64] | None) -> list[float | None] | None:
     if p is None or not np.isfinite(p).all():
         return None
     return [_num(p[0]), _num(p[1])]
 
 
-def results_record(case, solution=None):
+def results_record(case: Case, solution: Solution | None = None) -> dict[str, Any]:
     """The results record of ``case`` (solved at its fill unless a
     ``solution`` is given), as a dict ready for :func:`json.dumps`.
 

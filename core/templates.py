@@ -46,15 +46,15 @@ class Template:
     title: str
     description: str
     kind: str
-    dimensions: tuple
-    _outline: Callable
-    _level: Callable
+    dimensions: tuple[Dimension, ...]
+    _outline: Callable[..., tuple[list[list[float]], list[str]]]
+    _level: Callable[[Section], float]
 
-    def defaults(self):
+    def defaults(self) -> dict[str, float]:
         """Default dimensions, ``{key: value [m]}``."""
         return {d.key: d.default for d in self.dimensions}
 
-    def build(self, name=None, width=1.0, **dims):
+    def build(self, name: str | None = None, width: float = 1.0, **dims: float) -> Section:
         """The section for the given dimensions [m] (defaults for any left out).
 
         ``width`` is the section's out-of-plane width [m] (plane only); no
@@ -82,22 +82,27 @@ class Template:
                              width=width if self.kind == "plane" else 1.0,
                              name=self.title if name is None else name)
 
-    def default_level(self, section):
+    def default_level(self, section: Section) -> float:
         """A first fill level for a section built from this template [m]."""
         return float(self._level(section))
 
 
-def _need(cond, message):
+def _need(cond: bool, message: str) -> None:
     if not cond:
         raise SectionError(message)
 
 
-def _open_tank(tank_width, height):
+Outline = tuple[list[list[float]], list[str]]
+"""Vertices [m] and part names of a template's outline."""
+
+
+def _open_tank(tank_width: float, height: float) -> Outline:
     return ([[0, 0], [tank_width, 0], [tank_width, height], [0, height]],
             ["floor", "wall", "open", "wall"])
 
 
-def _flared_hopper(top_width, outlet_width, hopper_height, upright_height):
+def _flared_hopper(top_width: float, outlet_width: float, hopper_height: float,
+                   upright_height: float) -> Outline:
     _need(outlet_width < top_width, "the outlet must be narrower than the top")
     a = (top_width - outlet_width) / 2
     b = (top_width + outlet_width) / 2
@@ -107,7 +112,8 @@ def _flared_hopper(top_width, outlet_width, hopper_height, upright_height):
             ["floor", "hopper", "wall", "open", "wall", "hopper"])
 
 
-def _chamber_under_riser(chamber_width, chamber_height, riser_width, riser_height):
+def _chamber_under_riser(chamber_width: float, chamber_height: float, riser_width: float,
+                         riser_height: float) -> Outline:
     _need(riser_width < chamber_width, "the riser must be narrower than the chamber")
     a = (chamber_width - riser_width) / 2
     b = (chamber_width + riser_width) / 2
@@ -117,7 +123,8 @@ def _chamber_under_riser(chamber_width, chamber_height, riser_width, riser_heigh
             ["floor", "wall", "roof", "riser", "open", "riser", "roof", "wall"])
 
 
-def _sump_with_lid(well_width, well_depth, shaft_width, shaft_height):
+def _sump_with_lid(well_width: float, well_depth: float, shaft_width: float,
+                   shaft_height: float) -> Outline:
     _need(shaft_width < well_width, "the access shaft must be narrower than the wet well")
     d, t = well_depth, well_depth + shaft_height
     return ([[0, 0], [well_width, 0], [well_width, d], [shaft_width, d], [shaft_width, t],
@@ -125,12 +132,13 @@ def _sump_with_lid(well_width, well_depth, shaft_width, shaft_height):
             ["floor", "wall", "lid", "wall", "open", "wall"])
 
 
-def _closed_tank(tank_width, height):
+def _closed_tank(tank_width: float, height: float) -> Outline:
     return ([[0, 0], [tank_width, 0], [tank_width, height], [0, height]],
             ["floor", "wall", "roof", "wall"])
 
 
-def _cone_hopper(radius, outlet_radius, cone_height, shell_height):
+def _cone_hopper(radius: float, outlet_radius: float, cone_height: float,
+                 shell_height: float) -> Outline:
     _need(outlet_radius < radius, "the outlet must be smaller than the shell")
     t = cone_height + shell_height
     return ([[0, 0], [outlet_radius, 0], [radius, cone_height], [radius, t], [0, t]],
@@ -186,7 +194,7 @@ TEMPLATES = {
 """All templates by key, in the order a menu lists them."""
 
 
-def template(key):
+def template(key: str) -> Template:
     """The template called ``key``; SectionError naming the known ones."""
     try:
         return TEMPLATES[key]

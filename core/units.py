@@ -3,8 +3,15 @@
 Everything inside :mod:`core` is a plain SI float (m, m2, m3, Pa, N, N/m,
 kg/m3). Units are converted only at the edges: the length unit of a section
 file (:func:`length_factor`) and the units results are shown in
-(:class:`DisplayUnits`). Conversion factors come from pint once and are then
-plain floats, so the numerics never touch pint objects.
+(:class:`DisplayUnits`). Conversion factors are plain floats, so the
+numerics never touch pint objects.
+
+pint is the reference, but building its registry costs about 0.15 s of every
+start. The factors a common file and the two display systems need (mm, cm,
+m, in, ft; kPa, kN, psi, lbf ...) are therefore written out here, exactly as
+pint gives them after the rounding below (a test compares every one with
+pint); pint's registry (:func:`registry`, also ``ureg``) is built only when
+another unit must be parsed.
 
 Factors are rounded to 15 significant digits after pint computes them. pint
 chains definitions (foot = 12 inch = yard / 3 ...), which leaves the last
@@ -27,14 +34,22 @@ import dataclasses
 import functools
 import math
 import re
+from collections.abc import Sequence
 from dataclasses import dataclass
 from decimal import Decimal
+from typing import TYPE_CHECKING, Any, overload
 
 import numpy as np
-import pint
+import numpy.typing as npt
 
-__all__ = [
-    "ureg",
+if TYPE_CHECKING:  # pragma: no cover - types only
+    import pint
+
+__all__ = [  # and ``ureg``, built on first use (module __getattr__)
+    "registry",
+    "pint_factor",
+    "EXACT_LENGTH_FACTORS",
+    "DISPLAY_UNIT_DEFINITIONS",
     "UnitError",
     "length_factor",
     "to_si_exactly",
@@ -51,12 +66,30 @@ __all__ = [
     "length_display",
 ]
 
-ureg = pint.UnitRegistry()
-"""The program's single pint registry. Create no other: quantities from two
-registries cannot be combined."""
-pint.set_application_registry(ureg)
+@functools.lru_cache(maxsize=1)
+def registry() -> pint.UnitRegistry[Any]:
+    """The program's single pint registry, built on first use (about 0.15 s).
 
-_METRE = ureg.meter
+    Create no other: quantities from two registries cannot be combined.
+    ``wetline.core.units.ureg`` is the same object.
+    """
+    import pint
+
+    reg: pint.UnitRegistry[Any] = pint.UnitRegistry()
+    pint.set_application_registry(reg)
+    return reg
+
+
+def __getattr__(name: str) -> Any:
+    """``ureg``: the registry, built when first asked for (PEP 562)."""
+    if name == "ureg":
+        return registry()
+    raise AttributeError(f"module {__name__!r} has no attribute {name!r}")
+
+
+EXACT_LENGTH_FACTORS = {"m": 1.0, "mm": 0.001, "cm": 0.01, "in": 0.0254, "ft": 0.3048}
+"""Metres in one of the common length units, as :func:`length_factor` gets
+them from pint (1 in = 0.0254 m and 1 ft = 0.3048 m exactly, 1959)."""
 
 
 class UnitError(ValueError):
@@ -102,29 +135,45 @@ def length_factor(unit: str) -> float:
     """
     if not isinstance(unit, str):
         raise UnitError(f"a length unit must be text, not {type(unit).__name__}")
-    return _length_factor(unit.strip())
+    name = unit.strip()
+    exact = EXACT_LENGTH_FACTORS.get(name)
+    return exact if exact is not None else _length_factor(name)
 
 
 @functools.lru_cache(maxsize=128)
 def _length_factor(unit: str) -> float:
+    """:func:`length_factor` through pint."""
     if not unit:
         raise UnitError("no length unit given")
     # One unit name only: pint would also take expressions ("m/1", "m**1")
     # and ignore stray punctuation ("mm!"), which a file must not rely on.
     if not re.fullmatch(r"[A-Za-z_]+", unit):
         raise UnitError(f"unknown length unit '{unit}'")
+    ureg = registry()
     try:
         parsed = ureg.parse_units(unit)
     # pint's parser raises assorted types for malformed text (UndefinedUnitError,
     # TokenError, AssertionError, ZeroDivisionError ...); all mean "not a unit".
     except Exception:
         raise UnitError(f"unknown length unit '{unit}'") from None
-    if parsed.dimensionality != _METRE.dimensionality:
+    metre = ureg.meter
+    if parsed.dimensionality != metre.dimensionality:
         raise UnitError(f"'{unit}' is not a length unit")
-    return _round_factor(ureg.Quantity(1.0, parsed).m_as(_METRE))
+    return _round_factor(ureg.Quantity(1.0, parsed).m_as(metre))
 
 
-def to_si_exactly(values, factor):
+FloatArray = npt.NDArray[np.float64]
+
+
+@overload
+def to_si_exactly(values: float, factor: float) -> float: ...
+
+
+@overload
+def to_si_exactly(values: FloatArray | Sequence[float], factor: float) -> FloatArray: ...
+
+
+def to_si_exactly(values: float | FloatArray | Sequence[float], factor: float) -> Any:
     """``values * factor``, each product correctly rounded.
 
     A binary multiply can miss the nearest float by an ulp (2300 * 0.001 is
@@ -150,10 +199,12 @@ def to_si_exactly(values, factor):
     (2.3, 2.3000000000000003)
     """
     if factor == 1.0:
-        return values if np.ndim(values) else float(values)
+        if np.ndim(values):
+            return np.asarray(values, dtype=np.float64)
+        return float(values)  # type: ignore[arg-type]
     f = Decimal(repr(float(factor)))
     if np.ndim(values) == 0:
-        return float(Decimal(repr(float(values))) * f)
+        return float(Decimal(repr(float(values))) * f)  # type: ignore[arg-type]
     arr = np.asarray(values, dtype=np.float64)
     flat = [float(Decimal(repr(v)) * f) if math.isfinite(v) else v * factor
             for v in arr.ravel().tolist()]
@@ -189,10 +240,31 @@ class DisplayUnit:
     factor: float
 
 
-def _unit(pint_expression: str, label: str, si_unit: str) -> DisplayUnit:
-    """Build a :class:`DisplayUnit` with its factor from pint."""
-    factor = ureg.Quantity(1.0, pint_expression).m_as(si_unit)
-    return DisplayUnit(label=label, factor=_round_factor(factor))
+def pint_factor(pint_expression: str, si_unit: str) -> float:
+    """SI value of one ``pint_expression`` as pint gives it, rounded to 15
+    significant digits (see the module notes) [SI].
+
+    Examples
+    --------
+    >>> pint_factor("psi", "Pa")
+    6894.75729316836
+    """
+    return _round_factor(registry().Quantity(1.0, pint_expression).m_as(si_unit))
+
+
+def _unit(label: str, factor: float) -> DisplayUnit:
+    return DisplayUnit(label=label, factor=factor)
+
+
+DISPLAY_UNIT_DEFINITIONS = {
+    # label: (pint expression, SI unit) of every display unit below; a test
+    # checks each written factor against pint_factor(*definition).
+    "m": ("m", "m"), "m2": ("m**2", "m**2"), "m3": ("m**3", "m**3"), "L": ("L", "m**3"),
+    "kPa": ("kPa", "Pa"), "kN": ("kN", "N"), "kN/m": ("kN/m", "N/m"),
+    "kg/m3": ("kg/m**3", "kg/m**3"), "ft": ("ft", "m"), "ft2": ("ft**2", "m**2"),
+    "ft3": ("ft**3", "m**3"), "US gal": ("gallon", "m**3"), "psi": ("psi", "Pa"),
+    "lbf": ("lbf", "N"), "lbf/ft": ("lbf/ft", "N/m"), "lb/ft3": ("lb/ft**3", "kg/m**3"),
+}
 
 
 @dataclass(frozen=True)
@@ -238,7 +310,8 @@ class DisplayUnits:
             raise UnitError(
                 f"unknown quantity '{quantity}' (known: {', '.join(QUANTITIES)})"
             )
-        return getattr(self, quantity)
+        unit: DisplayUnit = getattr(self, quantity)
+        return unit
 
     def label(self, quantity: str) -> str:
         """Plain-text label of the display unit of `quantity`."""
@@ -248,7 +321,13 @@ class DisplayUnits:
         """SI value of one display unit of `quantity` [SI]."""
         return self.unit(quantity).factor
 
-    def to_display(self, value_si, quantity: str):
+    @overload
+    def to_display(self, value_si: float, quantity: str) -> float: ...
+
+    @overload
+    def to_display(self, value_si: FloatArray, quantity: str) -> FloatArray: ...
+
+    def to_display(self, value_si: float | FloatArray, quantity: str) -> Any:
         """Convert `value_si` (float or numpy array, SI) to display units.
 
         Parameters
@@ -265,7 +344,13 @@ class DisplayUnits:
         """
         return value_si / self.unit(quantity).factor
 
-    def from_display(self, value, quantity: str):
+    @overload
+    def from_display(self, value: float, quantity: str) -> float: ...
+
+    @overload
+    def from_display(self, value: FloatArray | Sequence[float], quantity: str) -> FloatArray: ...
+
+    def from_display(self, value: float | FloatArray | Sequence[float], quantity: str) -> Any:
         """Convert `value` from this system's unit of `quantity` to SI.
 
         Inverse of :meth:`to_display`. Each product is correctly rounded
@@ -281,28 +366,28 @@ class DisplayUnits:
 SI = DisplayUnits(
     name="si",
     title="SI",
-    length=_unit("m", "m", "m"),
-    area=_unit("m**2", "m2", "m**2"),
-    volume=_unit("m**3", "m3", "m**3"),
-    liquid_volume=_unit("L", "L", "m**3"),
-    pressure=_unit("kPa", "kPa", "Pa"),
-    force=_unit("kN", "kN", "N"),
-    force_per_length=_unit("kN/m", "kN/m", "N/m"),
-    density=_unit("kg/m**3", "kg/m3", "kg/m**3"),
+    length=_unit("m", 1.0),
+    area=_unit("m2", 1.0),
+    volume=_unit("m3", 1.0),
+    liquid_volume=_unit("L", 0.001),
+    pressure=_unit("kPa", 1000.0),
+    force=_unit("kN", 1000.0),
+    force_per_length=_unit("kN/m", 1000.0),
+    density=_unit("kg/m3", 1.0),
 )
 """SI display units: m, kPa, kN, kN/m, m3, L, kg/m3."""
 
 US = DisplayUnits(
     name="us",
     title="US customary",
-    length=_unit("ft", "ft", "m"),
-    area=_unit("ft**2", "ft2", "m**2"),
-    volume=_unit("ft**3", "ft3", "m**3"),
-    liquid_volume=_unit("gallon", "US gal", "m**3"),
-    pressure=_unit("psi", "psi", "Pa"),
-    force=_unit("lbf", "lbf", "N"),
-    force_per_length=_unit("lbf/ft", "lbf/ft", "N/m"),
-    density=_unit("lb/ft**3", "lb/ft3", "kg/m**3"),
+    length=_unit("ft", 0.3048),  # 1959 agreement: exact
+    area=_unit("ft2", 0.09290304),
+    volume=_unit("ft3", 0.028316846592),
+    liquid_volume=_unit("US gal", 0.003785411784),  # 231 in3, exact
+    pressure=_unit("psi", 6894.75729316836),  # lbf/in2, rounded to 15 digits
+    force=_unit("lbf", 4.4482216152605),  # 0.45359237 kg x 9.80665 m/s2, exact
+    force_per_length=_unit("lbf/ft", 14.5939029372064),
+    density=_unit("lb/ft3", 16.0184633739601),
 )
 """US customary display units: ft, psi, lbf, lbf/ft, ft3, US gal, lb/ft3."""
 

@@ -29,12 +29,21 @@ loads; for axisymmetric sections they are totals [N].
 from __future__ import annotations
 
 import math
+from collections.abc import Iterable, Mapping
 from dataclasses import dataclass
+from typing import TYPE_CHECKING
 
 import numpy as np
+import numpy.typing as npt
 
-from . import STANDARD_GRAVITY
+from . import STANDARD_GRAVITY, limits
 from .level_table import part_down_at
+from .number_input import number_text
+
+if TYPE_CHECKING:  # pragma: no cover - types only
+    from .case import Case
+    from .hydrostatics import Solution
+    from .section import Section
 
 __all__ = [
     "DEFAULT_REQUIRED_FACTOR",
@@ -73,17 +82,20 @@ class PartResistance:
     self_weight: float = 0.0
     holding_down: float = 0.0
 
-    def __post_init__(self):
+    def __post_init__(self) -> None:
         for name in ("self_weight", "holding_down"):
             v = getattr(self, name)
             if isinstance(v, bool) or not isinstance(v, (int, float)) or not math.isfinite(v):
                 raise ValueError(f"{name.replace('_', ' ')} must be a number, not {v!r}")
             if v < 0:
                 raise ValueError(f"{name.replace('_', ' ')} must be >= 0, not {v:g}")
+            if v > limits.FORCE_LIMIT:
+                raise ValueError(f"{name.replace('_', ' ')} must be at most "
+                                 f"{number_text(limits.FORCE_LIMIT)}, not {v:g}")
             object.__setattr__(self, name, float(v))
 
     @property
-    def total(self):
+    def total(self) -> float:
         """Self-weight plus holding-down resistance [N/m or N]."""
         return self.self_weight + self.holding_down
 
@@ -121,28 +133,28 @@ class UpliftResult:
     worst_factor: float
 
     @property
-    def ok(self):
+    def ok(self) -> bool:
         """True if the worst factor meets the required factor."""
         return self.worst_factor >= self.required_factor
 
     @property
-    def ok_now(self):
+    def ok_now(self) -> bool:
         """True if the factor at the current level meets the required one."""
         return self.factor >= self.required_factor
 
     @property
-    def verdict(self):
+    def verdict(self) -> str:
         """"OK" or "NOT OK" at the worst level, for reports."""
         return "OK" if self.ok else "NOT OK"
 
 
-def _ratio(resistance, uplift):
+def _ratio(resistance: float, uplift: float) -> float:
     if uplift <= 0:
         return math.inf
     return resistance / uplift
 
 
-def fill_range(section, level):
+def fill_range(section: Section, level: float) -> tuple[float, float]:
     """The range of levels the check covers [m]: from empty to the spill
     level (open sections) or to the higher of the roof and ``level``
     (closed sections, where a standpipe head may stand above the roof)."""
@@ -150,7 +162,8 @@ def fill_range(section, level):
     return section.z_min, top
 
 
-def worst_uplift(section, part, density, gravity=STANDARD_GRAVITY, *, z_lo=None, z_hi=None):
+def worst_uplift(section: Section, part: str, density: float, gravity: float = STANDARD_GRAVITY,
+                 *, z_lo: float | None = None, z_hi: float | None = None) -> tuple[float, float]:
     """Greatest upward load on ``part`` over a range of levels, and where.
 
     The part's downward load is a polynomial in the level between the heights
@@ -186,9 +199,9 @@ def worst_uplift(section, part, density, gravity=STANDARD_GRAVITY, *, z_lo=None,
     heights = np.unique(np.concatenate([zs[idx], zs[(idx + 1) % section.n_edges]]))
     inner = heights[(heights > z_lo) & (heights < z_hi)]
     bounds = np.concatenate([[z_lo], inner, [z_hi]])
-    lo, hi = bounds[:-1], bounds[1:]
+    band_lo, band_hi = bounds[:-1], bounds[1:]
     u = np.array([0.0, 1.0 / 3.0, 2.0 / 3.0, 1.0])
-    nodes = lo[:, None] + (hi - lo)[:, None] * u
+    nodes = band_lo[:, None] + (band_hi - band_lo)[:, None] * u
     y = -part_down_at(section, part, nodes.ravel(), density, gravity).reshape(nodes.shape)
     # Cubic through the 4 nodes of each band, as a0 + a1 u + a2 u^2 + a3 u^3.
     d1 = (y[:, 1] - y[:, 0]) * 3.0
@@ -197,20 +210,22 @@ def worst_uplift(section, part, density, gravity=STANDARD_GRAVITY, *, z_lo=None,
     a1 = d1 - d2 / 3.0 + 2.0 * d3 / 9.0
     a2 = d2 - d3
     a3 = d3
-    candidates = [bounds]
-    for k in range(lo.size):
+    candidates: list[npt.NDArray[np.float64]] = [bounds]
+    for k in range(band_lo.size):
         # roots of a1 + 2 a2 u + 3 a3 u^2 inside (0, 1)
-        roots = np.roots([3.0 * a3[k], 2.0 * a2[k], a1[k]]) if (a3[k] or a2[k]) else []
-        for r in np.atleast_1d(roots):
+        if not (a3[k] or a2[k]):
+            continue
+        for r in np.atleast_1d(np.roots([3.0 * a3[k], 2.0 * a2[k], a1[k]])):
             if abs(r.imag) < 1e-12 and 0.0 < r.real < 1.0:
-                candidates.append([lo[k] + (hi[k] - lo[k]) * r.real])
+                candidates.append(np.array([band_lo[k] + (band_hi[k] - band_lo[k]) * r.real]))
     cand = np.unique(np.concatenate(candidates))
     up = -part_down_at(section, part, cand, density, gravity)
     k = int(np.argmax(up))
     return float(cand[k]), max(float(up[k]), 0.0)
 
 
-def worst_uplifts(section, parts, density, gravity=STANDARD_GRAVITY):
+def worst_uplifts(section: Section, parts: Iterable[str], density: float,
+                  gravity: float = STANDARD_GRAVITY) -> dict[str, tuple[float, float]]:
     """:func:`worst_uplift` of each part over the levels from empty to the
     top level (spill level or roof), ``{part: (level [m], uplift [N])}``.
 
@@ -225,8 +240,10 @@ def worst_uplifts(section, parts, density, gravity=STANDARD_GRAVITY):
             for name in parts}
 
 
-def uplift_check(case, resistances, required_factor=DEFAULT_REQUIRED_FACTOR, solution=None,
-                 worst=None):
+def uplift_check(case: Case, resistances: Mapping[str, PartResistance],
+                 required_factor: float = DEFAULT_REQUIRED_FACTOR,
+                 solution: Solution | None = None,
+                 worst: Mapping[str, tuple[float, float]] | None = None) -> list[UpliftResult]:
     """Check every part that has a resistance entered.
 
     Parameters

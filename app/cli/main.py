@@ -17,21 +17,30 @@ Headless commands for batch work and scripts; they import no Qt (except
 ``wetline`` alone, or ``wetline FILE``, opens the desktop program.
 
 Bad input of any kind ends with exit status 2 and one line ``error: ...`` on
-standard error, never a traceback.
+standard error, never a traceback. An output that is the same file as an
+input (by any path, symbolic or hard link) or as another output is refused
+before anything is read or written.
 """
 
 from __future__ import annotations
 
 import argparse
 import json
-import math
+import re
 import sys
+import warnings
 
 from wetline.core.report_tables import fmt
 
 __all__ = ["main"]
 
 COMMANDS = ("solve", "table", "export", "import", "report")
+
+NUMBER_OPTIONS = frozenset({"--level", "--volume", "--steps", "--size", "--liquid-density"})
+"""Options whose value is a number (or, for --size, two): a value that starts
+with a minus sign is theirs, not another option."""
+
+_NUMBER_LIKE = re.compile(r"-(?:[0-9.,]|inf|nan)", re.IGNORECASE)
 
 
 class CommandError(Exception):
@@ -52,9 +61,9 @@ def _parser():
 
     def fill_options(sp):
         g = sp.add_mutually_exclusive_group()
-        g.add_argument("--level", type=float, metavar="L",
+        g.add_argument("--level", metavar="L",
                        help="fill to this level, in the file's length unit")
-        g.add_argument("--volume", type=float, metavar="V",
+        g.add_argument("--volume", metavar="V",
                        help="fill with this volume [m3] (plane: area x width)")
 
     sp = sub.add_parser("solve", help="print the loads at the file's fill (or --level/--volume)")
@@ -69,7 +78,7 @@ def _parser():
 
     sp = sub.add_parser("table", help="print totals at levels from empty to the top")
     sp.add_argument("file", metavar="FILE")
-    sp.add_argument("--steps", type=int, default=None, metavar="N",
+    sp.add_argument("--steps", default=None, metavar="N",
                     help="number of levels, at least 2 (default 21; 51 with --csv)")
     sp.add_argument("--units", choices=("si", "us"), default="si")
     sp.add_argument("--csv", action="store_true",
@@ -111,29 +120,144 @@ def _parser():
                          "drawing states, or mm if it states none")
     sp.add_argument("--axisymmetric", action="store_true",
                     help="the outline is a half-section about x = 0 (x is the radius)")
-    sp.add_argument("--liquid-density", type=float, metavar="RHO",
+    sp.add_argument("--liquid-density", metavar="RHO",
                     help="liquid density [kg/m3] (default: fresh water at 20 C)")
-    sp.add_argument("--level", type=float, metavar="L",
+    sp.add_argument("--level", metavar="L",
                     help="fill level in the drawing unit (default: the top of the outline)")
     return p
 
 
-# ----------------------------------------------------------------- helpers
-def _load(path, level=None, volume=None):
-    """Read a section file and apply a --level / --volume override."""
-    from wetline.core.section_file import read_section_file
+# ----------------------------------------------------------------- numbers
+def attach_negative_values(argv):
+    """``argv`` with ``--level -1e308`` written ``--level=-1e308``.
+
+    argparse takes a token that starts with "-" for an option unless it is a
+    plain negative number (``-1``, ``-0.5``), so ``-1e308``, ``-inf`` and
+    ``-10x10`` after an option became "expected one argument". A number-like
+    token after one of :data:`NUMBER_OPTIONS` is joined to it; anything else
+    (``--png --svg x``) is left for argparse to report.
+    """
+    out, k = [], 0
+    while k < len(argv):
+        token = argv[k]
+        if token == "--":
+            out.extend(argv[k:])
+            break
+        if (token in NUMBER_OPTIONS and k + 1 < len(argv)
+                and _NUMBER_LIKE.match(argv[k + 1])):
+            out.append(f"{token}={argv[k + 1]}")
+            k += 2
+            continue
+        out.append(token)
+        k += 1
+    return out
+
+
+def _decimal(text, option):
+    """The number typed for ``option`` (core.number_input.parse_decimal)."""
+    from wetline.core.number_input import parse_decimal
+
+    return parse_decimal(text, option)
+
+
+def _whole(text, option):
+    value = _decimal(text, option)
+    if not value.is_integer():
+        raise CommandError(f"{option} must be a whole number, not {text.strip()}")
+    return int(value)
+
+
+def _level_in_metres(text, unit, option="--level"):
+    """The level typed in ``unit`` as metres, within the representable range."""
+    from wetline.core.limits import COORDINATE_LIMIT
+    from wetline.core.number_input import range_text
     from wetline.core.units import length_factor, to_si_exactly
 
+    value = _decimal(text, option)
+    factor = length_factor(unit)
+    metres = to_si_exactly(value, factor)
+    limit = COORDINATE_LIMIT
+    if not -limit <= metres <= limit:
+        allowed = range_text(-limit, limit, "m")
+        if factor != 1.0:
+            allowed = f"{range_text(-limit / factor, limit / factor, unit)} ({allowed})"
+        raise CommandError(f"{option} must be {allowed}, not {text.strip()}")
+    return metres
+
+
+def _density(text, option):
+    """A liquid density [kg/m3] typed for ``option``."""
+    from wetline.core.limits import DENSITY_RANGE
+    from wetline.core.number_input import range_text
+
+    value = _decimal(text, option)
+    if value <= 0:
+        raise CommandError(f"{option} must be a positive number of kg/m3, not {text.strip()}")
+    lo, hi = DENSITY_RANGE
+    if not lo <= value <= hi:
+        raise CommandError(f"{option} must be {range_text(lo, hi, 'kg/m3')}, "
+                           f"not {text.strip()}")
+    return value
+
+
+def _image_size(text):
+    """``(width, height)`` [px] from ``WxH``."""
+    from wetline.core.number_input import NumberError
+
+    parts = text.lower().split("x")
+    try:
+        if len(parts) != 2:
+            raise NumberError(text)
+        w, h = (_decimal(v, "--size") for v in parts)
+    except NumberError:
+        raise CommandError(f"--size must look like 3508x2480, not {text!r}") from None
+    if not (w.is_integer() and h.is_integer()):
+        raise CommandError(f"--size must look like 3508x2480, not {text!r}")
+    if w < 1 or h < 1:
+        raise CommandError(f"--size must give a positive width and height in pixels, "
+                           f"not {text!r}")
+    return int(w), int(h)
+
+
+# ----------------------------------------------------------------- helpers
+def _load(path, level=None, volume=None):
+    """Read a section file and apply a --level / --volume override (the
+    option's text)."""
+    from wetline.core.section_file import read_section_file
+
+    volume_m3 = None if volume is None else _decimal(volume, "--volume")
+    if level is not None:
+        _decimal(level, "--level")  # a bad number is said before the file is read
     case = read_section_file(path)
     if level is not None:
-        if not math.isfinite(level):
-            raise CommandError(f"--level must be a finite number, not {level}")
-        case = case.with_level(to_si_exactly(level, length_factor(case.length_unit)))
-    elif volume is not None:
-        if not math.isfinite(volume) or volume < 0:
-            raise CommandError(f"--volume must be a number >= 0, not {volume}")
-        case = case.with_volume(volume)  # FillError if the section cannot hold it
+        case = case.with_level(_level_in_metres(level, case.length_unit))
+    elif volume_m3 is not None:
+        if volume_m3 < 0:
+            raise CommandError(f"--volume must be a number >= 0, not {volume.strip()}")
+        case = case.with_volume(volume_m3)  # FillError if the section cannot hold it
     return case
+
+
+def _refuse_overwriting_inputs(outputs, inputs, distinct=True):
+    """Refuse any output that is the same file as an input, or (``distinct``)
+    as another output, before anything is read or written.
+
+    ``outputs`` holds ``(option, path)`` pairs (``("--png", "d.png")``);
+    ``inputs`` the paths read. A batch passes ``distinct=False``: two files
+    with one sheet name are reported one by one, as the batch goes.
+    """
+    from wetline.core.atomic_write import same_file
+
+    for option, out in outputs:
+        for src in inputs:
+            if same_file(out, src):
+                raise CommandError(f"{option} {out} is the input file {src}; "
+                                   "give another output file")
+    for k, (option_a, a) in enumerate(outputs if distinct else ()):
+        for option_b, b in outputs[k + 1:]:
+            if same_file(a, b):
+                raise CommandError(f"{option_a} and {option_b} name the same file {a}; "
+                                   "give two files")
 
 
 def _table(rows, header, align=None):
@@ -223,12 +347,15 @@ def _cmd_table(args, out):
     from wetline.core.report_tables import level_load_table, to_csv
     from wetline.core.units import display_units
 
+    if args.steps is None:
+        steps = 51 if args.csv else 21
+    else:
+        steps = _whole(args.steps, "--steps")
+        if steps < 2:
+            raise CommandError(f"--steps must be at least 2, not {args.steps.strip()}")
+        if steps > 100_000:
+            raise CommandError(f"--steps must be at most 100000, not {args.steps.strip()}")
     case = _load(args.file)
-    steps = args.steps if args.steps is not None else (51 if args.csv else 21)
-    if steps < 2:
-        raise CommandError(f"--steps must be at least 2, not {steps}")
-    if steps > 100_000:
-        raise CommandError(f"--steps must be at most 100000, not {steps}")
     table = level_load_table(case, display_units(args.units), steps)
     if args.csv:
         out.write(to_csv(table))
@@ -245,13 +372,10 @@ def _cmd_table(args, out):
 def _cmd_export(args, out):
     if args.png is None and args.dxf is None and args.svg is None:
         raise CommandError("give --png OUT, --svg OUT and/or --dxf OUT")
-    size = None
-    if args.size is not None:
-        try:
-            w, h = (int(v) for v in args.size.lower().split("x"))
-        except ValueError:
-            raise CommandError(f"--size must look like 3508x2480, not {args.size!r}") from None
-        size = (w, h)
+    size = None if args.size is None else _image_size(args.size)
+    outputs = [(f"--{kind}", path) for kind, path in
+               (("png", args.png), ("svg", args.svg), ("dxf", args.dxf)) if path is not None]
+    _refuse_overwriting_inputs(outputs, [args.file])
     case = _load(args.file, args.level, args.volume)
     if args.dxf is not None:
         from wetline.core.dxf_io import write_outline
@@ -323,6 +447,7 @@ def _cmd_report(args, out):
 
     files = list(args.files)
     if len(files) == 1:
+        _refuse_overwriting_inputs([("-o", args.output)], files)
         case = _load(files[0], args.level, args.volume)
         write_report(case, args.output, units=args.units)
         out.write(f"wrote {args.output}\n")
@@ -330,6 +455,8 @@ def _cmd_report(args, out):
     folder = Path(args.output)
     if folder.exists() and not folder.is_dir():
         raise CommandError(f"{folder} is not a folder (with several FILEs, -o names a folder)")
+    _refuse_overwriting_inputs([(f"-o {folder}: the sheet", folder / f"{_stem(path)}.pdf")
+                                for path in files], files, distinct=False)
     try:
         folder.mkdir(parents=True, exist_ok=True)
     except OSError as exc:
@@ -375,9 +502,9 @@ def _cmd_import(args, out):
     from wetline.core.dxf_io import choose_outline, list_outlines
     from wetline.core.liquids import custom_liquid, fresh_water
     from wetline.core.section_file import write_section_file
-    from wetline.core.units import length_factor, to_si_exactly
 
     drawing = Path(args.file)
+    _refuse_overwriting_inputs([("-o", args.output)], [args.file])
     outlines = list_outlines(drawing, unit=args.unit)
     outline = choose_outline(outlines, args.choose, source=drawing.name)
     section = outline.to_section(kind="axisymmetric" if args.axisymmetric else "plane",
@@ -385,16 +512,11 @@ def _cmd_import(args, out):
     if args.liquid_density is None:
         liquid = fresh_water(20.0)
     else:
-        if not math.isfinite(args.liquid_density) or args.liquid_density <= 0:
-            raise CommandError(f"--liquid-density must be a positive number of kg/m3, "
-                               f"not {args.liquid_density:g}")
-        liquid = custom_liquid(args.liquid_density)
+        liquid = custom_liquid(_density(args.liquid_density, "--liquid-density"))
     if args.level is None:
         level = section.top_level
-    elif not math.isfinite(args.level):
-        raise CommandError(f"--level must be a finite number, not {args.level}")
     else:
-        level = to_si_exactly(args.level, length_factor(outline.unit))
+        level = _level_in_metres(args.level, outline.unit)
     case = Case(section=section, liquid=liquid, fill_level=level,
                 length_unit=outline.unit)
     write_section_file(case, args.output)
@@ -421,10 +543,19 @@ def main(argv):
     handlers = {"solve": _cmd_solve, "table": _cmd_table, "export": _cmd_export,
                 "import": _cmd_import, "report": _cmd_report}
     try:
-        args = _parser().parse_args(argv)
-        if args.command is None:
-            raise CommandError("give a command: " + ", ".join(COMMANDS))
-        return handlers[args.command](args, sys.stdout)
+        with warnings.catch_warnings():
+            # A numeric warning means numbers out of range slipped past the
+            # input checks: the run ends in one line rather than printing the
+            # warning and giving results that may not hold.
+            warnings.simplefilter("error", RuntimeWarning)
+            args = _parser().parse_args(attach_negative_values(argv))
+            if args.command is None:
+                raise CommandError("give a command: " + ", ".join(COMMANDS))
+            return handlers[args.command](args, sys.stdout)
+    except RuntimeWarning as exc:
+        print(f"error: a computation went out of range ({exc}); the input is outside what "
+              "Wetline computes with", file=sys.stderr)
+        return 2
     except CommandError as exc:
         print(f"error: {exc}", file=sys.stderr)
         return 2

@@ -432,3 +432,43 @@ def test_importing_liquids_does_not_import_qt():
     subprocess.run(
         [sys.executable, "-c", code], check=True
     )
+
+
+# --- the table of fresh-water densities (start-up speed) ----------------
+# core.fresh_water_table spares the program importing iapws (and scipy) for
+# the usual temperatures; IAPWS-95 through iapws stays the reference, and
+# every value must be exactly what iapws gives.
+
+
+def _iapws_directly(celsius):
+    state = iapws.IAPWS95(T=celsius + 273.15, P=0.101325)
+    if state.phase != "Liquid":  # above the boiling point at 1 atm: saturated liquid
+        state = iapws.IAPWS95(T=celsius + 273.15, x=0)
+    return float(state.rho)
+
+
+@pytest.mark.parametrize("celsius", [0.0, 4.0, 10.0, 12.0, 12.5, 15.0, 20.0, 37.8, 99.9, 100.0])
+def test_tabulated_densities_are_iapws95_bit_for_bit(celsius):
+    assert fresh_water(celsius).density == _iapws_directly(celsius)
+
+
+@pytest.mark.slow
+def test_every_tabulated_density_is_iapws95_bit_for_bit():
+    from wetline.core.fresh_water_table import DENSITIES, FIRST_SATURATED
+
+    assert len(DENSITIES) == 1001
+    for k, density in enumerate(DENSITIES):
+        assert density == _iapws_directly(k / 10), f"{k / 10} C"
+    # The boiling point at one atmosphere is 99.974 C (IAPWS-95): only 100.0 C
+    # of the grid is above it.
+    assert FIRST_SATURATED == 1000
+
+
+@pytest.mark.parametrize("celsius", [12.34, 0.05, 99.99, 1e-9])
+def test_temperatures_off_the_grid_are_computed(celsius):
+    assert fresh_water(celsius).density == _iapws_directly(celsius)
+
+
+def test_the_saturated_liquid_is_said_from_the_table_too():
+    assert fresh_water(100.0).source == "IAPWS-95, pure water at 100 C, saturated liquid"
+    assert fresh_water(99.9).source == "IAPWS-95, pure water at 99.9 C, one atmosphere"

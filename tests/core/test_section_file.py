@@ -187,11 +187,19 @@ def test_fewer_than_three_distinct_vertices():
 
 @pytest.mark.parametrize("token", ["NaN", "Infinity", "-Infinity"])
 def test_non_finite_coordinate(token):
-    # Strict JSON cannot hold NaN, but Python's json module reads NaN and
-    # Infinity; they must be refused all the same.
+    # Strict JSON (RFC 8259, section 6) cannot hold NaN, but Python's json
+    # module reads NaN and Infinity; the reader refuses them as JSON does.
     text = json.dumps(tank_file()).replace("[2, 3]", f"[2, {token}]")
     assert token in text
-    assert refused(text) == "vertex 2 has a non-finite coordinate"
+    assert refused(text) == (f"section file is not valid JSON (line 1, column "
+                             f"{text.index(token) + 1}: {token} is not a number JSON allows)")
+
+
+def test_non_finite_coordinate_given_as_a_value():
+    data = tank_file()
+    data["outline"][2] = [2, math.nan]
+    with pytest.raises(SectionFileError, match="^vertex 2 has a non-finite coordinate$"):
+        case_from_dict(data)
 
 
 @pytest.mark.parametrize("key, where", [("gravity", ""), ("width", "geometry."),
@@ -200,12 +208,15 @@ def test_non_finite_numbers_elsewhere(key, where):
     data = tank_file()
     target = {"gravity": data, "width": data["geometry"], "level": data["fill"]}[key]
     target[key] = math.nan
-    assert refused(data) == f"{where}{key} must be a finite number"
+    with pytest.raises(SectionFileError) as info:
+        case_from_dict(data)  # a parsed object; as text NaN is not JSON
+    assert str(info.value) == f"{where}{key} must be a finite number"
 
 
 def test_non_finite_density():
-    m = refused(tank_file(fluid={"density": math.inf}))
-    assert m == "'density' in fluid must be a finite number, not inf"
+    with pytest.raises(SectionFileError) as info:
+        case_from_dict(tank_file(fluid={"density": math.inf}))
+    assert str(info.value) == "'density' in fluid must be a finite number, not inf"
 
 
 def test_self_intersecting_outline_names_the_edges():
@@ -357,7 +368,8 @@ def test_wrong_format(fmt):
 
 
 def test_missing_format():
-    assert refused(tank_file(format=None)).startswith("missing key 'format'")
+    assert refused(tank_file(format=None)) == (
+        'not a Wetline section file (no "format": "wetline-section")')
 
 
 @pytest.mark.parametrize("key", ["geometry", "outline", "fluid", "fill"])

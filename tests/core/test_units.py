@@ -248,3 +248,44 @@ def test_factors_are_plain_floats():
         for quantity in QUANTITIES:
             factor = system.factor(quantity)
             assert type(factor) is float and math.isfinite(factor) and factor > 0
+
+
+# --- the factors written out for a fast start ---------------------------
+# pint stays the reference: the registry is built only for other units, so
+# every factor written out must be exactly what pint gives (after the
+# 15-digit rounding of core.units).
+
+
+def test_written_out_length_factors_are_pints():
+    from wetline.core.units import EXACT_LENGTH_FACTORS, _length_factor
+
+    assert set(EXACT_LENGTH_FACTORS) == {"mm", "cm", "m", "in", "ft"}
+    for unit, factor in EXACT_LENGTH_FACTORS.items():
+        assert _length_factor(unit) == factor, unit  # pint, not the table
+        assert length_factor(unit) == factor
+
+
+def test_written_out_display_factors_are_pints():
+    from wetline.core.units import DISPLAY_UNIT_DEFINITIONS, pint_factor
+
+    seen = set()
+    for system in (SI, US):
+        for quantity in QUANTITIES:
+            unit = system.unit(quantity)
+            expression, si_unit = DISPLAY_UNIT_DEFINITIONS[unit.label]
+            assert unit.factor == pint_factor(expression, si_unit), unit.label
+            seen.add(unit.label)
+    assert seen == set(DISPLAY_UNIT_DEFINITIONS)
+
+
+def test_the_registry_is_one_and_built_on_demand():
+    from wetline.core import units
+
+    assert units.registry() is units.ureg is ureg
+    code = ("import sys; from wetline.core.units import SI, US, length_factor\n"
+            "length_factor('mm'); length_factor('ft')\n"
+            "print('pint' in sys.modules)\n"
+            "length_factor('yd'); print('pint' in sys.modules)")
+    out = subprocess.run([sys.executable, "-c", code], capture_output=True, text=True,
+                         check=True).stdout.split()
+    assert out == ["False", "True"]
