@@ -650,7 +650,7 @@ def envelope(solved):
                     fl_factor, fl_case = value, s.name
         flotation = FlotationEnvelope(factor=fl_factor, case=fl_case,
                                       required=with_structure[0].structure.flotation.required)
-        if any(s.structure.base for s in with_structure):
+        if any(s.structure.base_net_max is not None for s in with_structure):
             b_val, b_case, b_pick = 0.0, None, None
             for s in with_structure:
                 top = s.structure.base_net_max

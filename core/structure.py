@@ -87,6 +87,7 @@ __all__ = [
     "MITRE_LIMIT",
     "OUTER_WALL",
     "BasePressure",
+    "BasePressures",
     "ExteriorGeometry",
     "Flotation",
     "Ground",
@@ -435,9 +436,15 @@ def _check_encloses(pts, cavity):
     c_segs = _segments(cpts)
     open_union = shapely.union_all(c_segs[is_open]) if is_open.any() else None
 
+    shapely.prepare(spoly)
+    shapely.prepare(cpoly)
     # 1. every cavity vertex inside the structure (or on it, within tol)
-    d = shapely.distance(spoly, shapely.points(cpts))
-    out = np.flatnonzero(d > tol)
+    maybe = np.flatnonzero(~shapely.contains_xy(spoly, cpts[:, 0], cpts[:, 1]))
+    if maybe.size:
+        d = shapely.distance(spoly, shapely.points(cpts[maybe]))
+        out = maybe[d > tol]
+    else:
+        out = maybe
     if out.size:
         i = int(out[0])
         raise StructureError(
@@ -469,18 +476,21 @@ def _check_encloses(pts, cavity):
                 edges=(si[k],), cavity_edges=(ci[k],), location=p)
     # 4. no touching except along the open edges (and the axis, x = 0, which
     # a revolved cavity and its structure may share)
-    allowed = [] if open_union is None else [shapely.buffer(open_union, 4.0 * tol)]
-    if cavity.is_axisymmetric:
-        lo, hi = np.min(cpts[:, 1]) - 1.0, np.max(cpts[:, 1]) + 1.0
-        allowed.append(shapely.box(-4.0 * tol, lo, 4.0 * tol, hi))
-    allowed = shapely.union_all(allowed) if allowed else None
     si, ci = tree.query(s_segs, predicate="dwithin", distance=tol)
     keep = ~is_open[ci]
     if keep.any():
         si, ci = si[keep], ci[keep]
         near = shapely.intersection(c_segs[ci], shapely.buffer(s_segs[si], tol))
-        if allowed is not None:
-            near = shapely.difference(near, allowed)
+        allowed = []
+        if open_union is not None:
+            allowed.append(shapely.buffer(shapely.union_all(
+                c_segs[is_open][shapely.dwithin(c_segs[is_open], shapely.union_all(near),
+                                                8.0 * tol)]), 4.0 * tol))
+        if cavity.is_axisymmetric:
+            lo, hi = np.min(cpts[:, 1]) - 1.0, np.max(cpts[:, 1]) + 1.0
+            allowed.append(shapely.box(-4.0 * tol, lo, 4.0 * tol, hi))
+        if allowed:
+            near = shapely.difference(near, shapely.union_all(allowed))
         bad = np.flatnonzero(~shapely.is_empty(near))
         if bad.size:
             # name the longest stretch of contact (a corner point last)
@@ -496,13 +506,16 @@ def _check_encloses(pts, cavity):
     # 5. every open edge on the structure outline (it opens through the top)
     if open_union is not None:
         rim = shapely.buffer(spoly.exterior, 4.0 * tol)
-        for i in np.flatnonzero(is_open):
-            if not shapely.is_empty(shapely.difference(c_segs[i], rim)):
-                p = 0.5 * (cpts[i] + cpts[(i + 1) % len(cpts)])
-                raise StructureError(
-                    f"cavity edge {i} is open but the structure covers it: an open edge "
-                    "must lie on the structure outline (the cavity opens through it)",
-                    cavity_edges=(i,), location=p)
+        shapely.prepare(rim)
+        opens = np.flatnonzero(is_open)
+        covered = ~shapely.covers(rim, c_segs[opens])
+        if covered.any():
+            i = int(opens[np.argmax(covered)])
+            p = 0.5 * (cpts[i] + cpts[(i + 1) % len(cpts)])
+            raise StructureError(
+                f"cavity edge {i} is open but the structure covers it: an open edge "
+                "must lie on the structure outline (the cavity opens through it)",
+                cavity_edges=(i,), location=p)
 
 
 # -------------------------------------------------------- walls by thickness
@@ -519,8 +532,10 @@ def walls_of_thickness(cavity, base, wall, roof, *, mitre_limit=MITRE_LIMIT):
     shapely's ``buffer(cavity, wall, join_style="mitre")``. A mitre longer
     than ``mitre_limit`` thicknesses is bevelled. The region is the union of
     the cavity, the offset strips and the corner pieces (shapely), so narrow
-    features merge cleanly; an axisymmetric structure is cut at x = 0, so
-    it closes on the axis instead of reaching across it.
+    features merge cleanly; whatever of it lies straight outward of an open
+    edge is cut away, so that the mouth stays open however the rim curves;
+    an axisymmetric structure is cut at x = 0, so it closes on the axis
+    instead of reaching across it.
 
     Parameters
     ----------
@@ -557,28 +572,56 @@ def walls_of_thickness(cavity, base, wall, roof, *, mitre_limit=MITRE_LIMIT):
     mitre_limit = _number(mitre_limit, "mitre limit", 1.0, math.inf, "")
     geo = cavity.geometry
     pts = cavity.outline
-    n = cavity.n_edges
     nx, nz = geo.nx, geo.nz
-    t = np.full(n, wall)
+    t = np.full(cavity.n_edges, wall)
     t[nz < -np.abs(nx)] = base
     t[nz > np.abs(nx)] = roof
-    flush = np.array([p in (OPEN, AXIS) for p in cavity.parts])
-    t[flush] = 0.0
-    nrm = np.column_stack([nx, nz])
+    is_open = np.array([p == OPEN for p in cavity.parts])
+    t[is_open | np.array([p == AXIS for p in cavity.parts])] = 0.0
+    reach = mitre_limit * max(base, wall, roof)
+    region = shapely.union_all([shapely.Polygon(pts)] + _offset_pieces(cavity, t, mitre_limit))
+    if is_open.any():
+        # Keep the mouth open: nothing of the walls' offsets may reach over
+        # an open edge (a rippled or curved rim would otherwise be covered).
+        mouth = np.where(is_open, reach, 0.0)
+        cut = shapely.union_all(_offset_pieces(cavity, mouth, np.inf, corners_of=is_open))
+        region = shapely.difference(region, shapely.difference(cut, shapely.Polygon(pts)))
+    if cavity.is_axisymmetric:
+        lo = np.min(pts, axis=0) - 2.0 * reach
+        up = np.max(pts, axis=0) + 2.0 * reach
+        region = shapely.intersection(region, shapely.box(0.0, lo[1], up[0], up[1]))
+    if region.geom_type == "MultiPolygon":  # the part that holds the cavity
+        region = max(region.geoms, key=lambda g: g.area)
+    ring = np.asarray(region.exterior.coords)[:-1]
+    return _tidy_ring(ring, cavity.orientation)
+
+
+def _offset_pieces(cavity, t, mitre_limit, corners_of=None):
+    """Polygons covering the offset of every edge of ``cavity`` outward by
+    its thickness ``t[i]`` [m]: one strip per edge and a mitred corner
+    piece at every convex vertex (only between two ``corners_of`` edges,
+    if given). Their union with the cavity is the offset region."""
+    import shapely
+
+    geo = cavity.geometry
+    pts = cavity.outline
+    n = cavity.n_edges
+    nrm = np.column_stack([geo.nx, geo.nz])
     d = np.column_stack([geo.dx, geo.dz])
     p0 = pts
     p1 = np.roll(pts, -1, axis=0)
     off = nrm * t[:, None]
-    pieces = [shapely.Polygon(pts)]
     strips = np.stack([p0, p1, p1 + off, p0 + off], axis=1)[t > 0]
-    pieces.extend(shapely.polygons(strips))
+    pieces = list(shapely.polygons(strips))
     # Corner k joins edge k-1 (ending at vertex k) and edge k.
     prev = np.roll(np.arange(n), 1)
     a = p0 + off[prev]
     b = p0 + off
     cross = d[prev, 0] * d[:, 1] - d[prev, 1] * d[:, 0]
-    convex = cross * cavity.orientation > 0
-    for k in np.flatnonzero(convex & ((t[prev] > 0) | (t > 0))):
+    take = (cross * cavity.orientation > 0) & ((t[prev] > 0) | (t > 0))
+    if corners_of is not None:
+        take &= corners_of & corners_of[prev]
+    for k in np.flatnonzero(take):
         dp, dk = d[prev[k]], d[k]
         # The offset lines n . x = n . p + t of both edges, by Cramer's rule
         # (exact where the edges are horizontal and vertical).
@@ -597,15 +640,7 @@ def walls_of_thickness(cavity, base, wall, roof, *, mitre_limit=MITRE_LIMIT):
             corner = [p0[k], a[k], b[k]]
         # A convex quadrilateral (or triangle) in every proper case.
         pieces.append(shapely.convex_hull(shapely.multipoints(corner)))
-    region = shapely.union_all([g for g in pieces if g.area > 0])
-    if cavity.is_axisymmetric:
-        lo = np.min(pts, axis=0) - 2.0 * max(base, wall, roof)
-        up = np.max(pts, axis=0) + 2.0 * max(base, wall, roof)
-        region = shapely.intersection(region, shapely.box(0.0, lo[1], up[0], up[1]))
-    if region.geom_type == "MultiPolygon":  # pragma: no cover - pieces all touch the cavity
-        region = max(region.geoms, key=lambda g: g.area)
-    ring = np.asarray(region.exterior.coords)[:-1]
-    return _tidy_ring(ring, cavity.orientation)
+    return [g for g in pieces if g.area > 0]
 
 
 def _tidy_ring(ring, orientation):
@@ -744,6 +779,26 @@ class ExteriorGeometry:
     floor_edges: tuple
     base_pieces: np.ndarray
 
+    @cached_property
+    def _soil_arrays(self):
+        """``x0, z0, dx, dz, 1/dz`` of the soil pieces (1/dz = 0 where flat)."""
+        x0, z0, x1, z1 = (np.ascontiguousarray(c) for c in self.soil_segments.T)
+        dz = z1 - z0
+        inv = np.zeros_like(dz)
+        np.divide(1.0, dz, out=inv, where=dz != 0)
+        return x0, z0, x1 - x0, dz, inv
+
+    @cached_property
+    def _overhung_edges(self):
+        return np.fromiter(self.overhung, dtype=np.intp, count=len(self.overhung))
+
+    @cached_property
+    def _base_columns(self):
+        """The base pieces' columns: owner (int), x0, x1, zf0, zf1, zu0, zu1."""
+        pcs = self.base_pieces
+        return (pcs[:, 0].astype(np.intp),) + tuple(np.ascontiguousarray(c)
+                                                    for c in pcs[:, 1:].T)
+
 
 def exterior_geometry(structure, cavity, *, checked=False):
     """Precompute what :func:`exterior_loads` needs of a structure and cavity.
@@ -788,41 +843,50 @@ def _soil_segments(outer, cavity):
     if not cavity.is_open or up.size == 0:
         return seg, owner
     # Parameter ranges [s_a, s_b] of each upward edge lying on an open edge.
+    import shapely
+
     tol = _tolerance(outer.outline)
-    cut = [[] for _ in range(up.size)]
+    cpts = cavity.outline
+    opens = np.array([k for k, p in enumerate(cavity.parts) if p == OPEN])
+    ends = np.stack([cpts[opens], cpts[(opens + 1) % len(cpts)]], axis=1)  # (O, 2, 2)
+    tree = shapely.STRtree(shapely.linestrings(ends))
+    ui, oi = tree.query(shapely.linestrings(seg.reshape(-1, 2, 2)), predicate="dwithin",
+                        distance=4.0 * tol)
+    if ui.size == 0:
+        return seg, owner
     d = np.column_stack([geo.dx[up], geo.dz[up]])
     dd = (d * d).sum(axis=1)
     length = np.sqrt(dd)
-    cpts = cavity.outline
-    for i in (k for k, p in enumerate(cavity.parts) if p == OPEN):
-        q = np.array([cpts[i], cpts[(i + 1) % len(cpts)]])
-        rel = q[None, :, :] - np.column_stack([x0, z0])[:, None, :]
-        dist = np.abs(rel[:, :, 0] * d[:, None, 1] - rel[:, :, 1] * d[:, None, 0]) \
-            / length[:, None]
-        s = (rel * d[:, None, :]).sum(axis=2) / dd[:, None]
-        sa = np.clip(s.min(axis=1), 0.0, 1.0)
-        sb = np.clip(s.max(axis=1), 0.0, 1.0)
-        on = (dist <= 4.0 * tol).all(axis=1) & ((sb - sa) * length > tol)
-        for k in np.flatnonzero(on):
-            cut[k].append((sa[k], sb[k]))
-    if not any(cut):
+    rel = ends[oi] - seg[ui, None, :2]  # (pairs, 2, 2)
+    dk = d[ui, None, :]
+    dist = np.abs(rel[..., 0] * dk[..., 1] - rel[..., 1] * dk[..., 0]) / length[ui, None]
+    t = (rel * dk).sum(axis=2) / dd[ui, None]
+    sa = np.clip(t.min(axis=1), 0.0, 1.0)
+    sb = np.clip(t.max(axis=1), 0.0, 1.0)
+    on = (dist <= 4.0 * tol).all(axis=1) & ((sb - sa) * length[ui] > tol)
+    if not on.any():
         return seg, owner
-    rows, owners = [], []
-    for k in range(up.size):
-        if not cut[k]:
-            rows.append(seg[k])
-            owners.append(owner[k])
-            continue
-        s = 0.0
-        for sa, sb in sorted(cut[k]) + [(1.0, 1.0)]:
-            if sa > s:
-                pa = seg[k, :2] + s * d[k]
-                pb = seg[k, :2] + sa * d[k] if sa < 1.0 else seg[k, 2:]
-                rows.append(np.r_[pa, pb])
-                owners.append(owner[k])
-            s = max(s, sb)
-    return (np.array(rows, dtype=np.float64).reshape(-1, 4),
-            np.array(owners, dtype=np.intp))
+    ui, sa, sb = ui[on], sa[on], sb[on]
+    order = np.lexsort((sa, ui))
+    ui, sa, sb = ui[order].tolist(), sa[order].tolist(), sb[order].tolist()
+    cuts = {}
+    for j, a, b in zip(ui, sa, sb, strict=True):
+        cuts.setdefault(j, []).append((a, b))
+    keep = np.ones(up.size, dtype=bool)
+    extra, extra_owner = [], []
+    for j, spans in cuts.items():
+        keep[j] = False
+        t0 = 0.0
+        for ta, tb in spans + [(1.0, 1.0)]:
+            if ta > t0:
+                pa = seg[j, :2] + t0 * d[j]
+                pb = seg[j, :2] + ta * d[j] if ta < 1.0 else seg[j, 2:]
+                extra.append(np.r_[pa, pb])
+                extra_owner.append(owner[j])
+            t0 = max(t0, tb)
+    seg = np.concatenate([seg[keep], np.array(extra, dtype=np.float64).reshape(-1, 4)])
+    owner = np.concatenate([owner[keep], np.array(extra_owner, dtype=np.intp)])
+    return seg, owner
 
 
 def _overhung(outer, max_pairs=1_000_000):
@@ -864,57 +928,76 @@ def _overhung(outer, max_pairs=1_000_000):
 
 
 def _base_pieces(outer, cavity):
-    """Floor edges and the stretches of them over a straight underside."""
-    floor = [i for i, p in enumerate(cavity.parts) if p == FLOOR]
-    geo = outer.geometry
-    ox0, oz0, odx, odz = geo.x0, geo.z0, geo.dx, geo.dz
-    ox1 = ox0 + odx
-    oxl, oxh = np.minimum(ox0, ox1), np.maximum(ox0, ox1)
-    slanted = odx != 0
+    """Floor edges and the stretches of them over a straight underside.
+
+    Each floor edge is cut at the x of every outer vertex inside its span;
+    over each stretch the first outer edge straight below the floor is the
+    same (the outline is simple), found at the stretch's middle.
+    """
     cpts = cavity.outline
     n = cavity.n_edges
-    rows, kept = [], []
-    for i in floor:
-        (xa, za), (xb, zb) = cpts[i], cpts[(i + 1) % n]
-        if xa == xb:  # a vertical floor edge: its lowest point only
-            xs = np.array([xa, xa])
-            mids = np.array([xa])
-            za = zb = min(za, zb)
-        else:
-            if xa > xb:
-                xa, za, xb, zb = xb, zb, xa, za
-            inner = np.unique(ox0[(ox0 > xa) & (ox0 < xb)])
-            xs = np.concatenate([[xa], inner, [xb]])
-            mids = 0.5 * (xs[:-1] + xs[1:])
+    floor = np.array([i for i, p in enumerate(cavity.parts) if p == FLOOR], dtype=np.intp)
+    if floor.size == 0:
+        return (), np.empty((0, 7))
+    a, b = cpts[floor], cpts[(floor + 1) % n]
+    swap = a[:, 0] > b[:, 0]
+    lo = np.where(swap[:, None], b, a)
+    hi = np.where(swap[:, None], a, b)
+    vertical = lo[:, 0] == hi[:, 0]
+    low_z = np.minimum(a[:, 1], b[:, 1])
+    lo[vertical, 1] = hi[vertical, 1] = low_z[vertical]  # its lowest point only
+    geo = outer.geometry
+    ox = np.unique(geo.x0)
+    i0 = np.searchsorted(ox, lo[:, 0], side="right")
+    i1 = np.searchsorted(ox, hi[:, 0], side="left")
+    inner = np.where(vertical, 0, np.maximum(i1 - i0, 0))
+    m = inner + 1
+    owner = np.repeat(np.arange(floor.size), m)
+    k = np.arange(int(m.sum())) - np.repeat(np.cumsum(m) - m, m)  # stretch within its edge
+    io = i0[owner] + k
+    last = k == inner[owner]
+    xl = np.where(k == 0, lo[owner, 0], ox[np.clip(io - 1, 0, ox.size - 1)])
+    xr = np.where(last, hi[owner, 0], ox[np.clip(io, 0, ox.size - 1)])
+    span_x = hi[owner, 0] - lo[owner, 0]
+    slope = np.zeros_like(span_x)
+    np.divide(hi[owner, 1] - lo[owner, 1], span_x, out=slope, where=span_x != 0)
 
-        def zf_at(x, xa=xa, za=za, xb=xb, zb=zb):
-            """Height of the floor edge at x [m]."""
-            if xa == xb:
-                return np.full_like(x, za)
-            return za + (x - xa) / (xb - xa) * (zb - za)
-        piece_rows = []
-        for m, (u, v) in enumerate(zip(xs[:-1], xs[1:], strict=True)):
-            xm = mids[m]
-            span = slanted & (oxl <= xm) & (oxh >= xm)
-            e = np.flatnonzero(span)
-            if e.size == 0:
-                continue
-            ze = oz0[e] + (xm - ox0[e]) / odx[e] * odz[e]
-            below = ze < zf_at(np.array([xm]))[0]
-            if not below.any():
-                continue
-            k = int(e[below][np.argmax(ze[below])])
+    def z_floor(x):
+        return lo[owner, 1] + (x - lo[owner, 0]) * slope
 
-            def zu(x, k=k):
-                return oz0[k] + (x - ox0[k]) / odx[k] * odz[k]
+    zfl, zfr = z_floor(xl), z_floor(xr)
+    xm = 0.5 * (xl + xr)
+    zfm = z_floor(xm)
+    # The first outer edge below each stretch's middle: the highest of the
+    # slanted outer edges a vertical ray down from the floor meets.
+    import shapely
 
-            fu, fv = zf_at(np.array([u, v]))
-            piece_rows.append([len(kept), u, v, fu, fv, zu(u), zu(v)])
-        if piece_rows:
-            rows.extend(piece_rows)
-            kept.append(i)
-    pieces = np.array(rows, dtype=np.float64).reshape(-1, 7)
-    return tuple(kept), pieces
+    e = np.flatnonzero(geo.dx != 0)
+    p0 = outer.outline
+    p1 = np.roll(p0, -1, axis=0)
+    tree = shapely.STRtree(shapely.linestrings(np.stack([p0[e], p1[e]], axis=1)))
+    foot = outer.z_min - 1.0
+    rays = shapely.linestrings(np.stack([np.column_stack([xm, zfm]),
+                                         np.column_stack([xm, np.full_like(xm, foot)])], axis=1))
+    pi, k = tree.query(rays, predicate="intersects")
+    ek = e[k]
+    ze = geo.z0[ek] + (xm[pi] - geo.x0[ek]) / geo.dx[ek] * geo.dz[ek]
+    below = ze < zfm[pi]
+    pi, ek, ze = pi[below], ek[below], ze[below]
+    order = np.lexsort((ze, pi))  # the highest of each ray's hits last
+    last = order[np.r_[pi[order][1:] != pi[order][:-1], True]] if order.size else order
+    best = np.full(xm.size, -1, dtype=np.intp)
+    best[pi[last]] = ek[last]
+    hit = best >= 0
+    owner, xl, xr, zfl, zfr, best = owner[hit], xl[hit], xr[hit], zfl[hit], zfr[hit], best[hit]
+
+    def z_under(x):
+        return geo.z0[best] + (x - geo.x0[best]) / geo.dx[best] * geo.dz[best]
+
+    kept, owner = np.unique(owner, return_inverse=True)
+    pieces = np.column_stack([owner.astype(np.float64), xl, xr, zfl, zfr, z_under(xl),
+                              z_under(xr)])
+    return tuple(int(i) for i in floor[kept]), pieces
 
 
 # ------------------------------------------------------------------ results
@@ -979,6 +1062,52 @@ class BasePressure:
 
 
 @dataclass(frozen=True, eq=False)
+class BasePressures:
+    """Governing net upward pressure on the base below every floor edge,
+    as arrays (one entry per cavity floor edge with the base below it, in
+    edge order); iterating or indexing gives :class:`BasePressure` values.
+
+    Attributes
+    ----------
+    index : numpy.ndarray
+        Cavity floor edges (int).
+    net, p_groundwater, p_liquid : numpy.ndarray
+        [Pa], see :class:`BasePressure`.
+    x, z, underside : numpy.ndarray
+        The governing point on the floor and the underside below it [m].
+    """
+
+    index: np.ndarray
+    net: np.ndarray
+    x: np.ndarray
+    z: np.ndarray
+    underside: np.ndarray
+    p_groundwater: np.ndarray
+    p_liquid: np.ndarray
+
+    def __len__(self):
+        return int(self.index.size)
+
+    def __getitem__(self, k):
+        if not -len(self) <= k < len(self):
+            raise IndexError(k)
+        return BasePressure(index=int(self.index[k]), net=float(self.net[k]) + 0.0,
+                            point=(float(self.x[k]), float(self.z[k])),
+                            underside=float(self.underside[k]),
+                            p_groundwater=float(self.p_groundwater[k]),
+                            p_liquid=float(self.p_liquid[k]))
+
+    def __iter__(self):
+        return (self[k] for k in range(len(self)))
+
+    @property
+    def governing(self):
+        """The :class:`BasePressure` with the largest net (the first among
+        equals), or None without floor edges."""
+        return self[int(np.argmax(self.net))] if len(self) else None
+
+
+@dataclass(frozen=True, eq=False)
 class StructureLoads:
     """Loads on the structure from outside in one situation (characteristic).
 
@@ -1012,9 +1141,10 @@ class StructureLoads:
     soil_fz : numpy.ndarray
         Vertical force of the soil on each outer edge [N], <= 0 (down).
     flotation : Flotation
-    base : tuple of BasePressure
-        One per cavity floor edge with the base below it, in edge order.
     warnings : tuple of str
+    base : BasePressures
+        (Property.) One entry per cavity floor edge with the base below it,
+        in edge order.
     """
 
     structure: Structure
@@ -1033,8 +1163,8 @@ class StructureLoads:
     p_water_end: np.ndarray
     soil_fz: np.ndarray
     flotation: Flotation
-    base: tuple
     warnings: tuple
+    _base_inputs: tuple = field(default=(None, None, None, None), repr=False)
 
     @property
     def groundwater_level(self):
@@ -1057,9 +1187,19 @@ class StructureLoads:
                 for k, p in enumerate(names) if p != AXIS}
 
     @cached_property
+    def base(self):
+        """Net upward pressure on the base under every floor edge
+        (:class:`BasePressures`, computed when first asked for)."""
+        return _base_pressures(*self._base_inputs)
+
+    @cached_property
     def base_net_max(self):
-        """The governing :class:`BasePressure` (largest net), or None without floor edges."""
-        return max(self.base, key=lambda b: b.net) if self.base else None
+        """The governing :class:`BasePressure` (largest net over all floor
+        edges, the first among equals), or None without floor edges; equal
+        to ``base.governing`` without building the table."""
+        if "base" in self.__dict__:
+            return self.base.governing
+        return _base_governing(*self._base_inputs)
 
 
 def exterior_loads(structure, cavity, *, groundwater=None, ground=None, gravity=None,
@@ -1188,10 +1328,11 @@ def exterior_loads(structure, cavity, *, groundwater=None, ground=None, gravity=
     soil_fz = np.zeros(n)
     warnings = []
     if ground is not None and geometry.soil_owner.size:
-        w = _soil_on_pieces(geometry.soil_segments, ground, groundwater, gravity, axi, outer)
-        soil_fz -= np.bincount(geometry.soil_owner, weights=w * scale, minlength=n)
-        soil_fz[soil_fz == 0.0] = 0.0  # no -0.0
-        under = [k for k in geometry.overhung if soil_fz[k] < 0.0]
+        w = _soil_on_pieces(geometry, ground, groundwater, gravity, axi)
+        w *= -scale
+        soil_fz = np.bincount(geometry.soil_owner, weights=w, minlength=n) + 0.0  # no -0.0
+        hung = geometry._overhung_edges
+        under = hung[soil_fz[hung] < 0.0].tolist()
         if under:
             listed = ", ".join(str(k) for k in under[:5]) + (" ..." if len(under) > 5 else "")
             warnings.append(
@@ -1207,45 +1348,51 @@ def exterior_loads(structure, cavity, *, groundwater=None, ground=None, gravity=
     factor = resistance / uplift if uplift > 0.0 else None
     flotation = Flotation(uplift=uplift, resistance=resistance, factor=factor,
                           required=required_factor)
-    base = _base_pressures(geometry, groundwater, gravity, liquid_solution)
     for a in (fx, fz, p0, p1, soil_fz):
         a.setflags(write=False)
     return StructureLoads(
         structure=structure, cavity=cavity, groundwater=groundwater, ground=ground, gravity=gravity,
         self_weight=geometry.self_weight, extra_weight=extra, anchorage=anchorage,
         soil_weight=soil_weight, buoyancy=buoyancy, fx=fx, fz=fz, p_water_start=p0,
-        p_water_end=p1, soil_fz=soil_fz, flotation=flotation, base=base,
-        warnings=tuple(warnings))
+        p_water_end=p1, soil_fz=soil_fz, flotation=flotation, warnings=tuple(warnings),
+        _base_inputs=(geometry, groundwater, gravity, liquid_solution))
 
 
-def _soil_on_pieces(seg, ground, groundwater, gravity, axi, outer):
+def _soil_on_pieces(geometry, ground, groundwater, gravity, axi):
     """Integral of the soil stress over each piece's horizontal projection
     [N/m for plane, N for axisymmetric], exact (see :func:`exterior_loads`)."""
-    x0, z0, x1, z1 = seg.T
+    x0, z0, dx, dz, inv_dz = geometry._soil_arrays
     gl = ground.level
     # Dry ground: any level at or below the structure gives the dry formula.
-    zw = groundwater.level if groundwater is not None else min(outer.z_min, gl)
-    dz = z1 - z0
-    ts = []
-    for zk in (zw, gl):
-        t = np.zeros_like(dz)
-        np.divide(zk - z0, dz, out=t, where=dz != 0)
-        ts.append(np.clip(t, 0.0, 1.0))
-    t1, t2 = np.minimum(*ts), np.maximum(*ts)
-    t = np.stack([np.zeros_like(t1), t1, t2, np.ones_like(t1)])  # (4, K)
-    x = x0 + t * (x1 - x0)
-    z = z0 + t * dz
+    zw = groundwater.level if groundwater is not None else min(geometry.outer.z_min, gl)
+    # Parameters of the splits at z_w and G along each piece (0 on flat ones).
+    t = np.empty((4, x0.size))
+    t[0] = 0.0
+    t[3] = 1.0
+    tw = np.clip((zw - z0) * inv_dz, 0.0, 1.0)
+    tg = np.clip((gl - z0) * inv_dz, 0.0, 1.0)
+    np.minimum(tw, tg, out=t[1])
+    np.maximum(tw, tg, out=t[2])
+    z = t * dz
+    z += z0
     if groundwater is None:
-        sigma = ground.unit_weight_dry * np.maximum(gl - z, 0.0)
+        sigma = np.maximum(gl - z, 0.0)
+        sigma *= ground.unit_weight_dry
     else:
         sub = ground.unit_weight_saturated - groundwater.unit_weight(gravity)
-        sigma = (ground.unit_weight_dry * np.maximum(gl - np.maximum(z, zw), 0.0)
-                 + sub * np.maximum(min(gl, zw) - z, 0.0))
-    xa, xb, sa, sb = x[:-1], x[1:], sigma[:-1], sigma[1:]
+        sigma = np.maximum(gl - np.maximum(z, zw), 0.0)
+        sigma *= ground.unit_weight_dry
+        sigma += sub * np.maximum(min(gl, zw) - z, 0.0)
+    span = np.diff(t, axis=0)  # (3, K): each straight part's share of the piece
+    span *= np.abs(dx)
+    sa, sb = sigma[:-1], sigma[1:]
     if not axi:
-        return (np.abs(xb - xa) * (sa + sb) * 0.5).sum(axis=0)
-    return (2.0 * np.pi / 6.0 * np.abs(xb - xa)
-            * (sa * (2.0 * xa + xb) + sb * (xa + 2.0 * xb))).sum(axis=0)
+        return ((sa + sb) * span).sum(axis=0) * 0.5
+    x = t * dx
+    x += x0
+    xa, xb = x[:-1], x[1:]
+    return ((sa * (2.0 * xa + xb) + sb * (xa + 2.0 * xb)) * span).sum(axis=0) \
+        * (2.0 * np.pi / 6.0)
 
 
 def _liquid_pressure(solution, z):
@@ -1259,46 +1406,66 @@ def _liquid_pressure(solution, z):
     return solution.density * solution.gravity * np.maximum(solution.level - z, 0.0)
 
 
-def _base_pressures(geometry, groundwater, gravity, solution):
-    pcs = geometry.base_pieces
-    if pcs.shape[0] == 0:
-        return ()
-    owner = pcs[:, 0].astype(np.intp)
-    xa, xb, fa, fb, ua, ub = pcs[:, 1:].T
-    # Candidate points: both ends of every stretch, and where the free
-    # surface crosses a sloping floor inside one.
-    xs = [xa, xb]
-    zf = [fa, fb]
-    zu = [ua, ub]
+def _base_candidates(geometry, groundwater, gravity, solution):
+    """(P, 3) candidate points of the base pieces: x, z_floor, z_under, p_gw,
+    p_liquid, net; the third column is where the free surface crosses a
+    sloping floor inside the piece (the left end again where it does not)."""
+    owner, xa, xb, fa, fb, ua, ub = geometry._base_columns
+    m = xa.size
+    xs, zf, zu = np.empty((m, 3)), np.empty((m, 3)), np.empty((m, 3))
+    xs[:, 0], xs[:, 1], xs[:, 2] = xa, xb, xa
+    zf[:, 0], zf[:, 1], zf[:, 2] = fa, fb, fa
+    zu[:, 0], zu[:, 1], zu[:, 2] = ua, ub, ua
     if solution is not None:
         h = solution.level
-        cross = (fa - h) * (fb - h) < 0
-        t = np.zeros_like(fa)
-        np.divide(h - fa, fb - fa, out=t, where=cross)
-        xs.append(np.where(cross, xa + t * (xb - xa), xa))
-        zf.append(np.where(cross, h, fa))
-        zu.append(np.where(cross, ua + t * (ub - ua), ua))
-    xs, zf, zu = np.stack(xs), np.stack(zf), np.stack(zu)
+        cross = np.flatnonzero((fa - h) * (fb - h) < 0)
+        if cross.size:
+            t = (h - fa[cross]) / (fb[cross] - fa[cross])
+            xs[cross, 2] = xa[cross] + t * (xb[cross] - xa[cross])
+            zf[cross, 2] = h
+            zu[cross, 2] = ua[cross] + t * (ub[cross] - ua[cross])
     if groundwater is None:
         pg = np.zeros_like(zu)
     else:
-        pg = groundwater.unit_weight(gravity) * np.maximum(groundwater.level - zu, 0.0)
+        pg = np.maximum(groundwater.level - zu, 0.0)
+        pg *= groundwater.unit_weight(gravity)
     pl = _liquid_pressure(solution, zf)
-    net = pg - pl
-    best = np.argmax(net, axis=0)
-    col = np.arange(net.shape[1])
-    net_b = net[best, col]
-    # Largest per floor edge (pieces are grouped by owner, in order).
+    return owner, xs, zf, zu, pg, pl, pg - pl
+
+
+def _base_pressures(geometry, groundwater, gravity, solution):
+    owner, xs, zf, zu, pg, pl, net = _base_candidates(geometry, groundwater, gravity, solution)
+    if owner.size == 0:
+        empty = np.empty(0)
+        return BasePressures(index=np.empty(0, dtype=np.intp), net=empty, x=empty, z=empty,
+                             underside=empty, p_groundwater=empty, p_liquid=empty)
+    best = np.argmax(net, axis=1)
+    row = np.arange(net.shape[0])
+    net_b = net[row, best]
+    # Largest per floor edge (pieces are grouped by owner, in order; the
+    # first piece among equals).
     order = np.lexsort((-net_b, owner))
     first = order[np.r_[True, owner[order][1:] != owner[order][:-1]]]
-    out = []
-    for p in first:
-        r = best[p]
-        out.append(BasePressure(
-            index=geometry.floor_edges[owner[p]], net=float(net_b[p]) + 0.0,
-            point=(float(xs[r, p]), float(zf[r, p])), underside=float(zu[r, p]),
-            p_groundwater=float(pg[r, p]), p_liquid=float(pl[r, p])))
-    return tuple(out)
+    c = best[first]
+    out = dict(index=np.asarray(geometry.floor_edges, dtype=np.intp), net=net_b[first] + 0.0,
+               x=xs[first, c], z=zf[first, c], underside=zu[first, c],
+               p_groundwater=pg[first, c], p_liquid=pl[first, c])
+    for a in out.values():
+        a.setflags(write=False)
+    return BasePressures(**out)
+
+
+def _base_governing(geometry, groundwater, gravity, solution):
+    """The :class:`BasePressure` of the largest net over all floor edges
+    (the first floor edge, piece and point among equals), or None."""
+    owner, xs, zf, zu, pg, pl, net = _base_candidates(geometry, groundwater, gravity, solution)
+    if owner.size == 0:
+        return None
+    k = int(np.argmax(net))  # row-major: pieces in order, then their points
+    p, c = divmod(k, 3)
+    return BasePressure(index=geometry.floor_edges[owner[p]], net=float(net[p, c]) + 0.0,
+                        point=(float(xs[p, c]), float(zf[p, c])), underside=float(zu[p, c]),
+                        p_groundwater=float(pg[p, c]), p_liquid=float(pl[p, c]))
 
 
 # ------------------------------------------------------------------ record
@@ -1333,10 +1500,14 @@ def structure_record(loads):
     """
     s = loads.structure
     axi = loads.cavity.is_axisymmetric
-    edges = [{"index": i, "part": s.parts[i], "fx": None if axi else _num(loads.fx[i]),
-              "fz": _num(loads.fz[i]), "p_water_start": _num(loads.p_water_start[i]),
-              "p_water_end": _num(loads.p_water_end[i]), "soil_fz": _num(loads.soil_fz[i])}
-             for i in range(s.n_edges)]
+    b = loads.base
+    fx = [None] * s.n_edges if axi else (loads.fx + 0.0).tolist()
+    edges = [{"index": i, "part": part, "fx": x, "fz": z, "p_water_start": p0,
+              "p_water_end": p1, "soil_fz": soil}
+             for i, (part, x, z, p0, p1, soil) in enumerate(zip(
+                 s.parts, fx, (loads.fz + 0.0).tolist(), (loads.p_water_start + 0.0).tolist(),
+                 (loads.p_water_end + 0.0).tolist(), (loads.soil_fz + 0.0).tolist(),
+                 strict=True))]
     f = loads.flotation
     return {
         "self_weight": _num(loads.self_weight),
@@ -1349,9 +1520,11 @@ def structure_record(loads):
         "exterior_edges": edges,
         "flotation": {"uplift": _num(f.uplift), "resistance": _num(f.resistance),
                       "factor": _num(f.factor), "required": _num(f.required), "ok": f.ok},
-        "base": [{"index": b.index, "net_upward_pressure": _num(b.net),
-                  "point": [_num(b.point[0]), _num(b.point[1])],
-                  "underside": _num(b.underside), "p_groundwater": _num(b.p_groundwater),
-                  "p_liquid": _num(b.p_liquid)} for b in loads.base],
+        "base": [{"index": i, "net_upward_pressure": net + 0.0, "point": [x + 0.0, z + 0.0],
+                  "underside": u + 0.0, "p_groundwater": pg + 0.0, "p_liquid": pl + 0.0}
+                 for i, net, x, z, u, pg, pl in zip(
+                     b.index.tolist(), b.net.tolist(), b.x.tolist(), b.z.tolist(),
+                     b.underside.tolist(), b.p_groundwater.tolist(), b.p_liquid.tolist(),
+                     strict=True)],
         "warnings": list(loads.warnings),
     }

@@ -511,7 +511,7 @@ def test_base_entries_per_floor_edge_in_order():
     b = loads.base[1]
     assert b.net == pytest.approx(RW * 2.4, rel=1e-13)
     assert b.underside == -0.4 and 1.0 <= b.point[0] <= 1.3 and b.point[1] == 0.5
-    assert loads.base_net_max is loads.base[0]
+    assert loads.base_net_max == loads.base[0]
     # a thicker pit wall moves nothing under the pit, all under the upper floor
     s2 = Structure.build([[-0.3, -0.4], [1.0001, -0.4], [1.0001, 0.1], [3.3, 0.1], [3.3, 3.3],
                           [-0.3, 3.3]], cavity=cav)
