@@ -576,6 +576,31 @@ def test_walls_of_thickness_of_a_hopper_by_hand():
     Structure.build(out, cavity=cav)
 
 
+def rippled_tank(n=400):
+    """A tank with rippled walls (r = 1 + 0.08 sin 23t) and an open, rippled mouth."""
+    t = np.linspace(0.0, 2.0 * np.pi, n, endpoint=False)
+    r = 1.0 + 0.08 * np.sin(23.0 * t)
+    x, z = 2.0 + 1.5 * r * np.cos(t), 2.0 + 1.8 * r * np.sin(t)
+    parts = ["open" if za > 3.6 and zb > 3.6 else "wall"
+             for za, zb in zip(z, np.roll(z, -1), strict=True)]
+    return Section.build(np.c_[x, z], parts=parts)
+
+
+def test_walls_of_thickness_keeps_a_rippled_mouth_open():
+    # The offsets of the walls beside a rippled mouth reach over it; they are
+    # cut back so that every open edge lies on the outline (the cavity opens
+    # through the structure) and the result is a valid structure.
+    cav = rippled_tank()
+    out = walls_of_thickness(cav, 0.4, 0.3, 0.3)
+    s = Structure.build(out, cavity=cav)
+    rim = shapely.Polygon(s.outline).exterior
+    for i in (k for k, p in enumerate(cav.parts) if p == "open"):
+        a, b = cav.outline[i], cav.outline[(i + 1) % cav.n_edges]
+        assert rim.distance(shapely.Point(a)) < 1e-12 and rim.distance(shapely.Point(b)) < 1e-12
+    # and it holds the cavity with walls all round
+    assert shapely.Polygon(out).contains(shapely.Polygon(cav.outline).buffer(-1e-9))
+
+
 def test_walls_of_thickness_bevels_long_mitres():
     # A 30-degree spike: the mitre would reach 1/sin(15 deg) = 3.9 wall
     # thicknesses out; with a limit of 2 it is bevelled (a shorter outline).
