@@ -36,18 +36,22 @@ stands for the factors on the stabilising side, EN 1997-1 UPL).
 from __future__ import annotations
 
 import math
+from collections.abc import Iterable
 from dataclasses import dataclass, field, replace
 
 import numpy as np
 
 from .case import Case
-from .hydrostatics import solve
+from .hydrostatics import Solution, solve
 from .limits import COORDINATE_LIMIT, GRAVITY_RANGE
 from .liquids import Liquid
+from .section import Section
 from .structure import (
+    ExteriorGeometry,
     Ground,
     Groundwater,
     Structure,
+    StructureLoads,
     exterior_geometry,
     exterior_loads,
     structure_record,
@@ -209,7 +213,7 @@ class LoadCase:
         object.__setattr__(self, "load_factor", f)
 
     @property
-    def is_plain(self):
+    def is_plain(self) -> bool:
         """True if the case changes nothing but may have a name (the file-level situation)."""
         return (self.liquid is None and self.fill_level is None and self.fill_volume is None
                 and self.gravity is None and self.groundwater is None
@@ -245,7 +249,7 @@ class ResolvedCase:
     groundwater: Groundwater | None
     load_factor: float
 
-    def solve(self):
+    def solve(self) -> Solution:
         """The liquid's loads in this case (:class:`~wetline.core.hydrostatics.Solution`).
 
         An ``"empty"`` case carries no "section is empty" warning: it asked
@@ -272,19 +276,19 @@ class SolvedCase:
     """
 
     resolved: ResolvedCase
-    solution: object
-    structure: object | None
+    solution: Solution
+    structure: StructureLoads | None
 
     @property
-    def name(self):
+    def name(self) -> str:
         return self.resolved.name
 
     @property
-    def load_factor(self):
+    def load_factor(self) -> float:
         return self.resolved.load_factor
 
     @property
-    def warnings(self):
+    def warnings(self) -> tuple[str, ...]:
         """The liquid's warnings, then the structure's (tuple of str)."""
         extra = () if self.structure is None else self.structure.warnings
         return tuple(self.solution.warnings) + tuple(extra)
@@ -334,9 +338,9 @@ class Design:
     case: Case
     structure: Structure | None = None
     ground: Ground | None = None
-    cases: tuple = ()
-    _resolved: tuple = field(init=False, repr=False, default=())
-    _exterior: object = field(init=False, repr=False, default=None)
+    cases: tuple[LoadCase, ...] = ()
+    _resolved: tuple[ResolvedCase, ...] = field(init=False, repr=False, default=())
+    _exterior: ExteriorGeometry | None = field(init=False, repr=False, default=None)
 
     def __post_init__(self):
         if not isinstance(self.case, Case):
@@ -368,32 +372,32 @@ class Design:
 
     # ------------------------------------------------------------ access
     @property
-    def section(self):
+    def section(self) -> Section:
         return self.case.section
 
     @property
-    def load_cases(self):
+    def load_cases(self) -> tuple[LoadCase, ...]:
         """The cases to solve: the file's, or the one default case (tuple of LoadCase)."""
         if self.cases:
             return self.cases
         return (LoadCase(self.section.name.strip() or "case 1"),)
 
     @property
-    def names(self):
+    def names(self) -> tuple[str, ...]:
         """Case names in order (tuple of str)."""
         return tuple(r.name for r in self._resolved)
 
     @property
-    def required_factor(self):
+    def required_factor(self) -> float:
         """Required factor against flotation [] (the file's ``uplift.required_factor``)."""
         return self.case.required_uplift_factor
 
     @property
-    def exterior(self):
+    def exterior(self) -> ExteriorGeometry | None:
         """The structure's :class:`~wetline.core.structure.ExteriorGeometry`, or None."""
         return self._exterior
 
-    def index(self, name):
+    def index(self, name: str) -> int:
         """Position of the case called ``name``; LoadCaseError if there is none."""
         for i, r in enumerate(self._resolved):
             if r.name == name:
@@ -401,32 +405,33 @@ class Design:
         listed = ", ".join(repr(n) for n in self.names)
         raise LoadCaseError(f"no load case named {name!r} (cases: {listed})", case=name)
 
-    def resolve(self, name=None):
+    def resolve(self, name: str | None = None) -> ResolvedCase:
         """The :class:`ResolvedCase` called ``name`` (default: the first)."""
         return self._resolved[0 if name is None else self.index(name)]
 
-    def solve(self, name=None):
+    def solve(self, name: str | None = None) -> SolvedCase:
         """The :class:`SolvedCase` called ``name`` (default: the first)."""
         return self._solve(self.resolve(name))
 
-    def solve_all(self):
+    def solve_all(self) -> tuple[SolvedCase, ...]:
         """Every case solved, in order (tuple of :class:`SolvedCase`)."""
         return tuple(self._solve(r) for r in self._resolved)
 
     # ------------------------------------------------------------ copies
-    def with_case(self, case):
+    def with_case(self, case: Case) -> Design:
         """Copy with another file-level case (checked again)."""
         return replace(self, case=case)
 
-    def with_structure(self, structure, ground=None):
+    def with_structure(self, structure: Structure | None,
+                       ground: Ground | None = None) -> Design:
         """Copy with another structure (None removes it and the ground)."""
         return replace(self, structure=structure,
                        ground=None if structure is None else (ground or self.ground))
 
-    def with_ground(self, ground):
+    def with_ground(self, ground: Ground | None) -> Design:
         return replace(self, ground=ground)
 
-    def with_cases(self, cases):
+    def with_cases(self, cases: Iterable[LoadCase]) -> Design:
         return replace(self, cases=tuple(cases))
 
     # ------------------------------------------------------------ internals
@@ -528,7 +533,7 @@ class FlotationEnvelope:
     required: float
 
     @property
-    def ok(self):
+    def ok(self) -> bool:
         return self.factor is None or self.factor >= self.required
 
 
@@ -581,13 +586,13 @@ class Envelope:
     flotation: FlotationEnvelope | None
     base: BaseEnvelope | None
 
-    def edge(self, index):
+    def edge(self, index: int) -> tuple[float, str | None]:
         """``(max_pressure [Pa], case name or None)`` of cavity edge ``index``."""
         k = int(self.edge_case[index])
         return float(self.edge_max_pressure[index]), (None if k < 0 else self.case_names[k])
 
 
-def envelope(solved):
+def envelope(solved: Iterable[SolvedCase]) -> Envelope:
     """The envelope of solved cases (see :class:`Envelope`).
 
     Parameters
@@ -638,24 +643,26 @@ def envelope(solved):
         parts[name] = PartEnvelope(
             max_down=dmax if dmax > 0 else 0.0, max_down_case=names[kd] if dmax > 0 else None,
             max_up=umax if umax > 0 else 0.0, max_up_case=names[ku] if umax > 0 else None)
-    flotation = base = None
-    with_structure = [s for s in solved if s.structure is not None]
-    if with_structure:
-        fl_factor = fl_case = None
-        for s in with_structure:
-            f = s.structure.flotation
+    flotation: FlotationEnvelope | None = None
+    base: BaseEnvelope | None = None
+    outside = [(s.name, s.load_factor, s.structure) for s in solved if s.structure is not None]
+    if outside:
+        fl_factor: float | None = None
+        fl_case: str | None = None
+        for name, lf, loads in outside:
+            f = loads.flotation
             if f.uplift > 0:
-                value = f.resistance / (s.load_factor * f.uplift)
+                value = f.resistance / (lf * f.uplift)
                 if fl_factor is None or value < fl_factor:
-                    fl_factor, fl_case = value, s.name
+                    fl_factor, fl_case = value, name
         flotation = FlotationEnvelope(factor=fl_factor, case=fl_case,
-                                      required=with_structure[0].structure.flotation.required)
-        if any(s.structure.base_net_max is not None for s in with_structure):
+                                      required=outside[0][2].flotation.required)
+        if any(loads.base_net_max is not None for _, _, loads in outside):
             b_val, b_case, b_pick = 0.0, None, None
-            for s in with_structure:
-                top = s.structure.base_net_max
-                if top is not None and s.load_factor * top.net > b_val:
-                    b_val, b_case, b_pick = s.load_factor * top.net, s.name, top
+            for name, lf, loads in outside:
+                top = loads.base_net_max
+                if top is not None and lf * top.net > b_val:
+                    b_val, b_case, b_pick = lf * top.net, name, top
             base = BaseEnvelope(net_upward_pressure=b_val, case=b_case,
                                 index=None if b_pick is None else b_pick.index,
                                 point=None if b_pick is None else b_pick.point)
@@ -673,7 +680,7 @@ def _num(v):
     return None if math.isnan(v) else v + 0.0
 
 
-def envelope_record(env):
+def envelope_record(env: Envelope) -> dict:
     """The ``envelope`` object of ``wetline cases --json`` (section format v3).
 
     Parameters
@@ -712,7 +719,7 @@ def envelope_record(env):
     }
 
 
-def case_record(solved):
+def case_record(solved: SolvedCase) -> dict:
     """The record of one solved case: the results record of
     :func:`wetline.core.results.results_record` plus ``case``,
     ``load_factor`` and ``structure`` (the object of
@@ -728,7 +735,7 @@ def case_record(solved):
     return rec
 
 
-def cases_record(design, solved=None):
+def cases_record(design: Design, solved: Iterable[SolvedCase] | None = None) -> dict:
     """The whole record of ``wetline cases FILE --json``.
 
     Parameters

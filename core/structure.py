@@ -60,10 +60,13 @@ ch. 3; EN 1991-1-1 Table A.1 (25 kN/m3 reinforced concrete); EN 1997-1
 from __future__ import annotations
 
 import math
+from collections.abc import Sequence, Sized
 from dataclasses import dataclass, field
 from functools import cached_property
+from typing import TYPE_CHECKING, Any
 
 import numpy as np
+from numpy.typing import ArrayLike
 
 from . import STANDARD_GRAVITY
 from .fill import volume_below
@@ -78,6 +81,9 @@ from .limits import (
 )
 from .section import AXIS, FLOOR, OPEN, Section, SectionError
 from .uplift import DEFAULT_REQUIRED_FACTOR
+
+if TYPE_CHECKING:
+    from .hydrostatics import Solution
 
 __all__ = [
     "DEFAULT_GROUNDWATER_DENSITY",
@@ -229,7 +235,7 @@ class Groundwater:
         object.__setattr__(self, "density",
                            _number(self.density, "groundwater density", lo, hi, "kg/m3"))
 
-    def unit_weight(self, gravity=STANDARD_GRAVITY):
+    def unit_weight(self, gravity: float = STANDARD_GRAVITY) -> float:
         """``rho_w g`` [N/m3] under ``gravity`` [m/s2]."""
         return self.density * float(gravity)
 
@@ -279,8 +285,9 @@ class Structure:
     orientation: float = field(default=1.0)
 
     @classmethod
-    def build(cls, outline, parts=None, *, cavity, unit_weight=DEFAULT_UNIT_WEIGHT,
-              extra_weight=0.0, anchorage=0.0):
+    def build(cls, outline: ArrayLike, parts: Sequence[str] | None = None, *, cavity: Section,
+              unit_weight: float = DEFAULT_UNIT_WEIGHT, extra_weight: float = 0.0,
+              anchorage: float = 0.0) -> Structure:
         """Validate the inputs against ``cavity`` and return a :class:`Structure`.
 
         Parameters
@@ -308,11 +315,9 @@ class Structure:
             prefixed "structure outline"), a reserved part name, or an
             outline that does not hold the cavity (see :meth:`check`).
         """
-        try:
-            n = len(outline)
-        except TypeError:
-            raise StructureError("structure outline must be a list of [x, z] number pairs") \
-                from None
+        if not isinstance(outline, Sized):
+            raise StructureError("structure outline must be a list of [x, z] number pairs")
+        n = len(outline)
         if n > MAX_VERTICES:
             raise StructureError(
                 f"structure outline has {n} vertices, more than the {MAX_VERTICES} allowed")
@@ -331,7 +336,7 @@ class Structure:
         _check_encloses(s.outline, cavity)
         return s
 
-    def check(self, cavity):
+    def check(self, cavity: Section) -> None:
         """Raise :class:`StructureError` unless the structure holds ``cavity``.
 
         The outline must suit the cavity's kind (x >= 0 and ``axis`` only on
@@ -346,10 +351,11 @@ class Structure:
         _outer_section(self.outline, self.parts, cavity)
         _check_encloses(self.outline, cavity)
 
-    def replace(self, cavity, **changes):
+    def replace(self, cavity: Section, **changes: Any) -> Structure:
         """A validated copy with some fields changed (see :meth:`build`)."""
-        args = dict(outline=self.outline, parts=self.parts, unit_weight=self.unit_weight,
-                    extra_weight=self.extra_weight, anchorage=self.anchorage)
+        args: dict[str, Any] = dict(outline=self.outline, parts=self.parts,
+                                    unit_weight=self.unit_weight,
+                                    extra_weight=self.extra_weight, anchorage=self.anchorage)
         args.update(changes)
         return Structure.build(cavity=cavity, **args)
 
@@ -361,19 +367,19 @@ class Structure:
                 and self.anchorage == other.anchorage
                 and np.array_equal(self.outline, other.outline))
 
-    __hash__ = None
+    __hash__ = None  # type: ignore[assignment]  # equal by value (arrays): not hashable
 
     @property
-    def n_edges(self):
+    def n_edges(self) -> int:
         """Number of outer edges (= number of vertices)."""
         return int(self.outline.shape[0])
 
     @cached_property
-    def part_names(self):
+    def part_names(self) -> tuple[str, ...]:
         """Distinct part names, in order of first appearance (tuple of str)."""
         return tuple(dict.fromkeys(self.parts))
 
-    def section(self, cavity):
+    def section(self, cavity: Section) -> Section:
         """The outer outline as a :class:`Section` of the cavity's kind and
         width (trusted: built without checks), for the hydrostatic solver."""
         return Section(outline=self.outline, parts=self.parts, kind=cavity.kind,
@@ -519,7 +525,8 @@ def _check_encloses(pts, cavity):
 
 
 # -------------------------------------------------------- walls by thickness
-def walls_of_thickness(cavity, base, wall, roof, *, mitre_limit=MITRE_LIMIT):
+def walls_of_thickness(cavity: Section, base: float, wall: float, roof: float, *,
+                       mitre_limit: float = MITRE_LIMIT) -> np.ndarray:
     """An outer outline around ``cavity`` with the given thicknesses [m].
 
     Every cavity edge is offset outward by its own thickness: ``base`` on
@@ -667,7 +674,7 @@ def _tidy_ring(ring, orientation):
 
 
 # ------------------------------------------------------------- self-weight
-def self_weight(structure, cavity):
+def self_weight(structure: Structure, cavity: Section) -> float:
     """Weight of the structure's material [N] (per ``width`` for plane sections).
 
     .. math:: G = \\gamma_c\\,(V_\\mathrm{outer} - V_\\mathrm{cavity})
@@ -693,7 +700,8 @@ def self_weight(structure, cavity):
     return structure.unit_weight * (v_out - v_in)
 
 
-def soil_stress(z, ground, groundwater=None, gravity=STANDARD_GRAVITY):
+def soil_stress(z: ArrayLike, ground: Ground, groundwater: Groundwater | None = None,
+                gravity: float = STANDARD_GRAVITY) -> float | np.ndarray:
     """Vertical effective stress of the soil column above height ``z`` [Pa].
 
     .. math:: \\sigma'_v = \\gamma_d (G - \\max(z, z_w))^+
@@ -800,7 +808,8 @@ class ExteriorGeometry:
                                                     for c in pcs[:, 1:].T)
 
 
-def exterior_geometry(structure, cavity, *, checked=False):
+def exterior_geometry(structure: Structure, cavity: Section, *,
+                      checked: bool = False) -> ExteriorGeometry:
     """Precompute what :func:`exterior_loads` needs of a structure and cavity.
 
     Parameters
@@ -1023,12 +1032,12 @@ class Flotation:
     required: float
 
     @property
-    def ok(self):
+    def ok(self) -> bool:
         """True if nothing lifts the structure or the factor meets the required one."""
         return self.factor is None or self.factor >= self.required
 
     @property
-    def verdict(self):
+    def verdict(self) -> str:
         """"OK" or "NOT OK", for reports."""
         return "OK" if self.ok else "NOT OK"
 
@@ -1085,10 +1094,10 @@ class BasePressures:
     p_groundwater: np.ndarray
     p_liquid: np.ndarray
 
-    def __len__(self):
+    def __len__(self) -> int:
         return int(self.index.size)
 
-    def __getitem__(self, k):
+    def __getitem__(self, k: int) -> BasePressure:
         if not -len(self) <= k < len(self):
             raise IndexError(k)
         return BasePressure(index=int(self.index[k]), net=float(self.net[k]) + 0.0,
@@ -1101,7 +1110,7 @@ class BasePressures:
         return (self[k] for k in range(len(self)))
 
     @property
-    def governing(self):
+    def governing(self) -> BasePressure | None:
         """The :class:`BasePressure` with the largest net (the first among
         equals), or None without floor edges."""
         return self[int(np.argmax(self.net))] if len(self) else None
@@ -1167,12 +1176,12 @@ class StructureLoads:
     _base_inputs: tuple = field(default=(None, None, None, None), repr=False)
 
     @property
-    def groundwater_level(self):
+    def groundwater_level(self) -> float | None:
         """[m] or None in dry ground."""
         return None if self.groundwater is None else self.groundwater.level
 
     @cached_property
-    def parts(self):
+    def parts(self) -> dict[str, PartLoad]:
         """Groundwater plus soil per outer part, ``{name: PartLoad}``
         (``axis`` left out); ``down`` = -fz [N]."""
         s = self.structure
@@ -1187,13 +1196,13 @@ class StructureLoads:
                 for k, p in enumerate(names) if p != AXIS}
 
     @cached_property
-    def base(self):
+    def base(self) -> BasePressures:
         """Net upward pressure on the base under every floor edge
         (:class:`BasePressures`, computed when first asked for)."""
         return _base_pressures(*self._base_inputs)
 
     @cached_property
-    def base_net_max(self):
+    def base_net_max(self) -> BasePressure | None:
         """The governing :class:`BasePressure` (largest net over all floor
         edges, the first among equals), or None without floor edges; equal
         to ``base.governing`` without building the table."""
@@ -1202,9 +1211,11 @@ class StructureLoads:
         return _base_governing(*self._base_inputs)
 
 
-def exterior_loads(structure, cavity, *, groundwater=None, ground=None, gravity=None,
-                   liquid_solution=None, required_factor=DEFAULT_REQUIRED_FACTOR,
-                   geometry=None):
+def exterior_loads(structure: Structure, cavity: Section, *,
+                   groundwater: Groundwater | None = None, ground: Ground | None = None,
+                   gravity: float | None = None, liquid_solution: Solution | None = None,
+                   required_factor: float = DEFAULT_REQUIRED_FACTOR,
+                   geometry: ExteriorGeometry | None = None) -> StructureLoads:
     """Everything outside the cavity in one situation: groundwater, soil,
     self-weight, flotation and the net pressure on the base.
 
@@ -1477,7 +1488,7 @@ def _num(v):
     return None if math.isnan(v) else v + 0.0
 
 
-def structure_record(loads):
+def structure_record(loads: StructureLoads) -> dict:
     """The ``structure`` object of a case record (section format v3, results).
 
     Parameters
