@@ -411,11 +411,18 @@ class Design:
 
     def solve(self, name: str | None = None) -> SolvedCase:
         """The :class:`SolvedCase` called ``name`` (default: the first)."""
-        return self._solve(self.resolve(name))
+        return self._solve(self.resolve(name), {}, {})
 
     def solve_all(self) -> tuple[SolvedCase, ...]:
-        """Every case solved, in order (tuple of :class:`SolvedCase`)."""
-        return tuple(self._solve(r) for r in self._resolved)
+        """Every case solved, in order (tuple of :class:`SolvedCase`).
+
+        Cases with the same liquid situation (level, density, gravity: every
+        ``"empty"`` case, say) share one solution, and cases with the same
+        groundwater share its loads on the structure; all are immutable.
+        """
+        liquids: dict = {}
+        outside: dict = {}
+        return tuple(self._solve(r, liquids, outside) for r in self._resolved)
 
     # ------------------------------------------------------------ copies
     def with_case(self, case: Case) -> Design:
@@ -482,14 +489,17 @@ class Design:
         return ResolvedCase(name=name, index=index, case=case, level=float(requested),
                             fill=fill, groundwater=gw, load_factor=lc.load_factor)
 
-    def _solve(self, r):
-        sol = r.solve()
+    def _solve(self, r, liquids, outside):
+        key = (r.level, r.case.liquid.density, r.case.gravity, r.fill == EMPTY)
+        sol = liquids.get(key)
+        if sol is None:
+            sol = liquids[key] = r.solve()
         loads = None
         if self.structure is not None:
             loads = exterior_loads(self.structure, self.section, groundwater=r.groundwater,
                                    ground=self.ground, liquid_solution=sol,
                                    required_factor=self.required_factor,
-                                   geometry=self._exterior)
+                                   geometry=self._exterior, cache=outside)
         return SolvedCase(resolved=r, solution=sol, structure=loads)
 
 
@@ -657,9 +667,11 @@ def envelope(solved: Iterable[SolvedCase]) -> Envelope:
                     fl_factor, fl_case = value, name
         flotation = FlotationEnvelope(factor=fl_factor, case=fl_case,
                                       required=outside[0][2].flotation.required)
-        if any(loads.base_net_max is not None for _, _, loads in outside):
+        if any(len(loads._base_inputs[0].floor_edges) for _, _, loads in outside):
             b_val, b_case, b_pick = 0.0, None, None
             for name, lf, loads in outside:
+                if not loads.base_can_lift:  # its largest net is <= 0: never governs
+                    continue
                 top = loads.base_net_max
                 if top is not None and lf * top.net > b_val:
                     b_val, b_case, b_pick = lf * top.net, name, top

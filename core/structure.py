@@ -789,16 +789,22 @@ class ExteriorGeometry:
 
     @cached_property
     def _soil_arrays(self):
-        """``x0, z0, dx, dz, 1/dz`` of the soil pieces (1/dz = 0 where flat)."""
+        """``x0, z0, x1, z1, z_low, z_high`` of the soil pieces."""
         x0, z0, x1, z1 = (np.ascontiguousarray(c) for c in self.soil_segments.T)
-        dz = z1 - z0
-        inv = np.zeros_like(dz)
-        np.divide(1.0, dz, out=inv, where=dz != 0)
-        return x0, z0, x1 - x0, dz, inv
+        return x0, z0, x1, z1, np.minimum(z0, z1), np.maximum(z0, z1)
 
     @cached_property
     def _overhung_edges(self):
         return np.fromiter(self.overhung, dtype=np.intp, count=len(self.overhung))
+
+    @cached_property
+    def base_lowest_underside(self):
+        """Lowest point of the structure's underside below the floor edges
+        [m] (inf without floor edges): groundwater at or below it cannot
+        lift the base."""
+        if self.base_pieces.shape[0] == 0:
+            return math.inf
+        return float(self.base_pieces[:, 5:7].min())
 
     @cached_property
     def _base_columns(self):
@@ -1180,6 +1186,15 @@ class StructureLoads:
         """[m] or None in dry ground."""
         return None if self.groundwater is None else self.groundwater.level
 
+    @property
+    def base_can_lift(self) -> bool:
+        """False if the net upward pressure on the base cannot be positive
+        (dry ground, or groundwater at or below the base's lowest underside:
+        no groundwater pressure there, and the liquid only presses down)."""
+        geometry = self._base_inputs[0]
+        return (self.groundwater is not None and geometry is not None
+                and self.groundwater.level > geometry.base_lowest_underside)
+
     @cached_property
     def parts(self) -> dict[str, PartLoad]:
         """Groundwater plus soil per outer part, ``{name: PartLoad}``
@@ -1215,7 +1230,8 @@ def exterior_loads(structure: Structure, cavity: Section, *,
                    groundwater: Groundwater | None = None, ground: Ground | None = None,
                    gravity: float | None = None, liquid_solution: Solution | None = None,
                    required_factor: float = DEFAULT_REQUIRED_FACTOR,
-                   geometry: ExteriorGeometry | None = None) -> StructureLoads:
+                   geometry: ExteriorGeometry | None = None,
+                   cache: dict | None = None) -> StructureLoads:
     """Everything outside the cavity in one situation: groundwater, soil,
     self-weight, flotation and the net pressure on the base.
 
@@ -1238,6 +1254,10 @@ def exterior_loads(structure: Structure, cavity: Section, *,
     geometry : ExteriorGeometry, optional
         From :func:`exterior_geometry` for this structure and cavity, to
         skip recomputing it for every case.
+    cache : dict, optional
+        A dict shared by the calls for one geometry: situations with the
+        same groundwater, gravity and ground reuse its groundwater and soil
+        results (immutable) instead of computing them again.
 
     Returns
     -------
@@ -1319,38 +1339,16 @@ def exterior_loads(structure: Structure, cavity: Section, *,
                 f"saturated soil unit weight {ground.unit_weight_saturated:g} N/m3 is less than "
                 f"the groundwater's {rw:.6g} N/m3 (rho_w g): the soil would float")
 
-    outer = geometry.outer
-    n = outer.n_edges
     axi = cavity.is_axisymmetric
     scale = 1.0 if axi else cavity.width
-    if groundwater is None:
-        zero = np.zeros(n)
-        fx = np.full(n, np.nan) if axi else zero.copy()
-        fz, p0, p1 = zero.copy(), zero.copy(), zero.copy()
-        buoyancy = 0.0
-    else:
-        sol = solve(outer, groundwater.level, groundwater.density, gravity)
-        fx = np.subtract(0.0, sol.fx)  # not -sol.fx, which gives -0.0 on dry edges
-        fz = np.subtract(0.0, sol.fz)
-        p0 = np.array(sol.p_start)
-        p1 = np.array(sol.p_end)
-        buoyancy = float(fz.sum())
-
-    soil_fz = np.zeros(n)
-    warnings = []
-    if ground is not None and geometry.soil_owner.size:
-        w = _soil_on_pieces(geometry, ground, groundwater, gravity, axi)
-        w *= -scale
-        soil_fz = np.bincount(geometry.soil_owner, weights=w, minlength=n) + 0.0  # no -0.0
-        hung = geometry._overhung_edges
-        under = hung[soil_fz[hung] < 0.0].tolist()
-        if under:
-            listed = ", ".join(str(k) for k in under[:5]) + (" ..." if len(under) > 5 else "")
-            warnings.append(
-                f"soil on structure edge(s) {listed} is taken up to the ground surface, but the "
-                f"structure lies above (edge {geometry.overhung[under[0]]} over edge {under[0]}): "
-                "the soil weight there is overstated")
-    soil_weight = float(-soil_fz.sum()) + 0.0
+    key = (None if groundwater is None else (groundwater.level, groundwater.density), gravity,
+           ground)
+    outside = None if cache is None else cache.get(key)
+    if outside is None:
+        outside = _outside(geometry, groundwater, ground, gravity, axi, scale)
+        if cache is not None:
+            cache[key] = outside
+    fx, fz, p0, p1, buoyancy, soil_fz, soil_weight, warnings = outside
 
     extra = structure.extra_weight * scale
     anchorage = structure.anchorage * scale
@@ -1359,51 +1357,122 @@ def exterior_loads(structure: Structure, cavity: Section, *,
     factor = resistance / uplift if uplift > 0.0 else None
     flotation = Flotation(uplift=uplift, resistance=resistance, factor=factor,
                           required=required_factor)
-    for a in (fx, fz, p0, p1, soil_fz):
-        a.setflags(write=False)
     return StructureLoads(
         structure=structure, cavity=cavity, groundwater=groundwater, ground=ground, gravity=gravity,
         self_weight=geometry.self_weight, extra_weight=extra, anchorage=anchorage,
         soil_weight=soil_weight, buoyancy=buoyancy, fx=fx, fz=fz, p_water_start=p0,
-        p_water_end=p1, soil_fz=soil_fz, flotation=flotation, warnings=tuple(warnings),
+        p_water_end=p1, soil_fz=soil_fz, flotation=flotation, warnings=warnings,
         _base_inputs=(geometry, groundwater, gravity, liquid_solution))
+
+
+def _outside(geometry, groundwater, ground, gravity, axi, scale):
+    """Groundwater and soil on the outer edges: (fx, fz, p_water_start,
+    p_water_end, buoyancy, soil_fz, soil_weight, warnings), arrays read-only."""
+    outer = geometry.outer
+    n = outer.n_edges
+    if groundwater is None:
+        zero = np.zeros(n)
+        fx = np.full(n, np.nan) if axi else zero.copy()
+        fz, p0, p1 = zero.copy(), zero.copy(), zero.copy()
+        buoyancy = 0.0
+    else:
+        # The solution is this function's own: its arrays are reused in place.
+        sol = solve(outer, groundwater.level, groundwater.density, gravity)
+        fx = np.subtract(0.0, sol.fx, out=sol.fx)  # not -fx, which gives -0.0 when dry
+        fz = np.subtract(0.0, sol.fz, out=sol.fz)
+        p0, p1 = sol.p_start, sol.p_end
+        buoyancy = float(fz.sum())
+    soil_fz = np.zeros(n)
+    warnings = []
+    if ground is not None and geometry.soil_owner.size:
+        w = _soil_on_pieces(geometry, ground, groundwater, gravity, axi)
+        w *= -scale
+        soil_fz = np.bincount(geometry.soil_owner, weights=w, minlength=n) + 0.0  # no -0.0
+        hung = geometry._overhung_edges
+        under = hung[soil_fz[hung] < 0.0]
+        if under.size:
+            listed = ", ".join(str(k) for k in under[:5].tolist()) \
+                + (" ..." if under.size > 5 else "")
+            warnings.append(
+                f"soil on structure edge(s) {listed} is taken up to the ground surface, but the "
+                f"structure lies above (edge {geometry.overhung[under[0]]} over edge {under[0]}): "
+                "the soil weight there is overstated")
+    soil_weight = float(-soil_fz.sum()) + 0.0
+    for a in (fx, fz, p0, p1, soil_fz):
+        a.setflags(write=False)
+    return fx, fz, p0, p1, buoyancy, soil_fz, soil_weight, tuple(warnings)
 
 
 def _soil_on_pieces(geometry, ground, groundwater, gravity, axi):
     """Integral of the soil stress over each piece's horizontal projection
-    [N/m for plane, N for axisymmetric], exact (see :func:`exterior_loads`)."""
-    x0, z0, dx, dz, inv_dz = geometry._soil_arrays
+    [N/m for plane, N for axisymmetric], exact (see :func:`exterior_loads`).
+
+    The stress is linear along a piece between the levels z_w and G, so a
+    piece lying within one band is integrated from its end values at once;
+    only the pieces that straddle z_w or G are split there first.
+    """
+    x0, z0, x1, z1, z_lo, z_hi = geometry._soil_arrays
     gl = ground.level
-    # Dry ground: any level at or below the structure gives the dry formula.
-    zw = groundwater.level if groundwater is not None else min(geometry.outer.z_min, gl)
-    # Parameters of the splits at z_w and G along each piece (0 on flat ones).
-    t = np.empty((4, x0.size))
-    t[0] = 0.0
-    t[3] = 1.0
-    tw = np.clip((zw - z0) * inv_dz, 0.0, 1.0)
-    tg = np.clip((gl - z0) * inv_dz, 0.0, 1.0)
-    np.minimum(tw, tg, out=t[1])
-    np.maximum(tw, tg, out=t[2])
-    z = t * dz
-    z += z0
+    gd = ground.unit_weight_dry
     if groundwater is None:
-        sigma = np.maximum(gl - z, 0.0)
-        sigma *= ground.unit_weight_dry
+        kinks = (gl,)
+
+        def sigma(z):
+            out = np.subtract(gl, z)
+            np.maximum(out, 0.0, out=out)
+            out *= gd
+            return out
     else:
+        zw = groundwater.level
         sub = ground.unit_weight_saturated - groundwater.unit_weight(gravity)
-        sigma = np.maximum(gl - np.maximum(z, zw), 0.0)
-        sigma *= ground.unit_weight_dry
-        sigma += sub * np.maximum(min(gl, zw) - z, 0.0)
-    span = np.diff(t, axis=0)  # (3, K): each straight part's share of the piece
-    span *= np.abs(dx)
-    sa, sb = sigma[:-1], sigma[1:]
+        low = min(gl, zw)
+        kinks = (gl, zw)
+
+        def sigma(z):
+            out = np.maximum(z, zw)
+            np.subtract(gl, out, out=out)
+            np.maximum(out, 0.0, out=out)
+            out *= gd
+            wet = np.subtract(low, z)
+            np.maximum(wet, 0.0, out=wet)
+            wet *= sub
+            out += wet
+            return out
+
+    w = _trapezoids(x0, x1, sigma(z0), sigma(z1), axi)
+    straddle = np.zeros(z0.shape, dtype=bool)
+    for zk in kinks:
+        straddle |= (z_lo < zk) & (z_hi > zk)
+    idx = np.flatnonzero(straddle)
+    if idx.size:
+        xa, za, xb, zb = x0[idx], z0[idx], x1[idx], z1[idx]
+        dz = zb - za  # not zero: the piece straddles a level
+        t = np.empty((len(kinks) + 2, idx.size))
+        t[0] = 0.0
+        t[-1] = 1.0
+        for j, zk in enumerate(kinks):
+            np.clip((zk - za) / dz, 0.0, 1.0, out=t[j + 1])
+        t.sort(axis=0)
+        x = xa + t * (xb - xa)
+        sg = sigma(za + t * dz)
+        w[idx] = _trapezoids(x[:-1], x[1:], sg[:-1], sg[1:], axi).sum(axis=0)
+    return w
+
+
+def _trapezoids(xa, xb, sa, sb, axi):
+    """Exact integral of a stress linear from ``sa`` at x = ``xa`` to ``sb`` at
+    ``xb`` over the horizontal projection: per unit width (plane) or over the
+    revolution, ``2 pi int sigma r dr`` (axisymmetric) [N/m or N]."""
+    span = np.abs(xb - xa)
     if not axi:
-        return ((sa + sb) * span).sum(axis=0) * 0.5
-    x = t * dx
-    x += x0
-    xa, xb = x[:-1], x[1:]
-    return ((sa * (2.0 * xa + xb) + sb * (xa + 2.0 * xb)) * span).sum(axis=0) \
-        * (2.0 * np.pi / 6.0)
+        out = sa + sb
+        out *= span
+        out *= 0.5
+        return out
+    out = (sa * (2.0 * xa + xb) + sb * (xa + 2.0 * xb))
+    out *= span
+    out *= 2.0 * np.pi / 6.0
+    return out
 
 
 def _liquid_pressure(solution, z):

@@ -396,3 +396,25 @@ def test_solve_all_gives_each_case_its_loads():
     flood = solved[2].structure
     assert flood.groundwater_level == 4.0 and solved[0].structure.groundwater_level is None
     assert np.array_equal(d.solve("overflow").solution.fz, solved[1].solution.fz)
+
+
+def test_solve_all_shares_equal_situations_and_matches_single_solves():
+    cav, s = wet_well()
+    gw = Groundwater(3.0)
+    d = Design(Case(cav, custom_liquid(1000.0), fill_level=3.2), s, Ground(4.0), cases=(
+        LoadCase("empty a", fill_level=EMPTY, groundwater=gw),
+        LoadCase("empty b", fill_level=EMPTY, groundwater=Groundwater(3.0), load_factor=1.5),
+        LoadCase("full", fill_level=SPILL, groundwater=gw),
+        LoadCase("heavy", liquid=custom_liquid(1200.0), groundwater=Groundwater(2.0))))
+    a, b, full, heavy = d.solve_all()
+    assert a.solution is b.solution and a.solution is not full.solution
+    assert a.structure.fz is b.structure.fz and a.structure.fz is full.structure.fz
+    assert heavy.structure.fz is not a.structure.fz
+    for solved in (a, b, full, heavy):
+        alone = d.solve(solved.name)
+        assert np.array_equal(alone.solution.fz, solved.solution.fz)
+        assert np.array_equal(alone.structure.fz, solved.structure.fz)
+        assert alone.structure.flotation == solved.structure.flotation
+        assert alone.structure.base_net_max == solved.structure.base_net_max
+    # the net on the base still sees each case's own liquid
+    assert full.structure.base_net_max.net < a.structure.base_net_max.net
