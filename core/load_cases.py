@@ -630,7 +630,7 @@ def envelope(solved: Iterable[SolvedCase]) -> Envelope:
     section = solved[0].solution.section
     n = section.n_edges
     for s in solved:
-        if s.solution.section.n_edges != n:
+        if s.solution.section is not section and s.solution.section != section:
             raise ValueError("the envelope's cases must be of one section")
     gamma = np.array([s.load_factor for s in solved])
     # Edges: (C, N) design pressures.

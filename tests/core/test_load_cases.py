@@ -418,3 +418,20 @@ def test_solve_all_shares_equal_situations_and_matches_single_solves():
         assert alone.structure.base_net_max == solved.structure.base_net_max
     # the net on the base still sees each case's own liquid
     assert full.structure.base_net_max.net < a.structure.base_net_max.net
+
+
+def test_design_type_and_envelope_refusals():
+    cav, s = wet_well()
+    base = Case(cav, fresh_water(), fill_level=1.0)
+    with pytest.raises(TypeError, match="structure must be a Structure"):
+        Design(base, structure=cav)
+    with pytest.raises(TypeError, match="ground must be a Ground"):
+        Design(base, s, ground=4.0)
+    other = Design(Case(Section.build([[0, 0], [1, 0], [1, 1]]), fresh_water(), fill_level=0.5))
+    with pytest.raises(ValueError, match="the envelope's cases must be of one section"):
+        envelope(Design(base).solve_all() + other.solve_all())
+    # same number of edges, another section
+    moved = Section.build(cav.outline + [0.0, 1.0], parts=cav.parts, name=cav.name)
+    with pytest.raises(ValueError, match="the envelope's cases must be of one section"):
+        envelope(Design(base).solve_all()
+                 + Design(Case(moved, fresh_water(), fill_level=1.5)).solve_all())

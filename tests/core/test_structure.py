@@ -851,3 +851,13 @@ def test_equality_and_replace():
     assert same == box and same != box.replace(cav, unit_weight=24000.0)
     assert box.replace(cav, unit_weight=24000.0).unit_weight == 24000.0
     assert box.outline.flags.writeable is False
+
+
+def test_structure_needs_a_section_as_cavity():
+    with pytest.raises(TypeError, match="cavity must be a Section"):
+        Structure.build([[0, 0], [3, 0], [3, 4], [0, 4]], cavity=[[0, 0], [1, 0], [0, 1]])
+    cav, box = open_box()
+    loads = exterior_loads(box, cav)
+    with pytest.raises(IndexError):
+        loads.base[1]
+    assert len(loads.base) == 1 and loads.base[-1] == loads.base[0]
