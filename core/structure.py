@@ -312,8 +312,10 @@ class Structure:
         StructureError
             With a one-line message naming the fault and where it is: the
             outline's own faults (as :meth:`Section.build` words them,
-            prefixed "structure outline"), a reserved part name, or an
-            outline that does not hold the cavity (see :meth:`check`).
+            prefixed "structure": "structure outline crosses itself ...",
+            "structure edge 3 has zero length ..."), a reserved part name, a
+            number out of range, or an outline that does not hold the cavity
+            (see :meth:`check`).
         """
         if not isinstance(outline, Sized):
             raise StructureError("structure outline must be a list of [x, z] number pairs")
@@ -591,7 +593,7 @@ def walls_of_thickness(cavity: Section, base: float, wall: float, roof: float, *
         # Keep the mouth open: nothing of the walls' offsets may reach over
         # an open edge (a rippled or curved rim would otherwise be covered).
         mouth = np.where(is_open, reach, 0.0)
-        cut = shapely.union_all(_offset_pieces(cavity, mouth, np.inf, corners_of=is_open))
+        cut = shapely.union_all(_offset_pieces(cavity, mouth, mitre_limit, corners_of=is_open))
         region = shapely.difference(region, shapely.difference(cut, shapely.Polygon(pts)))
     if cavity.is_axisymmetric:
         lo = np.min(pts, axis=0) - 2.0 * reach
@@ -851,9 +853,8 @@ def _soil_segments(outer, cavity):
     """Upward-facing outer edges as pieces, minus the cavity's opening."""
     geo = outer.geometry
     up = np.flatnonzero((geo.nz > 0) & (geo.dx != 0))
-    x0, z0 = geo.x0[up], geo.z0[up]
-    x1, z1 = x0 + geo.dx[up], z0 + geo.dz[up]
-    seg = np.column_stack([x0, z0, x1, z1])
+    nxt = np.roll(outer.outline, -1, axis=0)[up]  # the end vertices themselves
+    seg = np.column_stack([geo.x0[up], geo.z0[up], nxt[:, 0], nxt[:, 1]])
     owner = up.astype(np.intp)
     if not cavity.is_open or up.size == 0:
         return seg, owner
