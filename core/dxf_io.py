@@ -747,6 +747,7 @@ def _read_polyline(entity: LWPolyline | Polyline, how: _Reading, survey: _Survey
     bounds = (float(x.min()), float(z.min()), float(x.max()), float(z.max()))
     notes = _outline_notes(how, dropped, arcs, missing if parts is None and from_wetline else 0,
                            max(bounds[2] - bounds[0], bounds[3] - bounds[1]))
+    x, z = x - x[0], z - z[0]  # shoelace about the first vertex: no cancellation far away
     area = 0.5 * abs(float(np.dot(x, np.roll(z, -1)) - np.dot(np.roll(x, -1), z)))
     return DxfOutline(
         index=index, handle=entity.dxf.handle, layer=layer, entity=entity.dxftype(),

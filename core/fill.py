@@ -12,7 +12,10 @@ dz = 0, so by Green's theorem only the clipped edges contribute:
 for plane (times the width) and axisymmetric sections, s = +1 for a
 counter-clockwise outline. With x linear along each edge these are exact:
 A(h) is piecewise quadratic and V(h) piecewise cubic in h between vertex
-heights.
+heights. Both sums are taken with x relative to the outline's first vertex
+(see :func:`_green_sum`), so a section far from the origin, or a ring far
+from the axis, keeps the accuracy of the same shape near it; z enters only
+as differences (h - z, dz) already.
 
 The inverse, :func:`level_for_volume`, looks up the band of vertex heights
 holding the volume in a table built once per section by a sweep over the
@@ -24,9 +27,14 @@ brackets the wrong band.
 
 from __future__ import annotations
 
+from collections.abc import Sequence
 from dataclasses import dataclass
+from typing import TYPE_CHECKING, Any
 
 import numpy as np
+
+if TYPE_CHECKING:
+    from .section import Section
 
 __all__ = [
     "FillError",
@@ -54,30 +62,57 @@ def _clipped(geo, h):
     return f, ta
 
 
-def _green_sum(section, f, ta):
+def _green_sum(section: Section, f: np.ndarray, ta: np.ndarray,
+               work: Sequence[np.ndarray] | None = None) -> Any:
     """Sum over edges of the clipped Green integral, scaled to a volume [m3].
 
     ``f`` and ``ta`` are (N,) or (M, N); returns a float or an (M,) array.
+    ``work`` are 3 scratch arrays of their shape (else allocated here).
+
+    The sums are taken relative to the first vertex's x, xr, so that they
+    do not depend on where the section lies: the clipped boundary is closed,
+    so the sum of the clipped dz vanishes and, with X = x - xr,
+
+    .. math::
+
+        \\sum \\int x\\,dz = \\sum \\int X\\,dz, \\qquad
+        \\sum \\int x^2 dz = \\sum \\int X^2 dz + 2 x_r \\sum \\int X\\,dz
+
+    (the revolved volume as the volume about the reference radius plus a
+    Pappus term, 2 pi xr times the area). Each sum is then of terms of the
+    section's own size, whatever the coordinates' magnitude.
     """
     geo = section.geometry
-    if not section.is_axisymmetric:
-        # int x dz over the clipped part = dz f (x0 + dx (ta + f / 2))
-        xm = np.multiply(f, 0.5)
-        xm += ta
-        xm *= geo.dx
-        xm += geo.x0
-        xm *= f
-        return (xm @ geo.dz) * (section.orientation * section.width)
-    # int x^2 dz over the clipped part = dz f (xa^2 + xa xb + xb^2) / 3
-    xa = np.multiply(ta, geo.dx)
-    xa += geo.x0
-    xb = np.multiply(f, geo.dx)
-    xb += xa
-    q = xa * xa
-    xa *= xb
-    q += xa
-    xb *= xb
-    q += xb
+    xr = float(geo.x0[0])
+    axi = section.is_axisymmetric
+    if work is not None:
+        q, a, b = work
+    else:  # the plane sum needs only q and one row of x - xr
+        q, a, b = (np.empty(f.shape), np.empty(f.shape if axi else f.shape[-1:]),
+                   np.empty(f.shape if axi else 0))
+    if not axi:
+        # int X dz over the clipped part = dz f (X0 + dx (ta + f / 2))
+        np.multiply(f, 0.5, out=q)
+        q += ta
+        q *= geo.dx
+        np.subtract(geo.x0, xr, out=a)
+        q += a
+        q *= f
+        return (q @ geo.dz) * (section.orientation * section.width)
+    # With Xa, Xb the clipped part's ends relative to xr:
+    # int x^2 dz = dz f ((Xa^2 + Xa Xb + Xb^2) / 3 + xr (Xa + Xb) + xr^2), the
+    # last term summing to zero; 3 (...) = Xa (Xa + Xb + 3 xr) + Xb (Xb + 3 xr).
+    np.subtract(geo.x0, xr, out=a)
+    np.multiply(ta, geo.dx, out=b)
+    a += b  # Xa
+    np.multiply(f, geo.dx, out=b)
+    b += a  # Xb
+    np.add(a, b, out=q)
+    q += 3.0 * xr
+    q *= a
+    np.add(b, 3.0 * xr, out=a)
+    a *= b
+    q += a
     q *= f
     return (q @ geo.dz) * (section.orientation * np.pi / 3.0)
 
@@ -176,7 +211,8 @@ def volume_curve(section):
     m = heights.size
     zmin = heights[0]
     span = heights[-1] - zmin
-    x0, dz = geo.x0, geo.dz
+    xr = float(geo.x0[0])  # x relative to the first vertex, as in _green_sum
+    x0, dz = geo.x0 - xr, geo.dz
     x1 = np.roll(x0, -1)
     z1 = np.roll(z, -1)
     up = dz > 0
@@ -194,14 +230,19 @@ def volume_curve(section):
     with np.errstate(divide="ignore", invalid="ignore"):
         k = np.where(steep, (xh - xl) / np.where(steep, band, 1.0), 0.0)
     alpha = xl - k * zl
+    # int X dz (plane), and int X^2 dz + 2 xr int X dz (axisymmetric).
+    const = band * (xl + xh) * 0.5
+    c = np.stack([-(alpha * zl + 0.5 * k * zl ** 2), alpha, 0.5 * k, np.zeros_like(k)])
     if axi:
-        const = sigma * np.pi * band * (xl * xl + xl * xh + xh * xh) / 3.0
+        const = band * (xl * xl + xl * xh + xh * xh) / 3.0 + 2.0 * xr * const
         c = np.stack([-(alpha * alpha * zl + alpha * k * zl ** 2 + k * k * zl ** 3 / 3.0),
-                      alpha * alpha, alpha * k, k * k / 3.0]) * (sigma * np.pi)
+                      alpha * alpha, alpha * k, k * k / 3.0]) + 2.0 * xr * c
+        scale = sigma * np.pi
     else:
-        const = sigma * band * (xl + xh) * 0.5 * section.width
-        c = np.stack([-(alpha * zl + 0.5 * k * zl ** 2), alpha, 0.5 * k]) \
-            * (sigma * section.width)
+        c = c[:3]
+        scale = sigma * section.width
+    const = const * scale
+    c = c * scale
     c = np.where(steep, c, 0.0)
     diff = np.empty((deg + 1, m + 1))
     for d in range(deg + 1):

@@ -288,7 +288,8 @@ def solve(section, level, density, gravity=STANDARD_GRAVITY):
     ta = w3
     np.subtract(1.0, f, out=ta)
     np.multiply(ta, geo.falls, out=ta)
-    volume = float(_green_sum(section, f, ta))
+    # The force rows are free until the forces are computed: scratch here.
+    volume = float(_green_sum(section, f, ta, work=(fx[:n], fz[:n], res[:n])))
 
     if not axi:
         # Normal force per edge = rg * width * Lw * (a0 + a1) / 2.

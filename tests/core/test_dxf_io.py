@@ -667,3 +667,17 @@ def test_a_file_over_the_size_limit_is_refused_before_reading(tmp_path):
     with pytest.raises(DxfError, match=r"^huge.dxf is larger than the 64 MiB Wetline reads "
                                        r"\(64\.0 MiB\)$"):
         list_outlines(path)
+
+
+def test_the_area_of_an_outline_far_from_the_origin_is_exact(tmp_path):
+    # Site coordinates: a star 2 m across at x = 5,000 km. Reference: the
+    # shoelace formula in exact rational arithmetic on the stored floats.
+    from fractions import Fraction
+
+    pts = star(9, 4) + [5e6, 0.0]
+    doc, msp = drawing(units=6)
+    msp.add_lwpolyline(pts.tolist(), close=True)
+    (o,) = list_outlines(save(doc, tmp_path))
+    v = [(Fraction(x), Fraction(z)) for x, z in o.vertices.tolist()]
+    exact = abs(sum(v[i][0] * v[i - 1][1] - v[i - 1][0] * v[i][1] for i in range(len(v)))) / 2
+    assert o.area == pytest.approx(float(exact), rel=1e-15)
