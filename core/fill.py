@@ -34,7 +34,7 @@ from typing import TYPE_CHECKING, Any
 import numpy as np
 
 if TYPE_CHECKING:
-    from .section import Section
+    from .section import EdgeGeometry, Section
 
 __all__ = [
     "FillError",
@@ -51,15 +51,37 @@ class FillError(ValueError):
     """A fill that cannot be met (more liquid than the section holds ...)."""
 
 
-def _clipped(geo, h):
-    """Wetted fraction ``f`` and start parameter ``ta`` of every edge at
-    level(s) ``h`` (scalar, or a column of shape (M, 1) for many levels)."""
-    f = np.subtract(h, geo.z_low)
-    np.multiply(f, geo.inv_abs_dz, out=f)
+def _clipped(geo: EdgeGeometry, h: float | np.ndarray, idx: np.ndarray | None = None, *,
+             flat: bool = True) -> tuple[np.ndarray, np.ndarray]:
+    """Wetted fraction ``f`` and start parameter ``ta`` of every edge (or
+    of the edges ``idx``) at level(s) ``h`` (scalar, or a column of shape
+    (M, 1) for many levels).
+
+    f = clip((h - z_low) / |dz|, 0, 1); with ``flat``, a horizontal edge at
+    or below the surface is wetted whole (points with z <= h are wetted,
+    physics spec), also when it lies exactly at the surface. Volumes do not
+    need that (dz = 0 there): they pass ``flat=False``.
+    """
+    z_low, inv, falls = geo.z_low, geo.inv_abs_dz, geo.falls
+    dz = geo.dz
+    if idx is not None:
+        z_low, inv, falls, dz = z_low[idx], inv[idx], falls[idx], dz[idx]
+    f = np.subtract(h, z_low)
+    np.multiply(f, inv, out=f)
     np.clip(f, 0.0, 1.0, out=f)
+    if flat:
+        np.copyto(f, 1.0, where=_flat_wetted(dz, z_low, h))
     ta = np.subtract(1.0, f)
-    np.multiply(ta, geo.falls, out=ta)
+    np.multiply(ta, falls, out=ta)
     return f, ta
+
+
+def _flat_wetted(dz: np.ndarray, z_low: np.ndarray, h: float | np.ndarray) -> np.ndarray:
+    """Mask of the horizontal edges at or below the level(s) ``h`` [m],
+    which are wetted over their whole length (z <= h)."""
+    below = np.less_equal(z_low, h)  # (N,) or (M, N)
+    below &= np.equal(dz, 0.0)
+    return below
 
 
 def _green_sum(section: Section, f: np.ndarray, ta: np.ndarray,
@@ -143,7 +165,7 @@ def volume_below(section, level):
     >>> abs(volume_below(s, 1.0) - np.pi / 12) < 1e-15
     True
     """
-    f, ta = _clipped(section.geometry, float(level))
+    f, ta = _clipped(section.geometry, float(level), flat=False)
     return float(_green_sum(section, f, ta))
 
 
@@ -167,7 +189,7 @@ def volume_below_many(section, levels, *, chunk_elements=2_000_000):
     out = np.empty(levels.shape)
     rows = max(1, chunk_elements // max(section.n_edges, 1))
     for i in range(0, levels.size, rows):
-        f, ta = _clipped(section.geometry, levels[i:i + rows, None])
+        f, ta = _clipped(section.geometry, levels[i:i + rows, None], flat=False)
         out[i:i + rows] = _green_sum(section, f, ta)
     return out
 

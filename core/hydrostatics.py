@@ -94,7 +94,8 @@ class Solution:
     max_pressure : float
         Largest wall pressure [Pa], at the lowest wetted point.
     wetted_length : numpy.ndarray
-        [m].
+        Length of each edge at or below the level [m]; a horizontal edge
+        lying exactly at the free surface counts whole (at zero pressure).
     p_start, p_end : numpy.ndarray
         Pressure at each edge's start and end vertex [Pa], 0 where dry.
     fx, fz : numpy.ndarray
@@ -104,7 +105,8 @@ class Solution:
         Magnitude of each edge's force [N].
     centre_of_pressure : numpy.ndarray
         (N, 2) point on each edge where its resultant acts [m]; NaN for dry
-        edges and for axisymmetric sections.
+        edges and for axisymmetric sections. A horizontal edge at the free
+        surface has its midpoint (the limit of a ledge just below it).
     hoop_start, hoop_end : numpy.ndarray
         Hoop force at both ends [N/m] (axisymmetric); NaN on horizontal
         edges and for plane sections.
@@ -277,6 +279,11 @@ def solve(section, level, density, gravity=STANDARD_GRAVITY):
     np.subtract(h, geo.z_low, out=f)
     np.multiply(f, geo.inv_abs_dz, out=f)
     np.clip(f, 0.0, 1.0, out=f)
+    # Horizontal edges at or below the surface are wetted whole (z <= h),
+    # also exactly at it, where (h - z_low) / |dz| would be 0 / 0.
+    flat = np.flatnonzero(geo.dz == 0.0)
+    flat = flat[geo.z_low[flat] <= h]
+    f[flat] = 1.0
     wl = wetted[:n]
     np.multiply(f, geo.length, out=wl)
 
@@ -306,6 +313,7 @@ def solve(section, level, density, gravity=STANDARD_GRAVITY):
             np.divide(t, s01, out=t)
         np.multiply(t, 1.0 / 3.0, out=t)
         np.add(t, ta, out=t)
+        t[flat] = 0.5  # uniform pressure, even 0 at the surface
         cz = cpz[:n]
         np.multiply(t, geo.dz, out=cz)
         np.add(cz, geo.z0, out=cz)

@@ -179,8 +179,6 @@ def part_down_at(section, part, levels, density, gravity=STANDARD_GRAVITY):
     if idx.size == 0:
         raise ValueError(f"the section has no part {part!r}")
     levels = np.asarray(levels, dtype=np.float64).ravel()
-    geo = section.geometry
     h = levels[:, None]
-    f = np.clip((h - geo.z_low[idx]) * geo.inv_abs_dz[idx], 0.0, 1.0)
-    ta = (1.0 - f) * geo.falls[idx]
+    f, ta = _clipped(section.geometry, h, idx)
     return -_edge_fz(section, h, f, ta, float(density) * float(gravity), idx).sum(axis=1)
