@@ -535,7 +535,8 @@ def _arcs(rows: np.ndarray, sagitta_ratio: float | None, sagitta: float | None) 
             u = np.full(index.size, 0.5 * sagitta_ratio)
         else:
             chord = np.hypot(dx[index], dy[index])
-            u = sagitta * np.abs(np.sin(0.5 * sweep)) / chord
+            with np.errstate(over="ignore"):  # a huge tolerance: one chord anyway
+                u = sagitta * np.abs(np.sin(0.5 * sweep)) / chord
         phi = 4.0 * np.arcsin(np.sqrt(np.minimum(u, 1.0)))
         # phi is 0 only if u underflowed, for an arc flat to round-off: 1 chord.
         ratio = np.abs(sweep) / np.where(phi > 0.0, phi, np.inf)
@@ -683,7 +684,7 @@ def _closed_rows(entity: LWPolyline | Polyline, how: _Reading,
         survey.faults.append(f"{_describe_polyline(entity, closed)} with {fault}")
         return None
     extent = float(np.max(np.abs(rows[:, :2]))) if rows.size else 0.0
-    tol = _SAME_POINT * (extent or 1.0)
+    tol = _SAME_POINT * max(extent, 1e-290)  # > 0 for the tiniest drawing too
     ends_meet = len(rows) >= 2 and np.hypot(*(rows[-1, :2] - rows[0, :2])) <= tol
     if not (closed or ends_meet):
         kind = entity.dxftype()

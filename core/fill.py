@@ -47,6 +47,13 @@ __all__ = [
 ]
 
 
+FLAT_INV_DZ = 1e200
+"""Edges whose 1/|dz| is at least this [1/m] count as horizontal: those
+rising less than 1e-200 m, and the truly horizontal ones, which
+:class:`~wetline.core.section.EdgeGeometry` gives 1e200. At or below the
+level they are wetted whole (z <= h, physics spec)."""
+
+
 class FillError(ValueError):
     """A fill that cannot be met (more liquid than the section holds ...)."""
 
@@ -63,24 +70,25 @@ def _clipped(geo: EdgeGeometry, h: float | np.ndarray, idx: np.ndarray | None = 
     need that (dz = 0 there): they pass ``flat=False``.
     """
     z_low, inv, falls = geo.z_low, geo.inv_abs_dz, geo.falls
-    dz = geo.dz
     if idx is not None:
-        z_low, inv, falls, dz = z_low[idx], inv[idx], falls[idx], dz[idx]
+        z_low, inv, falls = z_low[idx], inv[idx], falls[idx]
     f = np.subtract(h, z_low)
-    np.multiply(f, inv, out=f)
+    with np.errstate(over="ignore", invalid="ignore"):  # inf on near-flat edges: clipped
+        np.multiply(f, inv, out=f)
     np.clip(f, 0.0, 1.0, out=f)
     if flat:
-        np.copyto(f, 1.0, where=_flat_wetted(dz, z_low, h))
+        np.copyto(f, 1.0, where=_flat_wetted(inv, z_low, h))
     ta = np.subtract(1.0, f)
     np.multiply(ta, falls, out=ta)
     return f, ta
 
 
-def _flat_wetted(dz: np.ndarray, z_low: np.ndarray, h: float | np.ndarray) -> np.ndarray:
-    """Mask of the horizontal edges at or below the level(s) ``h`` [m],
-    which are wetted over their whole length (z <= h)."""
+def _flat_wetted(inv_abs_dz: np.ndarray, z_low: np.ndarray,
+                 h: float | np.ndarray) -> np.ndarray:
+    """Mask of the horizontal edges (see :data:`FLAT_INV_DZ`) at or below
+    the level(s) ``h`` [m], which are wetted over their whole length."""
     below = np.less_equal(z_low, h)  # (N,) or (M, N)
-    below &= np.equal(dz, 0.0)
+    below &= inv_abs_dz >= FLAT_INV_DZ
     return below
 
 
@@ -120,7 +128,7 @@ def _green_sum(section: Section, f: np.ndarray, ta: np.ndarray,
         np.subtract(geo.x0, xr, out=a)
         q += a
         q *= f
-        return (q @ geo.dz) * (section.orientation * section.width)
+        return _not_negative((q @ geo.dz) * (section.orientation * section.width))
     # With Xa, Xb the clipped part's ends relative to xr:
     # int x^2 dz = dz f ((Xa^2 + Xa Xb + Xb^2) / 3 + xr (Xa + Xb) + xr^2), the
     # last term summing to zero; 3 (...) = Xa (Xa + Xb + 3 xr) + Xb (Xb + 3 xr).
@@ -136,7 +144,15 @@ def _green_sum(section: Section, f: np.ndarray, ta: np.ndarray,
     a *= b
     q += a
     q *= f
-    return (q @ geo.dz) * (section.orientation * np.pi / 3.0)
+    return _not_negative((q @ geo.dz) * (section.orientation * np.pi / 3.0))
+
+
+def _not_negative(v: Any) -> Any:
+    """A volume or volumes, with round-off below zero (a sliver's few ulps
+    of cancellation) made 0: no region holds a negative volume."""
+    if np.ndim(v) == 0:
+        return max(float(v), 0.0)
+    return np.maximum(v, 0.0, out=v)
 
 
 def volume_below(section, level):
@@ -314,13 +330,13 @@ def level_for_volume(section, volume):
     volume = float(volume)
     if not np.isfinite(volume) or volume < 0:
         raise FillError(f"fill volume must be a number >= 0, not {volume:g}")
+    if volume == 0.0:
+        return section.z_min
     cap = capacity(section)
     if volume > cap * (1.0 + 1e-12):
         where = "below its spill level" if section.is_open else "in all (it is closed)"
         raise FillError(
             f"fill volume {volume:.6g} m3 is more than the section holds {where}: {cap:.6g} m3")
-    if volume == 0.0:
-        return section.z_min
     if volume >= cap:
         return section.top_level
     curve = section.volume_curve

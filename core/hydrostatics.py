@@ -41,7 +41,7 @@ from functools import cached_property
 import numpy as np
 
 from . import STANDARD_GRAVITY
-from .fill import _green_sum
+from .fill import FLAT_INV_DZ, _green_sum
 from .section import FLOOR, Section
 
 __all__ = ["PartLoad", "Solution", "solve", "resolve_level"]
@@ -274,14 +274,16 @@ def solve(section, level, density, gravity=STANDARD_GRAVITY):
     p_start = p_vertex[:n]
     p_end = p_vertex[1:]
 
-    # Wetted fraction f of each edge.
+    # Wetted fraction f of each edge; the product overflows to inf on an edge
+    # rising under 1e-200 m (1 / |dz| is huge), which the clip makes 1.
     f = w1
     np.subtract(h, geo.z_low, out=f)
-    np.multiply(f, geo.inv_abs_dz, out=f)
+    with np.errstate(over="ignore", invalid="ignore"):
+        np.multiply(f, geo.inv_abs_dz, out=f)
     np.clip(f, 0.0, 1.0, out=f)
     # Horizontal edges at or below the surface are wetted whole (z <= h),
     # also exactly at it, where (h - z_low) / |dz| would be 0 / 0.
-    flat = np.flatnonzero(geo.dz == 0.0)
+    flat = np.flatnonzero(geo.inv_abs_dz >= FLAT_INV_DZ)
     flat = flat[geo.z_low[flat] <= h]
     f[flat] = 1.0
     wl = wetted[:n]
@@ -347,13 +349,16 @@ def solve(section, level, density, gravity=STANDARD_GRAVITY):
         np.abs(fzz, out=res[:n])
         fx[:n] = np.nan
         cp = np.full((n, 2), np.nan)
-        # Hoop force N = p r / cos(alpha), cos(alpha) = |dz| / L.
-        sec = geo.length * geo.inv_abs_dz
-        horizontal = geo.dz == 0
-        np.multiply(p_start, geo.x0, out=hoop0[:n])
-        np.multiply(hoop0[:n], sec, out=hoop0[:n])
-        np.multiply(p_end, np.roll(geo.x0, -1), out=hoop1[:n])
-        np.multiply(hoop1[:n], sec, out=hoop1[:n])
+        # Hoop force N = p r / cos(alpha), cos(alpha) = |dz| / L; not defined
+        # on horizontal edges (nor on those rising under 1e-200 m, where
+        # 1 / cos overflows): NaN there.
+        with np.errstate(over="ignore", invalid="ignore"):
+            sec = geo.length * geo.inv_abs_dz
+            np.multiply(p_start, geo.x0, out=hoop0[:n])
+            np.multiply(hoop0[:n], sec, out=hoop0[:n])
+            np.multiply(p_end, np.roll(geo.x0, -1), out=hoop1[:n])
+            np.multiply(hoop1[:n], sec, out=hoop1[:n])
+        horizontal = geo.inv_abs_dz >= FLAT_INV_DZ
         hoop0[:n][horizontal] = np.nan
         hoop1[:n][horizontal] = np.nan
         parts = _part_totals(section, None, fz[:n])

@@ -681,3 +681,24 @@ def test_the_area_of_an_outline_far_from_the_origin_is_exact(tmp_path):
     v = [(Fraction(x), Fraction(z)) for x, z in o.vertices.tolist()]
     exact = abs(sum(v[i][0] * v[i - 1][1] - v[i - 1][0] * v[i][1] for i in range(len(v)))) / 2
     assert o.area == pytest.approx(float(exact), rel=1e-15)
+
+
+@pytest.mark.parametrize("pts, fmt, tolerance", [
+    ([(0, 0), (1e-320, 0), (1e-320, 1e-320)], "xy", None),        # subnormal drawing
+    ([(0, 0, 1), (1e-300, 0, 0), (1e-300, 1e-300, 0)], "xyb", 1e-3),  # tolerance >> chord
+    ([(0, 0, 5e-324), (1, 0, 0), (1, 1, 0)], "xyb", 1e-9),        # a bulge of one ulp
+    ([(0, 0, -1e300), (1, 0, 0), (1, 1, 0)], "xyb", 1e-9),        # nearly a full turn
+    ([(0, 0), (1e300, 0), (1e300, 1e300)], "xy", None),           # far beyond the limit
+])
+def test_extreme_drawings_give_an_answer_and_no_numpy_warning(tmp_path, pts, fmt, tolerance):
+    doc, msp = drawing(units=6)
+    msp.add_lwpolyline(pts, format=fmt, close=True)
+    msp.add_line((1e300, 1e300), (-1e300, 0), dxfattribs={"layer": "WETLINE-wall"})
+    path = save(doc, tmp_path)
+    with np.errstate(over="raise", divide="raise", invalid="raise"):
+        try:
+            outlines = list_outlines(path, arc_tolerance=tolerance)
+        except DxfError as exc:
+            assert str(exc).startswith("drawing.dxf has no ")
+        else:
+            assert all(np.isfinite(o.vertices).all() for o in outlines)
