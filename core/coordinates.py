@@ -97,10 +97,6 @@ def _number(field, decimal_comma):
     return float(text)
 
 
-def _count(n):
-    return "1 value" if n == 1 else f"{n} values"
-
-
 def parse_coordinates(text, *, unit="m"):
     """Vertices (and parts) from a pasted or CSV coordinate list.
 

@@ -36,7 +36,6 @@ revolution, Timoshenko & Woinowsky-Krieger, *Theory of Plates and Shells*.
 from __future__ import annotations
 
 from dataclasses import dataclass
-from functools import cached_property
 
 import numpy as np
 
@@ -142,11 +141,6 @@ class Solution:
     def spill_level(self):
         """The section's spill level [m] or None (closed section)."""
         return self.section.spill_level
-
-    @cached_property
-    def down(self):
-        """Downward load on each edge, ``-fz`` [N]."""
-        return -self.fz
 
     @property
     def head_above_top(self):
