@@ -27,6 +27,10 @@ What the reader accepts
   column the parts are None.
 - **Blank lines** (or lines of empty fields) are skipped. A last vertex that
   repeats the first (a closing vertex) is dropped, with its part.
+- **Limits** (:mod:`wetline.core.limits`): a number too large for a float,
+  a coordinate beyond ``COORDINATE_LIMIT`` (in metres) are refused naming
+  the line; more than ``MAX_VERTICES`` vertices, or a text longer than
+  ``MAX_FILE_BYTES``, are refused before anything is converted.
 
 Line numbers in messages count every line of the text from 1, blank ones
 included, as a text editor does.
@@ -35,10 +39,12 @@ included, as a text editor does.
 from __future__ import annotations
 
 import csv
+import math
 import re
 
 import numpy as np
 
+from .limits import COORDINATE_LIMIT, MAX_FILE_BYTES, MAX_VERTICES
 from .units import UnitError, length_factor, to_si_exactly
 
 __all__ = ["CoordinateError", "parse_coordinates", "format_coordinates"]
@@ -134,6 +140,9 @@ def parse_coordinates(text, *, unit="m"):
     """
     if not isinstance(text, str):
         raise CoordinateError(f"coordinates must be text, not {type(text).__name__}")
+    if len(text) > MAX_FILE_BYTES:
+        raise CoordinateError(f"the coordinate list is larger than the {_size(MAX_FILE_BYTES)} "
+                              "Wetline reads")
     try:
         scale = length_factor(unit)
     except UnitError as exc:
@@ -170,8 +179,13 @@ def parse_coordinates(text, *, unit="m"):
             if value is None:
                 raise CoordinateError(f"line {number}: '{field}' is not a number",
                                       line=number)
+            if not math.isfinite(value):
+                raise CoordinateError(f"line {number}: '{field}' is not a finite number",
+                                      line=number)
         part = fields[2] if len(fields) == 3 else None
         rows.append((number, values[0], values[1], part))
+        if len(rows) > MAX_VERTICES + 1:  # one more may be a closing repeat
+            raise CoordinateError(_too_many())
 
     if not rows:
         raise CoordinateError("no coordinates found (need one x, z pair per line)")
@@ -184,9 +198,26 @@ def parse_coordinates(text, *, unit="m"):
         rows.pop()  # the closing vertex repeats the first
     if len(rows) < 3:
         raise CoordinateError(f"found {len(rows)} vertices, need at least 3")
+    if len(rows) > MAX_VERTICES:
+        raise CoordinateError(_too_many())
     outline = to_si_exactly(np.array([(r[1], r[2]) for r in rows], dtype=np.float64), scale)
+    far = np.flatnonzero(np.abs(outline) > COORDINATE_LIMIT)
+    if far.size:
+        k, column = divmod(int(far[0]), 2)
+        raise CoordinateError(
+            f"line {rows[k][0]}: {'xz'[column]} = {outline[k, column]:.3g} m is beyond the "
+            f"{COORDINATE_LIMIT:.3g} m Wetline reads", line=rows[k][0])
     parts = tuple((r[3] or DEFAULT_PART) for r in rows) if named else None
     return outline, parts
+
+
+def _too_many() -> str:
+    return f"the list has more than the {MAX_VERTICES} vertices an outline may have"
+
+
+def _size(n: int) -> str:
+    """``"64 MiB"``, ``"100 bytes"``."""
+    return f"{n / 2**20:.0f} MiB" if n >= 2**20 else f"{n} bytes"
 
 
 def _check_header_unit(fields, unit, scale, number):
