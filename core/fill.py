@@ -32,6 +32,7 @@ from dataclasses import dataclass
 from typing import TYPE_CHECKING, Any
 
 import numpy as np
+from numpy.typing import ArrayLike
 
 if TYPE_CHECKING:
     from .section import EdgeGeometry, Section
@@ -155,7 +156,7 @@ def _not_negative(v: Any) -> Any:
     return np.maximum(v, 0.0, out=v)
 
 
-def volume_below(section, level):
+def volume_below(section: Section, level: float) -> float:
     """Volume of the cavity below ``level`` [m3].
 
     Parameters
@@ -185,7 +186,8 @@ def volume_below(section, level):
     return float(_green_sum(section, f, ta))
 
 
-def volume_below_many(section, levels, *, chunk_elements=2_000_000):
+def volume_below_many(section: Section, levels: ArrayLike, *,
+                      chunk_elements: int = 2_000_000) -> np.ndarray:
     """:func:`volume_below` at many levels at once [m3] (vectorised).
 
     Parameters
@@ -210,7 +212,7 @@ def volume_below_many(section, levels, *, chunk_elements=2_000_000):
     return out
 
 
-def capacity(section):
+def capacity(section: Section) -> float:
     """Volume the section holds at its top level [m3]: below the spill
     level if open, the whole cavity if closed."""
     return volume_below(section, section.top_level)
@@ -234,7 +236,7 @@ class VolumeCurve:
     volumes: np.ndarray
 
 
-def volume_curve(section):
+def volume_curve(section: Section) -> VolumeCurve:
     """Build the :class:`VolumeCurve` of ``section`` by one sweep, O(N log N).
 
     Each edge adds, between its end heights, a polynomial in u = h - z_min
@@ -299,7 +301,7 @@ def volume_curve(section):
     return VolumeCurve(heights=heights, volumes=vol)
 
 
-def level_for_volume(section, volume):
+def level_for_volume(section: Section, volume: float) -> float:
     """The level at which the section holds ``volume`` [m], exact.
 
     Parameters
@@ -352,7 +354,7 @@ def level_for_volume(section, volume):
     return float(heights[k] + u * (heights[k + 1] - heights[k]))
 
 
-def _band_nodes(section, z_lo, z_hi):
+def _band_nodes(section: Section, z_lo: float, z_hi: float) -> np.ndarray:
     """Exact volumes at equally spaced levels across one band (3 or 4)."""
     npts = 4 if section.is_axisymmetric else 3
     levels = z_lo + (z_hi - z_lo) * np.linspace(0.0, 1.0, npts)
@@ -360,7 +362,7 @@ def _band_nodes(section, z_lo, z_hi):
     return volume_below_many(section, levels)
 
 
-def _bisect_band(section, heights, volume):
+def _bisect_band(section: Section, heights: np.ndarray, volume: float) -> int:
     """Index k with V(heights[k]) <= volume <= V(heights[k+1]), by exact
     bisection over the vertex heights (fallback, O(N log N))."""
     lo, hi = 0, heights.size - 1
@@ -373,7 +375,7 @@ def _bisect_band(section, heights, volume):
     return lo
 
 
-def _solve_band(y, target):
+def _solve_band(y: np.ndarray, target: float) -> float:
     """Root u in [0, 1] of the band polynomial through the node values ``y``
     (equally spaced in u) equal to ``target``; the polynomial increases."""
     if y.size == 3:
@@ -393,10 +395,10 @@ def _solve_band(y, target):
     d3 = (y3 - 3.0 * y2 + 3.0 * y1 - y0) * 4.5
     a = (d1 - d2 / 3.0 + 2.0 * d3 / 9.0, d2 - d3, d3)  # p(u) = y0 + a1 u + a2 u^2 + a3 u^3
 
-    def p(u):
+    def p(u: float) -> float:
         return y0 + u * (a[0] + u * (a[1] + u * a[2])) - target
 
-    def dp(u):
+    def dp(u: float) -> float:
         return a[0] + u * (2.0 * a[1] + 3.0 * u * a[2])
 
     lo, hi = 0.0, 1.0

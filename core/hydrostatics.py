@@ -134,23 +134,23 @@ class Solution:
     centre_of_pressure: np.ndarray
     hoop_start: np.ndarray
     hoop_end: np.ndarray
-    parts: dict
-    warnings: tuple
+    parts: dict[str, PartLoad]
+    warnings: tuple[str, ...]
 
     @property
-    def spill_level(self):
+    def spill_level(self) -> float | None:
         """The section's spill level [m] or None (closed section)."""
         return self.section.spill_level
 
     @property
-    def head_above_top(self):
+    def head_above_top(self) -> float:
         """How far the level stands above the top of a closed section [m] (>= 0)."""
         if self.section.is_open:
             return 0.0
         return max(self.level - self.section.z_max, 0.0)
 
 
-def checked_density_and_gravity(density, gravity):
+def checked_density_and_gravity(density: float, gravity: float) -> tuple[float, float]:
     """``(density, gravity)`` as floats; ValueError unless both are positive
     finite numbers [kg/m3], [m/s2]."""
     density = float(density)
@@ -162,7 +162,7 @@ def checked_density_and_gravity(density, gravity):
     return density, gravity
 
 
-def resolve_level(section, level):
+def resolve_level(section: Section, level: float) -> tuple[float, list[str]]:
     """The level actually used for a requested one, and warnings.
 
     Open sections cannot fill above their spill level; a request above it is
@@ -207,7 +207,8 @@ _ROWS = ("p_vertex", "wetted_length", "fx", "fz", "resultant", "cp_x", "cp_z",
          "hoop_start", "hoop_end")
 
 
-def solve(section, level, density, gravity=STANDARD_GRAVITY):
+def solve(section: Section, level: float, density: float,
+          gravity: float = STANDARD_GRAVITY) -> Solution:
     """Loads of a liquid standing at ``level`` in ``section``.
 
     Parameters
@@ -372,7 +373,8 @@ def solve(section, level, density, gravity=STANDARD_GRAVITY):
         warnings=tuple(warnings))
 
 
-def _part_totals(section, fx, fz):
+def _part_totals(section: Section, fx: np.ndarray | None,
+                 fz: np.ndarray) -> dict[str, PartLoad]:
     """Sum edge forces by part; ``open`` and ``axis`` are left out."""
     idx = section.geometry.part_index
     m = len(section.part_names)

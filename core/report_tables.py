@@ -12,10 +12,15 @@ import csv
 import io
 import math
 from dataclasses import dataclass
+from typing import TYPE_CHECKING
 
 import numpy as np
 
 from .level_table import level_table
+
+if TYPE_CHECKING:
+    from .case import Case
+    from .units import DisplayUnits
 
 __all__ = ["Table", "force_scope", "totals_table", "with_note", "parts_table", "edges_table",
            "level_load_table", "uplift_table", "to_csv", "fmt"]
@@ -167,7 +172,7 @@ def edges_table(solution, units):
     return Table("Edges", tuple(header), tuple(rows))
 
 
-def level_load_table(case, units, steps=51):
+def level_load_table(case: Case, units: DisplayUnits, steps: int = 51) -> Table:
     """Totals at ``steps`` levels from empty to the top level."""
     u = units
     t = level_table(case.section, case.liquid.density, case.gravity, steps)
