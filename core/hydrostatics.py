@@ -278,8 +278,8 @@ def solve(section: Section, level: float, density: float,
     np.clip(f, 0.0, 1.0, out=f)
     # Horizontal edges at or below the surface are wetted whole (z <= h),
     # also exactly at it, where (h - z_low) / |dz| would be 0 / 0.
-    flat = np.flatnonzero(geo.inv_abs_dz >= FLAT_INV_DZ)
-    flat = flat[geo.z_low[flat] <= h]
+    horizontal = np.flatnonzero(geo.inv_abs_dz >= FLAT_INV_DZ)
+    flat = horizontal[geo.z_low[horizontal] <= h]
     f[flat] = 1.0
     wl = wetted[:n]
     np.multiply(f, geo.length, out=wl)
@@ -353,7 +353,6 @@ def solve(section: Section, level: float, density: float,
             np.multiply(hoop0[:n], sec, out=hoop0[:n])
             np.multiply(p_end, np.roll(geo.x0, -1), out=hoop1[:n])
             np.multiply(hoop1[:n], sec, out=hoop1[:n])
-        horizontal = geo.inv_abs_dz >= FLAT_INV_DZ
         hoop0[:n][horizontal] = np.nan
         hoop1[:n][horizontal] = np.nan
         parts = _part_totals(section, None, fz[:n])
