@@ -27,6 +27,10 @@ What the reader accepts
   column the parts are None.
 - **Blank lines** (or lines of empty fields) are skipped. A last vertex that
   repeats the first (a closing vertex) is dropped, with its part.
+- **Limits** (:mod:`wetline.core.limits`): a number too large for a float,
+  a coordinate beyond ``COORDINATE_LIMIT`` (in metres) are refused naming
+  the line; more than ``MAX_VERTICES`` vertices, or a text longer than
+  ``MAX_FILE_BYTES``, are refused before anything is converted.
 
 Line numbers in messages count every line of the text from 1, blank ones
 included, as a text editor does.
@@ -35,10 +39,14 @@ included, as a text editor does.
 from __future__ import annotations
 
 import csv
+import math
 import re
+from collections.abc import Sequence
 
 import numpy as np
+from numpy.typing import ArrayLike
 
+from .limits import COORDINATE_LIMIT, MAX_FILE_BYTES, MAX_VERTICES
 from .units import UnitError, length_factor, to_si_exactly
 
 __all__ = ["CoordinateError", "parse_coordinates", "format_coordinates"]
@@ -58,12 +66,12 @@ class CoordinateError(ValueError):
         The 1-based line of the text at fault, if one is.
     """
 
-    def __init__(self, message, *, line=None):
+    def __init__(self, message: str, *, line: int | None = None) -> None:
         super().__init__(message)
         self.line = line
 
 
-def _separator(lines):
+def _separator(lines: Sequence[str]) -> str | None:
     """The one separator of the text: tab, ';', ',' or None (spaces)."""
     text = "\n".join(lines)
     for sep in ("\t", ";", ","):
@@ -72,7 +80,7 @@ def _separator(lines):
     return None
 
 
-def _fields(line, sep):
+def _fields(line: str, sep: str | None) -> list[str]:
     """The stripped fields of one line, trailing empty ones dropped."""
     if sep is None:
         fields = line.split(None, 2)
@@ -87,7 +95,7 @@ def _fields(line, sep):
     return fields
 
 
-def _number(field, decimal_comma):
+def _number(field: str, decimal_comma: bool) -> float | None:
     """The float of a field, or None if it is not a plain decimal number."""
     text = field.replace("\u2212", "-")  # the minus sign some programs write
     if decimal_comma and text.count(",") == 1 and "." not in text:
@@ -97,11 +105,8 @@ def _number(field, decimal_comma):
     return float(text)
 
 
-def _count(n):
-    return "1 value" if n == 1 else f"{n} values"
-
-
-def parse_coordinates(text, *, unit="m"):
+def parse_coordinates(text: str, *,
+                      unit: str = "m") -> tuple[np.ndarray, tuple[str, ...] | None]:
     """Vertices (and parts) from a pasted or CSV coordinate list.
 
     Parameters
@@ -138,6 +143,9 @@ def parse_coordinates(text, *, unit="m"):
     """
     if not isinstance(text, str):
         raise CoordinateError(f"coordinates must be text, not {type(text).__name__}")
+    if len(text) > MAX_FILE_BYTES:
+        raise CoordinateError(f"the coordinate list is larger than the {_size(MAX_FILE_BYTES)} "
+                              "Wetline reads")
     try:
         scale = length_factor(unit)
     except UnitError as exc:
@@ -146,7 +154,7 @@ def parse_coordinates(text, *, unit="m"):
     sep = _separator(lines)
     decimal_comma = sep in ("\t", ";")
 
-    rows = []   # (line number, x, z, part or None)
+    rows: list[tuple[int, float, float, str | None]] = []   # (line, x, z, part or None)
     seen_data = False
     for number, line in enumerate(lines, start=1):
         if not line.strip():
@@ -168,19 +176,16 @@ def parse_coordinates(text, *, unit="m"):
             raise CoordinateError(
                 f"line {number} has {len(fields)} values, need x, z and an optional "
                 f"part name{hint}", line=number)
-        for k, (field, value) in enumerate(zip(fields, values, strict=False)):
-            if not field:
-                raise CoordinateError(f"line {number}: {'xz'[k]} is empty", line=number)
-            if value is None:
-                raise CoordinateError(f"line {number}: '{field}' is not a number",
-                                      line=number)
+        x, z = (_checked(fields[k], values[k], "xz"[k], number) for k in (0, 1))
         part = fields[2] if len(fields) == 3 else None
-        rows.append((number, values[0], values[1], part))
+        rows.append((number, x, z, part))
+        if len(rows) > MAX_VERTICES + 1:  # one more may be a closing repeat
+            raise CoordinateError(_too_many())
 
     if not rows:
         raise CoordinateError("no coordinates found (need one x, z pair per line)")
-    named = [r for r in rows if r[3]]
-    if named and all(_number(r[3], decimal_comma) is not None for r in named):
+    named = [(r[0], r[3]) for r in rows if r[3]]
+    if named and all(_number(p, decimal_comma) is not None for _, p in named):
         raise CoordinateError(
             f"line {named[0][0]} has 3 numbers; give x and z (and an optional part "
             "name), not x, y, z", line=named[0][0])
@@ -188,12 +193,41 @@ def parse_coordinates(text, *, unit="m"):
         rows.pop()  # the closing vertex repeats the first
     if len(rows) < 3:
         raise CoordinateError(f"found {len(rows)} vertices, need at least 3")
+    if len(rows) > MAX_VERTICES:
+        raise CoordinateError(_too_many())
     outline = to_si_exactly(np.array([(r[1], r[2]) for r in rows], dtype=np.float64), scale)
+    far = np.flatnonzero(np.abs(outline) > COORDINATE_LIMIT)
+    if far.size:
+        k, column = divmod(int(far[0]), 2)
+        raise CoordinateError(
+            f"line {rows[k][0]}: {'xz'[column]} = {outline[k, column]:.3g} m is beyond the "
+            f"{COORDINATE_LIMIT:.3g} m Wetline reads", line=rows[k][0])
     parts = tuple((r[3] or DEFAULT_PART) for r in rows) if named else None
     return outline, parts
 
 
-def _check_header_unit(fields, unit, scale, number):
+def _checked(field: str, value: float | None, name: str, number: int) -> float:
+    """The value of the x or z field of line ``number``; CoordinateError if
+    the field is empty, not a number or not finite."""
+    if not field:
+        raise CoordinateError(f"line {number}: {name} is empty", line=number)
+    if value is None:
+        raise CoordinateError(f"line {number}: '{field}' is not a number", line=number)
+    if not math.isfinite(value):
+        raise CoordinateError(f"line {number}: '{field}' is not a finite number", line=number)
+    return value
+
+
+def _too_many() -> str:
+    return f"the list has more than the {MAX_VERTICES} vertices an outline may have"
+
+
+def _size(n: int) -> str:
+    """``"64 MiB"``, ``"100 bytes"``."""
+    return f"{n / 2**20:.0f} MiB" if n >= 2**20 else f"{n} bytes"
+
+
+def _check_header_unit(fields: Sequence[str], unit: str, scale: float, number: int) -> None:
     """Refuse a header whose ``[unit]`` disagrees with ``unit``."""
     for field in fields:
         m = _HEADER_UNIT.search(field)
@@ -210,12 +244,13 @@ def _check_header_unit(fields, unit, scale, number):
         return
 
 
-def _text(v, decimal_comma):
+def _text(v: float, decimal_comma: bool) -> str:
     t = f"{float(v) + 0.0:.15g}"
     return t.replace(".", ",") if decimal_comma else t
 
 
-def format_coordinates(outline, parts=None, unit="m", *, header=True, decimal_comma=False):
+def format_coordinates(outline: ArrayLike, parts: Sequence[str] | None = None, unit: str = "m", *,
+                       header: bool = True, decimal_comma: bool = False) -> str:
     """Tab-separated text of an outline, for copying into a spreadsheet.
 
     Parameters

@@ -36,12 +36,11 @@ revolution, Timoshenko & Woinowsky-Krieger, *Theory of Plates and Shells*.
 from __future__ import annotations
 
 from dataclasses import dataclass
-from functools import cached_property
 
 import numpy as np
 
 from . import STANDARD_GRAVITY
-from .fill import _green_sum
+from .fill import FLAT_INV_DZ, _green_sum
 from .section import FLOOR, Section
 
 __all__ = ["PartLoad", "Solution", "solve", "resolve_level"]
@@ -94,7 +93,8 @@ class Solution:
     max_pressure : float
         Largest wall pressure [Pa], at the lowest wetted point.
     wetted_length : numpy.ndarray
-        [m].
+        Length of each edge at or below the level [m]; a horizontal edge
+        lying exactly at the free surface counts whole (at zero pressure).
     p_start, p_end : numpy.ndarray
         Pressure at each edge's start and end vertex [Pa], 0 where dry.
     fx, fz : numpy.ndarray
@@ -104,7 +104,8 @@ class Solution:
         Magnitude of each edge's force [N].
     centre_of_pressure : numpy.ndarray
         (N, 2) point on each edge where its resultant acts [m]; NaN for dry
-        edges and for axisymmetric sections.
+        edges and for axisymmetric sections. A horizontal edge at the free
+        surface has its midpoint (the limit of a ledge just below it).
     hoop_start, hoop_end : numpy.ndarray
         Hoop force at both ends [N/m] (axisymmetric); NaN on horizontal
         edges and for plane sections.
@@ -133,28 +134,23 @@ class Solution:
     centre_of_pressure: np.ndarray
     hoop_start: np.ndarray
     hoop_end: np.ndarray
-    parts: dict
-    warnings: tuple
+    parts: dict[str, PartLoad]
+    warnings: tuple[str, ...]
 
     @property
-    def spill_level(self):
+    def spill_level(self) -> float | None:
         """The section's spill level [m] or None (closed section)."""
         return self.section.spill_level
 
-    @cached_property
-    def down(self):
-        """Downward load on each edge, ``-fz`` [N]."""
-        return -self.fz
-
     @property
-    def head_above_top(self):
+    def head_above_top(self) -> float:
         """How far the level stands above the top of a closed section [m] (>= 0)."""
         if self.section.is_open:
             return 0.0
         return max(self.level - self.section.z_max, 0.0)
 
 
-def checked_density_and_gravity(density, gravity):
+def checked_density_and_gravity(density: float, gravity: float) -> tuple[float, float]:
     """``(density, gravity)`` as floats; ValueError unless both are positive
     finite numbers [kg/m3], [m/s2]."""
     density = float(density)
@@ -166,7 +162,7 @@ def checked_density_and_gravity(density, gravity):
     return density, gravity
 
 
-def resolve_level(section, level):
+def resolve_level(section: Section, level: float) -> tuple[float, list[str]]:
     """The level actually used for a requested one, and warnings.
 
     Open sections cannot fill above their spill level; a request above it is
@@ -211,7 +207,8 @@ _ROWS = ("p_vertex", "wetted_length", "fx", "fz", "resultant", "cp_x", "cp_z",
          "hoop_start", "hoop_end")
 
 
-def solve(section, level, density, gravity=STANDARD_GRAVITY):
+def solve(section: Section, level: float, density: float,
+          gravity: float = STANDARD_GRAVITY) -> Solution:
     """Loads of a liquid standing at ``level`` in ``section``.
 
     Parameters
@@ -272,11 +269,18 @@ def solve(section, level, density, gravity=STANDARD_GRAVITY):
     p_start = p_vertex[:n]
     p_end = p_vertex[1:]
 
-    # Wetted fraction f of each edge.
+    # Wetted fraction f of each edge; the product overflows to inf on an edge
+    # rising under 1e-200 m (1 / |dz| is huge), which the clip makes 1.
     f = w1
     np.subtract(h, geo.z_low, out=f)
-    np.multiply(f, geo.inv_abs_dz, out=f)
+    with np.errstate(over="ignore", invalid="ignore"):
+        np.multiply(f, geo.inv_abs_dz, out=f)
     np.clip(f, 0.0, 1.0, out=f)
+    # Horizontal edges at or below the surface are wetted whole (z <= h),
+    # also exactly at it, where (h - z_low) / |dz| would be 0 / 0.
+    horizontal = np.flatnonzero(geo.inv_abs_dz >= FLAT_INV_DZ)
+    flat = horizontal[geo.z_low[horizontal] <= h]
+    f[flat] = 1.0
     wl = wetted[:n]
     np.multiply(f, geo.length, out=wl)
 
@@ -288,7 +292,8 @@ def solve(section, level, density, gravity=STANDARD_GRAVITY):
     ta = w3
     np.subtract(1.0, f, out=ta)
     np.multiply(ta, geo.falls, out=ta)
-    volume = float(_green_sum(section, f, ta))
+    # The force rows are free until the forces are computed: scratch here.
+    volume = float(_green_sum(section, f, ta, work=(fx[:n], fz[:n], res[:n])))
 
     if not axi:
         # Normal force per edge = rg * width * Lw * (a0 + a1) / 2.
@@ -305,6 +310,7 @@ def solve(section, level, density, gravity=STANDARD_GRAVITY):
             np.divide(t, s01, out=t)
         np.multiply(t, 1.0 / 3.0, out=t)
         np.add(t, ta, out=t)
+        t[flat] = 0.5  # uniform pressure, even 0 at the surface
         cz = cpz[:n]
         np.multiply(t, geo.dz, out=cz)
         np.add(cz, geo.z0, out=cz)
@@ -338,13 +344,15 @@ def solve(section, level, density, gravity=STANDARD_GRAVITY):
         np.abs(fzz, out=res[:n])
         fx[:n] = np.nan
         cp = np.full((n, 2), np.nan)
-        # Hoop force N = p r / cos(alpha), cos(alpha) = |dz| / L.
-        sec = geo.length * geo.inv_abs_dz
-        horizontal = geo.dz == 0
-        np.multiply(p_start, geo.x0, out=hoop0[:n])
-        np.multiply(hoop0[:n], sec, out=hoop0[:n])
-        np.multiply(p_end, np.roll(geo.x0, -1), out=hoop1[:n])
-        np.multiply(hoop1[:n], sec, out=hoop1[:n])
+        # Hoop force N = p r / cos(alpha), cos(alpha) = |dz| / L; not defined
+        # on horizontal edges (nor on those rising under 1e-200 m, where
+        # 1 / cos overflows): NaN there.
+        with np.errstate(over="ignore", invalid="ignore"):
+            sec = geo.length * geo.inv_abs_dz
+            np.multiply(p_start, geo.x0, out=hoop0[:n])
+            np.multiply(hoop0[:n], sec, out=hoop0[:n])
+            np.multiply(p_end, np.roll(geo.x0, -1), out=hoop1[:n])
+            np.multiply(hoop1[:n], sec, out=hoop1[:n])
         hoop0[:n][horizontal] = np.nan
         hoop1[:n][horizontal] = np.nan
         parts = _part_totals(section, None, fz[:n])
@@ -364,7 +372,8 @@ def solve(section, level, density, gravity=STANDARD_GRAVITY):
         warnings=tuple(warnings))
 
 
-def _part_totals(section, fx, fz):
+def _part_totals(section: Section, fx: np.ndarray | None,
+                 fz: np.ndarray) -> dict[str, PartLoad]:
     """Sum edge forces by part; ``open`` and ``axis`` are left out."""
     idx = section.geometry.part_index
     m = len(section.part_names)

@@ -11,11 +11,12 @@ from __future__ import annotations
 from dataclasses import dataclass
 
 import numpy as np
+from numpy.typing import ArrayLike
 
 from . import STANDARD_GRAVITY
 from .fill import _clipped, _green_sum
 from .hydrostatics import checked_density_and_gravity
-from .section import FLOOR
+from .section import FLOOR, Section
 
 __all__ = ["LevelTable", "level_table", "part_down_at", "DEFAULT_STEPS"]
 
@@ -49,10 +50,10 @@ class LevelTable:
     fluid_weight: np.ndarray
     floor_force: np.ndarray
     support_reaction: np.ndarray
-    part_down: dict
+    part_down: dict[str, np.ndarray]
     max_pressure: np.ndarray
 
-    def columns(self):
+    def columns(self) -> list[tuple[str, np.ndarray]]:
         """Column names and arrays, in table order: level, volume, weight,
         floor force, support reaction, then one per part."""
         cols = [("level", self.levels), ("volume", self.volume),
@@ -63,8 +64,9 @@ class LevelTable:
         return cols
 
 
-def level_table(section, density, gravity=STANDARD_GRAVITY, steps=DEFAULT_STEPS, *,
-                levels=None, chunk_elements=1_000_000):
+def level_table(section: Section, density: float, gravity: float = STANDARD_GRAVITY,
+                steps: int = DEFAULT_STEPS, *, levels: ArrayLike | None = None,
+                chunk_elements: int = 1_000_000) -> LevelTable:
     """Totals at ``steps`` equally spaced levels from empty to the top level.
 
     Parameters
@@ -132,7 +134,8 @@ def level_table(section, density, gravity=STANDARD_GRAVITY, steps=DEFAULT_STEPS,
                       max_pressure=rg * np.maximum(levels - section.z_min, 0.0))
 
 
-def _edge_fz(section, h, f, ta, rg, idx=None):
+def _edge_fz(section: Section, h: np.ndarray, f: np.ndarray, ta: np.ndarray, rg: float,
+             idx: np.ndarray | None = None) -> np.ndarray:
     """Vertical force on each edge [N] for levels ``h`` (an (M, 1) column),
     given the clipped fractions ``f`` and starts ``ta`` of the same edges;
     ``idx`` restricts the edges (f and ta then hold only those)."""
@@ -155,7 +158,8 @@ def _edge_fz(section, h, f, ta, rg, idx=None):
     return (wl * (a0 + a1)) * (0.5 * rg * section.width) * nz
 
 
-def part_down_at(section, part, levels, density, gravity=STANDARD_GRAVITY):
+def part_down_at(section: Section, part: str, levels: ArrayLike, density: float,
+                 gravity: float = STANDARD_GRAVITY) -> np.ndarray:
     """Downward load on one part at many levels [N], from its own edges only.
 
     Parameters
@@ -179,8 +183,6 @@ def part_down_at(section, part, levels, density, gravity=STANDARD_GRAVITY):
     if idx.size == 0:
         raise ValueError(f"the section has no part {part!r}")
     levels = np.asarray(levels, dtype=np.float64).ravel()
-    geo = section.geometry
     h = levels[:, None]
-    f = np.clip((h - geo.z_low[idx]) * geo.inv_abs_dz[idx], 0.0, 1.0)
-    ta = (1.0 - f) * geo.falls[idx]
+    f, ta = _clipped(section.geometry, h, idx)
     return -_edge_fz(section, h, f, ta, float(density) * float(gravity), idx).sum(axis=1)

@@ -12,8 +12,15 @@ import csv
 import io
 import math
 from dataclasses import dataclass
+from typing import TYPE_CHECKING
+
+import numpy as np
 
 from .level_table import level_table
+
+if TYPE_CHECKING:
+    from .case import Case
+    from .units import DisplayUnits
 
 __all__ = ["Table", "force_scope", "totals_table", "with_note", "parts_table", "edges_table",
            "level_load_table", "uplift_table", "to_csv", "fmt"]
@@ -165,7 +172,7 @@ def edges_table(solution, units):
     return Table("Edges", tuple(header), tuple(rows))
 
 
-def level_load_table(case, units, steps=51):
+def level_load_table(case: Case, units: DisplayUnits, steps: int = 51) -> Table:
     """Totals at ``steps`` levels from empty to the top level."""
     u = units
     t = level_table(case.section, case.liquid.density, case.gravity, steps)
@@ -176,7 +183,10 @@ def level_load_table(case, units, steps=51):
     header, cols = [], []
     for name, arr in t.columns():
         q, lab = quantity.get(name, ("force", F))
-        header.append(f"{name.replace('_', ' ')} [{lab}]")
+        # Readable names for the fixed columns; part names exactly as written,
+        # so that parts "a_b" and "a b" stay two columns.
+        title = name if name.startswith("down:") else name.replace("_", " ")
+        header.append(f"{title} [{lab}]")
         cols.append(u.to_display(arr, q))
     rows = tuple(tuple(_num(c[k]) for c in cols) for k in range(t.levels.size))
     return Table("Loads against level", tuple(header), rows)
@@ -199,13 +209,26 @@ def uplift_table(case, units, solution=None):
                                   "worst factor", "required", "verdict"), tuple(rows))
 
 
-def to_csv(table):
+def _csv_cell(v: object) -> object:
+    """A cell: empty for None, the shortest exact text of a float (numpy's
+    too), integers as integers, text as written (the csv module quotes it)."""
+    if v is None:
+        return ""
+    if isinstance(v, (float, np.floating)):
+        return repr(float(v))
+    if isinstance(v, np.integer):
+        return int(v)
+    return v
+
+
+def to_csv(table: Table) -> str:
     """CSV text of ``table``: the header row names the units; numbers at
-    full precision; empty cells where a value is not defined."""
+    full precision; empty cells where a value is not defined; text cells
+    (part names) exactly as written, quoted by the csv module where they
+    hold a comma, a quote or a line break (RFC 4180)."""
     buf = io.StringIO()
     w = csv.writer(buf, lineterminator="\n")
     w.writerow(table.header)
     for row in table.rows:
-        w.writerow(["" if v is None else (repr(v) if isinstance(v, float) else v)
-                    for v in row])
+        w.writerow([_csv_cell(v) for v in row])
     return buf.getvalue()

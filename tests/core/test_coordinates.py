@@ -144,3 +144,40 @@ def test_format_refuses_mismatched_parts_and_unknown_units():
         format_coordinates(BOX, ["wall", "wall"])
     with pytest.raises(CoordinateError, match="unknown length unit"):
         format_coordinates(BOX, unit="cubits")
+
+
+# ------------------------------------------------ core.limits ranges
+def test_a_number_too_large_for_a_float_names_its_line():
+    with pytest.raises(CoordinateError) as err:
+        parse_coordinates("0 0\n1 0\n1 1e999\n")
+    assert str(err.value) == "line 3: '1e999' is not a finite number" and err.value.line == 3
+
+
+def test_a_coordinate_beyond_the_limit_names_its_line():
+    # core.limits.COORDINATE_LIMIT is 1e7 m; 2e10 mm is 2e7 m.
+    with pytest.raises(CoordinateError) as err:
+        parse_coordinates("0;0\n1000;0\n1000;2e10\n", unit="mm")
+    assert str(err.value) == ("line 3: z = 2e+07 m is beyond the 1e+07 m Wetline reads")
+    assert err.value.line == 3
+    parse_coordinates("0;0\n1000;0\n1000;1e10\n", unit="mm")  # the limit itself is allowed
+
+
+def test_more_vertices_than_the_limit_are_refused(monkeypatch):
+    # core.limits.MAX_VERTICES (200,000) lowered, so that the text stays small.
+    import wetline.core.coordinates as coordinates
+
+    monkeypatch.setattr(coordinates, "MAX_VERTICES", 5)
+    text = "".join(f"{k} {k * k}\n" for k in range(6))
+    with pytest.raises(CoordinateError, match=r"^the list has more than the 5 vertices an "
+                                              r"outline may have$"):
+        parse_coordinates(text)
+    assert parse_coordinates(text[: text.index("5 25")])[0].shape == (5, 2)
+
+
+def test_text_over_the_size_limit_is_refused_unread(monkeypatch):
+    import wetline.core.coordinates as coordinates
+
+    monkeypatch.setattr(coordinates, "MAX_FILE_BYTES", 100)
+    with pytest.raises(CoordinateError, match=r"^the coordinate list is larger than the "
+                                              r"100 bytes Wetline reads$"):
+        parse_coordinates("0 0\n" * 30)

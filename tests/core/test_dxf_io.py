@@ -367,7 +367,46 @@ def test_arc_tolerance_is_in_metres_whatever_the_drawing_unit(tmp_path):
     np.testing.assert_allclose(o_m.vertices, o_mm.vertices, rtol=1e-12, atol=1e-15)
 
 
-@pytest.mark.parametrize("bad", [0, -1.0, math.nan, "1 mm", True])
+def test_several_arcs_and_straight_edges_keep_their_order(tmp_path):
+    # A stadium: a 4 x 2 m rectangle with a semicircle of radius 1 m on each
+    # short side (bulge 1 = half a circle, AutoCAD DXF Reference), drawn
+    # counter-clockwise. Area 8 + pi r^2 less what the chords cut off, n r^2
+    # (phi - sin phi) / 2 for each arc of n chords of angle phi (circle
+    # geometry, common practice).
+    doc, msp = drawing(units=6)
+    msp.add_lwpolyline([(0, 0, 0), (4, 0, 1.0), (4, 2, 0), (0, 2, 1.0)], format="xyb",
+                       close=True)
+    (o,) = list_outlines(save(doc, tmp_path))
+    v = o.vertices
+    assert o.n_arcs == 2
+    n = (o.n_vertices - 2) // 2  # chords per arc, the same for both
+    assert o.n_vertices == 2 * n + 2
+    np.testing.assert_allclose(v[[0, 1, n + 1, n + 2]], [[0, 0], [4, 0], [4, 2], [0, 2]],
+                               atol=1e-15)
+    right, left = v[1:n + 2], np.vstack([v[n + 2:], v[:1]])
+    for arc, centre, start in ((right, (4, 1), -np.pi / 2), (left, (0, 1), np.pi / 2)):
+        np.testing.assert_allclose(np.hypot(*(arc - centre).T), 1.0, rtol=1e-14)
+        angle = np.unwrap(np.arctan2(arc[:, 1] - centre[1], arc[:, 0] - centre[0]))
+        np.testing.assert_allclose(angle - angle[0], np.linspace(0, np.pi, n + 1),
+                                   atol=1e-12)  # equal steps, counter-clockwise
+        assert angle[0] == pytest.approx(start)
+    phi = np.pi / n
+    assert o.area == pytest.approx(8 + np.pi - 2 * n * (phi - np.sin(phi)) / 2, rel=1e-13)
+
+
+def test_an_arc_that_reaches_beyond_the_coordinate_limit_is_named(tmp_path):
+    # A bulge of 1e15 on a 2 m chord is an arc of almost a full turn on a
+    # circle of radius 1 / sin(2 atan(1e15)) ~ 5e14 m: beyond core.limits.COORDINATE_LIMIT.
+    doc, msp = drawing(units=6)
+    e = msp.add_lwpolyline([(0, 0, 1e15), (2, 0, 0), (2, 2, 0), (0, 2, 0)], format="xyb",
+                           close=True)
+    with pytest.raises(DxfError, match=rf"found closed LWPOLYLINE {e.dxf.handle} on layer 0 "
+                                       r"with an arc that reaches beyond the 1e\+07 m "
+                                       r"Wetline reads\)$"):
+        list_outlines(save(doc, tmp_path))
+
+
+@pytest.mark.parametrize("bad", [0, -1.0, math.nan, "1 mm", True, 1e-10])
 def test_bad_arc_tolerance_is_refused(tmp_path, bad):
     with pytest.raises(DxfError, match="arc tolerance must be a positive length in metres"):
         list_outlines(arc_drawing(tmp_path, 1.0), arc_tolerance=bad)
@@ -508,3 +547,158 @@ def test_write_is_atomic_and_replaces(tmp_path):
     with pytest.raises(DxfError, match="'furlong' has no DXF unit code"):
         write_outline(section, tmp_path / "f.dxf", unit="furlong")
     assert os.listdir(tmp_path) == ["box.dxf"]
+
+
+# ------------------------------------------- damaged and oversized drawings
+def test_a_utf8_byte_order_mark_is_accepted(tmp_path):
+    # Some editors save text with a UTF-8 byte-order mark (EF BB BF, the
+    # Unicode Standard, sec. 23.8); the drawing behind it is plain DXF.
+    doc, msp = drawing(units=4)
+    msp.add_lwpolyline(SUMP_MM, close=True, dxfattribs={"layer": "OUTLINE"})
+    plain = save(doc, tmp_path, "plain.dxf")
+    marked = tmp_path / "marked.dxf"
+    marked.write_bytes(b"\xef\xbb\xbf" + plain.read_bytes())
+    (a,), (b,) = list_outlines(plain), list_outlines(marked)
+    assert (b.layer, b.handle, b.unit, b.warnings) == (a.layer, a.handle, "mm", ())
+    np.testing.assert_array_equal(b.vertices, a.vertices)
+
+
+def test_a_byte_order_mark_before_garbage_is_still_not_a_dxf(tmp_path):
+    path = tmp_path / "notes.dxf"
+    path.write_bytes(b"\xef\xbb\xbfthis is a shopping list\neggs\n")
+    with pytest.raises(DxfError, match=r"^notes.dxf is not a DXF file$"):
+        list_outlines(path)
+
+
+@pytest.mark.parametrize("bad", [math.nan, math.inf, -math.inf])
+@pytest.mark.parametrize("column", [0, 1])
+def test_a_non_finite_coordinate_is_named_with_its_vertex(tmp_path, bad, column):
+    doc, msp = drawing(units=4)
+    pts = [list(p) for p in SUMP_MM]
+    pts[2][column] = bad
+    e = msp.add_lwpolyline(pts, close=True, dxfattribs={"layer": "OUTLINE"})
+    with pytest.raises(DxfError) as err:
+        list_outlines(save(doc, tmp_path))
+    assert str(err.value) == (
+        "drawing.dxf has no usable closed polyline (found closed LWPOLYLINE "
+        f"{e.dxf.handle} on layer OUTLINE with a non-finite coordinate at vertex 2)")
+
+
+def test_a_non_finite_vertex_of_a_2d_polyline_is_named_too(tmp_path):
+    doc, msp = drawing(units=6)
+    e = msp.add_polyline2d([(0, 0), (2, 0), (2, math.nan), (0, 2)], close=True)
+    with pytest.raises(DxfError, match=rf"found closed POLYLINE {e.dxf.handle} on layer 0 "
+                                       r"with a non-finite coordinate at vertex 2\)$"):
+        list_outlines(save(doc, tmp_path))
+
+
+@pytest.mark.parametrize("bad", [math.nan, math.inf, -math.inf])
+def test_a_non_finite_bulge_is_refused_naming_the_polyline(tmp_path, bad):
+    doc, msp = drawing(units=6)
+    e = msp.add_lwpolyline([(0, 0, 0), (2, 0, bad), (2, 2, 0), (0, 2, 0)], format="xyb",
+                           close=True, dxfattribs={"layer": "OUTLINE"})
+    with pytest.raises(DxfError) as err:
+        list_outlines(save(doc, tmp_path))
+    assert str(err.value) == (
+        "drawing.dxf has no usable closed polyline (found closed LWPOLYLINE "
+        f"{e.dxf.handle} on layer OUTLINE with a non-finite bulge at vertex 1)")
+
+
+def test_a_damaged_polyline_beside_a_good_one_is_skipped_with_a_warning(tmp_path):
+    doc, msp = drawing(units=4)
+    msp.add_lwpolyline(SUMP_MM, close=True, dxfattribs={"layer": "OUTLINE"})
+    bad = msp.add_lwpolyline([(0, 0), (math.nan, 0), (1, 1)], close=True,
+                             dxfattribs={"layer": "JUNK"})
+    (o,) = list_outlines(save(doc, tmp_path))
+    assert o.layer == "OUTLINE"
+    assert o.warnings == (f"skipped closed LWPOLYLINE {bad.dxf.handle} on layer JUNK with "
+                          "a non-finite coordinate at vertex 1",)
+
+
+def test_a_polyline_with_more_vertices_than_the_limit_is_refused_at_once(tmp_path,
+                                                                        monkeypatch):
+    # core.limits.MAX_VERTICES (200,000) lowered so that the drawing stays small.
+    import wetline.core.dxf_io as dxf_io
+
+    monkeypatch.setattr(dxf_io, "MAX_VERTICES", 40)
+    doc, msp = drawing(units=6)
+    t = np.linspace(0, 2 * np.pi, 41, endpoint=False)
+    e = msp.add_lwpolyline(np.c_[np.cos(t), np.sin(t)].tolist(), close=True)
+    with pytest.raises(DxfError, match=rf"found closed LWPOLYLINE {e.dxf.handle} on layer 0 "
+                                       r"with 41 vertices, more than the 40 an outline may "
+                                       r"have\)$"):
+        list_outlines(save(doc, tmp_path))
+    monkeypatch.setattr(dxf_io, "MAX_VERTICES", 41)  # the limit itself is allowed
+    (o,) = list_outlines(save(doc, tmp_path))
+    assert o.n_vertices == 41
+
+
+def test_arcs_that_would_flatten_beyond_the_vertex_limit_are_refused(tmp_path):
+    # A semicircle of radius 1000 m within 1e-9 m: each chord may span
+    # 4 asin(sqrt(s / 2r)) = 2.8e-6 rad, so pi needs 1.1 million chords
+    # (sagitta s = r (1 - cos(phi / 2)), common practice), over core.limits.MAX_VERTICES.
+    doc, msp = drawing(units=6)
+    e = msp.add_lwpolyline([(0, 0, 1.0), (2000, 0, 0), (2000, 2000, 0), (0, 2000, 0)],
+                           format="xyb", close=True)
+    with pytest.raises(DxfError) as err:
+        list_outlines(save(doc, tmp_path), arc_tolerance=1e-9)
+    assert str(err.value) == (
+        "drawing.dxf has no usable closed polyline (found closed LWPOLYLINE "
+        f"{e.dxf.handle} on layer 0 with 1110724 vertices once its arcs are flattened, more "
+        "than the 200000 an outline may have: give a larger arc tolerance)")
+
+
+def test_a_coordinate_beyond_the_limit_is_named(tmp_path):
+    # core.limits.COORDINATE_LIMIT: 1e7 m; 2e10 mm is 2e7 m.
+    doc, msp = drawing(units=4)
+    e = msp.add_lwpolyline([(0, 0), (1000, 0), (1000, 2e10), (0, 1000)], close=True)
+    with pytest.raises(DxfError, match=rf"found closed LWPOLYLINE {e.dxf.handle} on layer 0 "
+                                       r"with vertex 2 at 2e\+07 m from the origin, beyond "
+                                       r"the 1e\+07 m Wetline reads\)$"):
+        list_outlines(save(doc, tmp_path))
+
+
+def test_a_file_over_the_size_limit_is_refused_before_reading(tmp_path):
+    # core.limits.MAX_FILE_BYTES is 64 MiB; a sparse file of that size plus
+    # one byte takes no room on disk.
+    path = tmp_path / "huge.dxf"
+    with open(path, "wb") as fh:
+        fh.truncate(64 * 1024 * 1024 + 1)
+    with pytest.raises(DxfError, match=r"^huge.dxf is larger than the 64 MiB Wetline reads "
+                                       r"\(64\.0 MiB\)$"):
+        list_outlines(path)
+
+
+def test_the_area_of_an_outline_far_from_the_origin_is_exact(tmp_path):
+    # Site coordinates: a star 2 m across at x = 5,000 km. Reference: the
+    # shoelace formula in exact rational arithmetic on the stored floats.
+    from fractions import Fraction
+
+    pts = star(9, 4) + [5e6, 0.0]
+    doc, msp = drawing(units=6)
+    msp.add_lwpolyline(pts.tolist(), close=True)
+    (o,) = list_outlines(save(doc, tmp_path))
+    v = [(Fraction(x), Fraction(z)) for x, z in o.vertices.tolist()]
+    exact = abs(sum(v[i][0] * v[i - 1][1] - v[i - 1][0] * v[i][1] for i in range(len(v)))) / 2
+    assert o.area == pytest.approx(float(exact), rel=1e-15)
+
+
+@pytest.mark.parametrize("pts, fmt, tolerance", [
+    ([(0, 0), (1e-320, 0), (1e-320, 1e-320)], "xy", None),        # subnormal drawing
+    ([(0, 0, 1), (1e-300, 0, 0), (1e-300, 1e-300, 0)], "xyb", 1e-3),  # tolerance >> chord
+    ([(0, 0, 5e-324), (1, 0, 0), (1, 1, 0)], "xyb", 1e-9),        # a bulge of one ulp
+    ([(0, 0, -1e300), (1, 0, 0), (1, 1, 0)], "xyb", 1e-9),        # nearly a full turn
+    ([(0, 0), (1e300, 0), (1e300, 1e300)], "xy", None),           # far beyond the limit
+])
+def test_extreme_drawings_give_an_answer_and_no_numpy_warning(tmp_path, pts, fmt, tolerance):
+    doc, msp = drawing(units=6)
+    msp.add_lwpolyline(pts, format=fmt, close=True)
+    msp.add_line((1e300, 1e300), (-1e300, 0), dxfattribs={"layer": "WETLINE-wall"})
+    path = save(doc, tmp_path)
+    with np.errstate(over="raise", divide="raise", invalid="raise"):
+        try:
+            outlines = list_outlines(path, arc_tolerance=tolerance)
+        except DxfError as exc:
+            assert str(exc).startswith("drawing.dxf has no ")
+        else:
+            assert all(np.isfinite(o.vertices).all() for o in outlines)

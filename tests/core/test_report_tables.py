@@ -4,6 +4,7 @@ import csv
 import io
 import math
 
+import numpy as np
 import pytest
 
 from wetline.core.report_tables import (
@@ -81,3 +82,43 @@ def test_undefined_values_are_empty_csv_cells(sample):
 ])
 def test_fmt(value, text):
     assert fmt(value) == text
+
+
+# ------------------------------------------------ part names in the CSV
+ODD_PARTS = ["floor", "a_b", "a b", 'lid, "north"', "wall", "open"]
+
+
+def _odd_case():
+    # Part names as a user may type them: an underscore and a space must stay
+    # two parts, a comma and quotes must survive the CSV (RFC 4180 quoting).
+    from wetline.core.case import Case
+    from wetline.core.section import Section
+
+    s = Section.build([(0, 0), (3, 0), (3, 1), (3, 2), (3, 3), (0, 3)], parts=ODD_PARTS)
+    return Case.default(s, 2.5)
+
+
+def test_level_load_csv_keeps_part_names_as_written():
+    header, rows = _csv(level_load_table(_odd_case(), display_units("si"), steps=5))
+    downs = [h for h in header if h.startswith("down:")]
+    assert downs == ["down:floor [kN]", "down:a_b [kN]", "down:a b [kN]",
+                     'down:lid, "north" [kN]', "down:wall [kN]"]
+    assert len(set(header)) == len(header)
+    # the fixed columns keep their readable names
+    assert header[:6] == ["level [m]", "volume [m3]", "fluid weight [kN]", "floor force [kN]",
+                          "support reaction [kN]", "max pressure [kPa]"]
+    assert all(len(r) == len(header) for r in rows)
+
+
+def test_edge_csv_keeps_part_names_as_written():
+    case = _odd_case()
+    header, rows = _csv(edges_table(case.solve(), display_units("si")))
+    assert [r[1] for r in rows] == ODD_PARTS
+    assert all(len(r) == len(header) for r in rows)
+
+
+def test_csv_writes_numpy_numbers_as_plain_numbers():
+    from wetline.core.report_tables import Table
+
+    t = Table("t", ("a", "b", "c"), ((np.float64(0.1), np.int64(3), 2.5),))
+    assert to_csv(t) == "a,b,c\n0.1,3,2.5\n"
