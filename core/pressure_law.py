@@ -408,6 +408,7 @@ def integrate_edges(section, law, caps=None):
     the right wall carries the gas on its full 3 m and the water's triangle
     on its wetted 1 m.
 
+    >>> from wetline.core.section import Section
     >>> s = Section.build([[0, 0], [2, 0], [2, 3], [0, 3]],
     ...                   parts=["floor", "wall", "roof", "wall"])
     >>> law = PressureLaw.single(1000.0, 1.0, gravity=10.0, gas_pressure=10000.0)
@@ -846,10 +847,12 @@ def liquid_volume_below(section, level, caps=None):
         [m3] (area x width for plane sections).
     """
     if caps is None:
-        return volume_below(section, level)
-    n = section.n_edges
-    caps = np.asarray(caps, dtype=np.float64)
-    return _volume_below_caps(section, float(level), caps, np.empty(n), np.empty(n))
+        v = volume_below(section, level)
+    else:
+        n = section.n_edges
+        caps = np.asarray(caps, dtype=np.float64)
+        v = _volume_below_caps(section, float(level), caps, np.empty(n), np.empty(n))
+    return max(v, 0.0)  # a Green sum at the very bottom may round below zero
 
 
 def layer_tops(section, bounds, names=None):
@@ -881,6 +884,7 @@ def layer_tops(section, bounds, names=None):
 
     Examples
     --------
+    >>> from wetline.core.section import Section
     >>> s = Section.build([[0, 0], [2, 0], [2, 3], [0, 3]],
     ...                   parts=["floor", "wall", "open", "wall"])
     >>> layer_tops(s, [("volume", 1.0), ("top", 1.0), ("volume", 2.0)])
