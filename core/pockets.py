@@ -65,8 +65,8 @@ from dataclasses import dataclass, field
 
 import numpy as np
 
-from .fill import FillError, level_for_volume
-from .pressure_law import PressureLaw, PressureLawError, liquid_volume_below
+from .fill import FillError, capacity, level_for_volume, volume_below
+from .pressure_law import PressureLaw, _check_law_fits
 from .section import OPEN, Section
 
 __all__ = [
@@ -141,6 +141,8 @@ class PocketTree:
     edge_start: np.ndarray
     edge_end: np.ndarray
     _edges: dict = field(default_factory=dict, repr=False)
+    _bands: dict = field(default_factory=dict, repr=False)
+    _fixed: dict = field(default_factory=dict, repr=False)
 
     @property
     def n_nodes(self):
@@ -243,13 +245,23 @@ class PocketTree:
             return np.zeros(zs.shape)
         fa = np.subtract(a["zh"], zs[:, None])
         np.multiply(fa, a["inv"], out=fa)
-        np.clip(fa, 0.0, 1.0, out=fa)
+        np.maximum(fa, 0.0, out=fa)  # clip to [0, 1]; np.clip costs more on small arrays
+        np.minimum(fa, 1.0, out=fa)
         v = fa @ c[0]
         fk = fa * fa
         v += fk @ c[1]
         if len(c) > 2:
             fk *= fa
             v += fk @ c[2]
+        return v
+
+    def _volume_at_critical(self, node, z):
+        """:meth:`volume_above` at a level of the tree itself (a lip or a
+        saddle): the same at every free surface, so kept."""
+        key = (node, z)
+        v = self._fixed.get(key)
+        if v is None:
+            v = self._fixed[key] = self._volume_above(node, z)
         return v
 
     def _heights_between(self, node, lo, hi):
@@ -597,6 +609,8 @@ def trap_air(tree, law, atmospheric_pressure=STANDARD_ATMOSPHERE):
     PocketError
         For a non-positive atmospheric pressure, or a gas pressure below a
         full vacuum under it.
+    PressureLawError
+        For a gas over an open section or a level above its spill level.
 
     Notes
     -----
@@ -620,13 +634,34 @@ def trap_air(tree, law, atmospheric_pressure=STANDARD_ATMOSPHERE):
     >>> p.sealed_at, round(p.interface, 4), round(p.air_volume, 4)
     (1.5, 1.5797, 0.8407)
     """
-    if not isinstance(law, PressureLaw):
-        raise PressureLawError("law must be a PressureLaw")
+    _check_law_fits(tree.section, law)
     p_atm = _checked_atmosphere(law, atmospheric_pressure)
-    if not tree.may_trap or p_atm + law.gas_pressure == 0.0:
+    pockets = _pockets_at(tree, law, p_atm)
+    if not pockets:
         return PocketState(law=law, atmospheric_pressure=p_atm, pockets=(), caps=None)
+    caps = np.full(tree.section.n_edges, law.level)
+    for p in pockets:
+        caps[p.edges] = p.interface
+    caps.setflags(write=False)
+    return PocketState(law=law, atmospheric_pressure=p_atm, pockets=pockets, caps=caps)
+
+
+def _pockets_at(tree, law, p_atm):
+    """The pockets sealed below the level of ``law``, solved (a tuple)."""
+    if not tree.may_trap or p_atm + law.gas_pressure == 0.0:
+        return ()
     h = law.level
     pockets = []
+    for child, lip in _sealable(tree, h):
+        k_air = (p_atm + law.gas_pressure) * tree._volume_at_critical(child, lip)
+        _solve_pocket(tree, law, p_atm, child, lip, lip, k_air, None, pockets)
+    pockets.sort(key=lambda p: (p.sealed_at, p.apex[0]))
+    return tuple(pockets)
+
+
+def _sealable(tree, h):
+    """(node, lip) of every part cut off from the vent at a saddle below h."""
+    out = []
     stack = [tree.root]
     while stack:
         node = stack.pop()
@@ -636,17 +671,9 @@ def trap_air(tree, law, atmospheric_pressure=STANDARD_ATMOSPHERE):
         for child in tree.children[node]:
             if tree.vented[child]:
                 stack.append(child)
-                continue
-            k_air = (p_atm + law.gas_pressure) * tree.volume_above(child, lip)
-            _solve_pocket(tree, law, p_atm, child, lip, lip, k_air, None, pockets)
-    if not pockets:
-        return PocketState(law=law, atmospheric_pressure=p_atm, pockets=(), caps=None)
-    pockets.sort(key=lambda p: (p.sealed_at, p.apex[0]))
-    caps = np.full(tree.section.n_edges, h)
-    for p in pockets:
-        caps[p.edges] = p.interface
-    caps.setflags(write=False)
-    return PocketState(law=law, atmospheric_pressure=p_atm, pockets=tuple(pockets), caps=caps)
+            else:
+                out.append((child, lip))
+    return out
 
 
 def _solve_pocket(tree, law, p_atm, node, lip, lo, k_air, split_at, out):
@@ -659,8 +686,8 @@ def _solve_pocket(tree, law, p_atm, node, lip, lo, k_air, split_at, out):
     hi = min(h, top)
     saddle = float(tree.level[node]) if tree.children[node] else None
     if saddle is not None and saddle < hi:
-        if (p_atm + law.pressure_at(saddle)) * tree.volume_above(node, saddle) > k_air:
-            v_split = [tree.volume_above(c, saddle) for c in tree.children[node]]
+        if (p_atm + law.pressure_at(saddle)) * tree._volume_at_critical(node, saddle) > k_air:
+            v_split = [tree._volume_at_critical(c, saddle) for c in tree.children[node]]
             v_all = sum(v_split)
             for c, v in zip(tree.children[node], v_split, strict=True):
                 if v > 0:
@@ -687,11 +714,20 @@ def _interface(tree, law, p_atm, node, lo, hi, k_air):
     def g_many(zs):
         return (p_atm + law.pressure(zs)) * tree._volumes_above(node, zs) - k_air
 
+    kinks = [b for b in law.ramp_levels.tolist() if lo < b < hi]
+    # The band of the last solve first: successive levels (a slider, the
+    # steps of a fill by volume) mostly leave the interface in it.
+    last = tree._bands.get(node)
+    if last is not None and lo <= last[0] and last[1] <= hi and not any(
+            last[0] < k < last[1] for k in kinks):
+        g = g_many(np.array(last))
+        if g[0] > 0 > g[1]:
+            return _solve_band(tree, law, p_atm, node, last[0], last[1], float(g[0]),
+                               float(g[1]), k_air)
     # Bracket between the pocket's vertex heights and the layer interfaces
     # (where P kinks): a few rounds of evaluations at many levels at once,
     # the first with the ends.
     breaks = tree._heights_between(node, lo, hi)
-    kinks = [b for b in law.ramp_levels.tolist() if lo < b < hi]
     if kinks:
         breaks = np.unique(np.concatenate([breaks, kinks]))
     a, b = lo, hi
@@ -722,6 +758,7 @@ def _interface(tree, law, p_atm, node, lo, hi, k_air):
         if breaks.size <= _BRACKET_POINTS:
             break
         breaks = breaks[(breaks > a) & (breaks < b)]
+    tree._bands[node] = (a, b)
     return _solve_band(tree, law, p_atm, node, a, b, g_lo, g_hi, k_air)
 
 
@@ -807,8 +844,9 @@ def level_for_liquid_volume(tree, law, volume, atmospheric_pressure=STANDARD_ATM
     Raises
     ------
     FillError
-        For a negative volume or more than the section holds (below its
-        spill level if open, up to its top if closed) with its air in place.
+        For a negative volume, more than the section holds (below its spill
+        level if open, up to its top if closed) with its air in place, or
+        less than the layers below the top one hold.
 
     Notes
     -----
@@ -822,17 +860,22 @@ def level_for_liquid_volume(tree, law, volume, atmospheric_pressure=STANDARD_ATM
     if not np.isfinite(volume) or volume < 0:
         raise FillError(f"fill volume must be a number >= 0, not {volume:g}")
     lo = level_for_volume(section, volume)  # no air: the lowest possible level
-    if not tree.may_trap:
+    if not tree.may_trap or volume == 0.0:
         return lo
-    bottom = max(law.interfaces) if law.n_layers > 1 else -np.inf
     top = section.top_level
+    _check_law_fits(section, law.with_level(top))
+    p_atm = _checked_atmosphere(law, atmospheric_pressure)
+    bottom = max(law.interfaces) if law.n_layers > 1 else -np.inf
 
     def liquid(h):
-        state = trap_air(tree, law.with_level(h), atmospheric_pressure)
-        return liquid_volume_below(section, h, state.caps)
+        # The cavity below h less the air below h (a pocket's air above h
+        # is V_P(h) when its top is higher).
+        v = volume_below(section, h)
+        for p in _pockets_at(tree, law.with_level(h), p_atm):
+            above = tree.volume_above(p.node, h) if h < tree.top[p.node] else 0.0
+            v -= p.air_volume - above
+        return v
 
-    if volume == 0.0:
-        return lo
     v_top = liquid(top)
     if volume > v_top * (1.0 + 1e-12):
         where = "below its spill level" if section.is_open else "up to its top (it is closed)"
@@ -841,13 +884,24 @@ def level_for_liquid_volume(tree, law, volume, atmospheric_pressure=STANDARD_ATM
             f"trapped in its pockets: {v_top:.6g} m3")
     if volume >= v_top:
         return top
-    lo = max(lo, np.nextafter(bottom, np.inf))
-    heights = section.volume_curve.heights
-    inside = heights[(heights > lo) & (heights < top)]
-    f_lo, f_hi = liquid(lo) - volume, v_top - volume
+    # The air is at most what every pocket held when it sealed: the level is
+    # at most the vented level of the volume plus all of it.
+    most_air = sum(tree._volume_at_critical(c, lip) for c, lip in _sealable(tree, np.inf))
+    hi = level_for_volume(section, min(volume + most_air, capacity(section)))
+    a, b = max(lo, float(np.nextafter(bottom, np.inf))), min(hi, top)
+    f_lo = liquid(a) - volume
+    if f_lo > 0 and a > lo:
+        raise FillError(
+            f"fill volume {volume:.6g} m3 does not reach the top interface at {bottom:.6g} m: "
+            f"the layers below it hold {volume + f_lo:.6g} m3")
     if f_lo >= 0:
-        return lo
-    a, b = lo, top
+        return a
+    f_hi = liquid(b) - volume if b < top else v_top - volume
+    if f_hi <= 0:
+        return b
+    # Between the vertex heights inside the bracket, then Brent in the band.
+    heights = section.volume_curve.heights
+    inside = heights[(heights > a) & (heights < b)]
     i, j = -1, inside.size
     while j - i > 1:
         mid = (i + j) // 2

@@ -378,29 +378,34 @@ def integrate_edges(section, law, caps=None):
     Raises
     ------
     PressureLawError
-        For a gas pressure on an open section, or caps of the wrong shape or
-        above the free surface.
+        For a gas pressure on an open section, a free surface above its
+        spill level, or caps of the wrong shape or above the free surface.
 
     Notes
     -----
-    Edge e carries p(z) = P(min(z, c_e)). An edge that no ramp level crosses
-    and whose cap is h carries, over its wetted part, a pressure linear from
-    q_0 to q_1 (the liquid's share at its clipped ends) plus p_gas over its
-    whole length. With the wetted fraction f, the start of the wetted part
-    t_a and per unit width and length,
+    Edge e carries p(z) = P(min(z, c_e)). Without gas, an edge that no
+    interface crosses and whose cap is h carries, over its wetted part, a
+    pressure linear from q_0 to q_1 (its clipped end values); with the
+    wetted fraction f and the start of the wetted part t_a (solve()'s
+    closed forms), per unit width
 
     .. math::
 
-        F = f\\,(q_0 + q_1)/2 + p_\\mathrm{gas}, \\qquad
-        F\\,t_\\mathrm{cp} = f\\,[t_a (q_0 + q_1)/2 + f (q_0 + 2 q_1)/6]
-        + p_\\mathrm{gas}/2 .
+        F = L f (q_0 + q_1)/2, \\qquad
+        t_\\mathrm{cp} = t_a + f (q_0 + 2 q_1) / (3 (q_0 + q_1)) .
 
-    Every other edge (crossed by an interface, or in a pocket) is cut at the
-    ramp levels and at its cap into pieces with linear pressure, and the
-    pieces' trapezoids are summed. Volumes are Green sums of the edges
-    clipped below min(top of the layer, cap) (the free surface, interfaces
-    and pocket interfaces are horizontal and add nothing), so that
-    floor force + support reaction = the liquid's weight to round-off.
+    Under a gas, every edge the free surface does not cross carries a
+    pressure linear over its whole length (a dry one the constant p_gas),
+    so F = L (p_0 + p_1)/2 at t_cp = (p_0 + 2 p_1)/(3 (p_0 + p_1)); so do
+    the edges of a pocket wholly in its air (the constant P(z_i)) or wholly
+    below its interface. Every other edge (crossed by an interface with a
+    density step, by the free surface under a gas, or by its pocket's
+    interface) is cut at the ramp levels and its cap into pieces of linear
+    pressure, and the pieces' trapezoids are summed. Volumes are Green sums
+    of the edges clipped below min(top of the layer, cap) (the free
+    surface, the interfaces and the pockets' interfaces are horizontal and
+    add nothing), so that floor force + support reaction = the liquid's
+    weight to round-off.
 
     Examples
     --------
@@ -418,10 +423,7 @@ def integrate_edges(section, law, caps=None):
     """
     if not isinstance(law, PressureLaw):
         raise PressureLawError("law must be a PressureLaw")
-    if law.gas_pressure != 0.0 and section.is_open:
-        raise PressureLawError(
-            "a gas pressure needs a closed section; this one has open edges "
-            "(its surface is at atmospheric pressure)")
+    _check_law_fits(section, law)
     geo = section.geometry
     n = section.n_edges
     h = law.level
@@ -447,8 +449,9 @@ def integrate_edges(section, law, caps=None):
     (p_vertex, p_end_c, wetted, fx, fz, res, cpx, cpz, hoop0, hoop1,
      f_buf, s01_buf, ta_buf, w_buf) = out
 
-    # Liquid pressure q = P(min(z, cap)) - p_gas at every vertex (first
-    # repeated last), each vertex under the cap of the edge it starts.
+    # Pressure at every vertex (first repeated last), each vertex under the
+    # cap of the edge it starts: q = P(min(z, cap)) - p_gas, the liquid's
+    # share, then with p_gas added when there is a gas.
     q = p_vertex
     z_seen = geo.vertex_z
     if caps is not None:
@@ -456,6 +459,8 @@ def integrate_edges(section, law, caps=None):
         np.minimum(geo.vertex_z[:n], caps, out=z_seen[:n])
         z_seen[n] = min(geo.vertex_z[n], caps[0])
     _ramp_sum(z_seen, levels, slopes, q, w_buf)
+    if p_gas != 0.0:
+        np.add(q, p_gas, out=q)  # q is now the whole pressure P
     q0 = q[:n]
     q1 = q[1:]
 
@@ -464,8 +469,12 @@ def integrate_edges(section, law, caps=None):
     below = []
     cut = []
     z_high = cpx[:n]
-    if law.n_layers > 1 or caps is not None:
+    if law.n_layers > 1 or caps is not None or p_gas != 0.0:
         np.maximum(geo.vertex_z[:n], geo.vertex_z[1:], out=z_high)
+    if p_gas != 0.0:
+        # Under a gas every edge carries a pressure linear over its whole
+        # length (a dry one the constant p_gas) but those the surface crosses.
+        cut.append(_edges_crossed(geo, z_high, h))
     for layer in law.layers[:-1]:
         crossed = _edges_crossed(geo, z_high, layer.top)
         if caps is None:
@@ -514,8 +523,8 @@ def integrate_edges(section, law, caps=None):
     if not axi:
         fn = res[:n]
         t = cpx[:n]
-        np.multiply(f, s01, out=fn)
         if p_gas == 0.0:
+            np.multiply(f, s01, out=fn)
             np.multiply(fn, geo.length, out=fn)
             np.multiply(fn, 0.5 * section.width, out=fn)
             # t = ta + f (q0 + 2 q1) / (3 (q0 + q1)); NaN where dry (0/0).
@@ -526,45 +535,37 @@ def integrate_edges(section, law, caps=None):
             np.multiply(t, 1.0 / 3.0, out=t)
             np.add(t, ta, out=t)
         else:
-            # Twice the force and moment per unit width and length:
-            # F2 = f (q0 + q1) + 2 p_gas, M2 = f (ta (q0 + q1) + f (q0 + 2 q1) / 3) + p_gas.
-            m = cpz[:n]
-            np.add(s01, q1, out=t)
-            np.multiply(t, f, out=t)
-            np.multiply(t, 1.0 / 3.0, out=t)
-            np.multiply(s01, ta, out=m)
-            np.add(m, t, out=m)
-            np.multiply(m, f, out=m)
-            np.add(m, p_gas, out=m)
-            np.add(fn, 2.0 * p_gas, out=fn)
-            with np.errstate(invalid="ignore", divide="ignore"):
-                np.divide(m, fn, out=t)
-            np.multiply(fn, geo.length, out=fn)
+            # Whole-length trapezoids: F = L w (p0 + p1) / 2 at
+            # t = (p0 + 2 p1) / (3 (p0 + p1)).
+            np.multiply(s01, geo.length, out=fn)
             np.multiply(fn, 0.5 * section.width, out=fn)
+            np.add(s01, q1, out=t)
+            with np.errstate(invalid="ignore", divide="ignore"):
+                np.divide(t, s01, out=t)
+            np.multiply(t, 1.0 / 3.0, out=t)
         hoop0[:n] = np.nan
         hoop1[:n] = np.nan
     else:
-        # r at the wetted part's ends: ra = x0 + ta dx, rb = ra + f dx.
-        ra = w_buf[:n]
-        np.multiply(ta, geo.dx, out=ra)
-        np.add(ra, geo.x0, out=ra)
-        rb = cpz[:n]
-        np.multiply(f, geo.dx, out=rb)
-        np.add(rb, ra, out=rb)
-        # int q r ds = Lw ((2 q0 + q1) ra + (q0 + 2 q1) rb) / 6
         acc = cpx[:n]
+        rb = cpz[:n]
+        if p_gas == 0.0:
+            # r at the wetted part's ends: ra = x0 + ta dx, rb = ra + f dx.
+            ra = w_buf[:n]
+            np.multiply(ta, geo.dx, out=ra)
+            np.add(ra, geo.x0, out=ra)
+            np.multiply(f, geo.dx, out=rb)
+            np.add(rb, ra, out=rb)
+        else:  # whole-length: the edge's own ends
+            ra = geo.x0
+            np.add(geo.x0, geo.dx, out=rb)
+        # int q r ds = Lw ((2 q0 + q1) ra + (q0 + 2 q1) rb) / 6
         np.add(s01, q0, out=acc)
         np.multiply(acc, ra, out=acc)
         np.add(s01, q1, out=s01)
         np.multiply(s01, rb, out=s01)
         np.add(acc, s01, out=acc)
-        np.multiply(acc, f, out=acc)
-        if p_gas != 0.0:
-            # + p_gas L (r0 + r1) / 2 = p_gas L (2 x0 + dx) / 2 (times 6, as acc)
-            np.multiply(geo.x0, 2.0, out=rb)
-            np.add(rb, geo.dx, out=rb)
-            np.multiply(rb, 3.0 * p_gas, out=rb)
-            np.add(acc, rb, out=acc)
+        if p_gas == 0.0:
+            np.multiply(acc, f, out=acc)
         np.multiply(acc, geo.length, out=acc)
         fzz = fz[:n]
         np.multiply(acc, 2.0 * np.pi / 6.0, out=fzz)
@@ -573,8 +574,6 @@ def integrate_edges(section, law, caps=None):
         fx[:n] = np.nan
 
     # Pressures at the ends; wetted length.
-    if p_gas != 0.0:
-        np.add(q, p_gas, out=q)
     p_start = p_vertex[:n]
     p_end = p_vertex[1:]
     if caps is not None:
@@ -636,6 +635,22 @@ def integrate_edges(section, law, caps=None):
         hoop_start=hoop0[:n], hoop_end=hoop1[:n], layer_volumes=layer_volumes,
         layer_weights=layer_weights, volume=volume, fluid_weight=weight,
         max_pressure=max_pressure)
+
+
+def _check_law_fits(section, law):
+    """PressureLawError unless ``law`` can stand in ``section``: no gas over
+    an open section, no free surface above its spill level."""
+    if not isinstance(law, PressureLaw):
+        raise PressureLawError("law must be a PressureLaw")
+    if section.is_open:
+        if law.gas_pressure != 0.0:
+            raise PressureLawError(
+                "a gas pressure needs a closed section; this one has open edges "
+                "(its surface is at atmospheric pressure)")
+        if law.level > section.spill_level:
+            raise PressureLawError(
+                f"free surface {law.level:.6g} m is above the spill level "
+                f"{section.spill_level:.6g} m; cap it first (hydrostatics.resolve_level)")
 
 
 def _edges_crossed(geo, z_high, level):

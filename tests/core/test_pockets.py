@@ -419,6 +419,10 @@ def test_refusals():
                  PressureLaw.single(1000.0, 5.0, gas_pressure=-95000.0), 90000.0)
     with pytest.raises(FillError, match="fill volume must be a number >= 0"):
         level_for_liquid_volume(tree, PressureLaw.single(1000.0, 5.0), -1.0)
+    layered = PressureLaw((Layer(1300.0, 1.0, "sludge"), Layer(1000.0, 5.0, "water")))
+    with pytest.raises(FillError, match="does not reach the top interface at 1 m: the layers "
+                                        "below it hold 10 m3"):
+        level_for_liquid_volume(tree, layered, 5.0)
 
 
 def test_a_full_vacuum_leaves_no_air_to_trap():

@@ -342,3 +342,12 @@ def test_liquid_volume_with_caps_leaves_out_the_air():
     s = Section.build([[0, 0], [2, 0], [2, 3], [0, 3]])
     assert liquid_volume_below(s, 2.0) == pytest.approx(4.0)
     assert liquid_volume_below(s, 2.0, [2.0, 1.5, 2.0, 1.5]) == pytest.approx(3.0)
+
+
+def test_a_free_surface_above_the_spill_level_is_refused():
+    # The caller caps the level (hydrostatics.resolve_level); an uncapped one
+    # is a wiring fault, said in one line.
+    s = Section.build([[0, 0], [2, 0], [2, 3], [0, 3]], parts=["floor", "wall", OPEN, "wall"])
+    with pytest.raises(PressureLawError, match="free surface 3.5 m is above the spill level 3 m"):
+        integrate_edges(s, PressureLaw.single(1000.0, 3.5))
+    assert integrate_edges(s, PressureLaw.single(1000.0, 3.0)).volume == pytest.approx(6.0)
