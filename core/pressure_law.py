@@ -421,8 +421,6 @@ def integrate_edges(section, law, caps=None):
     >>> float(r.fx[1]), float(r.wetted_length[1]), float(r.fz[2]), float(r.fz[0])
     (35000.0, 1.0, 20000.0, -40000.0)
     """
-    if not isinstance(law, PressureLaw):
-        raise PressureLawError("law must be a PressureLaw")
     _check_law_fits(section, law)
     geo = section.geometry
     n = section.n_edges
@@ -434,10 +432,13 @@ def integrate_edges(section, law, caps=None):
 
     in_pocket = None
     if caps is not None:
-        caps = np.array(caps, dtype=np.float64)
+        caps = np.asarray(caps, dtype=np.float64)
+        if caps.flags.writeable:
+            caps = caps.copy()  # kept in the result: not the caller's to change
         if caps.shape != (n,):
             raise PressureLawError(f"caps must hold one level per edge ({n}), not {caps.shape}")
-        if not np.all(np.isfinite(caps)) or np.any(caps > h):
+        top, bottom = caps.max(), caps.min()  # NaN propagates into both
+        if not (np.isfinite(top) and np.isfinite(bottom) and top <= h):
             raise PressureLawError("caps must be finite levels at or below the free surface")
         in_pocket = np.flatnonzero(caps < h)
         if not in_pocket.size:
@@ -544,7 +545,7 @@ def integrate_edges(section, law, caps=None):
                 np.divide(t, s01, out=t)
             np.multiply(t, 1.0 / 3.0, out=t)
         hoop0[:n] = np.nan
-        hoop1[:n] = np.nan
+        hoop1 = hoop0  # both ends NaN: one read-only row serves
     else:
         acc = cpx[:n]
         rb = cpz[:n]
@@ -579,10 +580,16 @@ def integrate_edges(section, law, caps=None):
     if caps is not None:
         p_end = p_end_c[:n]
         np.copyto(p_end, p_vertex[1:])
+        # The fraction of each edge below its cap: the wetted part, and the
+        # part Green's sum takes for the liquid's volume below h (caps <= h).
         f_c = w_buf[:n]
+        ta_c = s01_buf[:n]
         np.subtract(caps, geo.z_low, out=f_c)
         np.multiply(f_c, geo.inv_abs_dz, out=f_c)
         np.clip(f_c, 0.0, 1.0, out=f_c)
+        np.subtract(1.0, f_c, out=ta_c)
+        np.multiply(ta_c, geo.falls, out=ta_c)
+        volume_h = float(_green_sum(section, f_c, ta_c))
         if horizontal.size:
             f_c[horizontal] = geo.z_low[horizontal] <= caps[horizontal]
         np.multiply(f_c, geo.length, out=wetted[:n])
@@ -608,7 +615,7 @@ def integrate_edges(section, law, caps=None):
         np.add(t, geo.x0, out=t)
         cp = out[6:8, :n].T
     else:
-        cp = np.full((n, 2), np.nan)
+        cp = np.broadcast_to(fx[:n, None], (n, 2))  # NaN, read-only, no copy
         # Hoop force N = p r / cos(alpha), cos(alpha) = |dz| / L.
         sec = w_buf[:n]
         np.multiply(geo.length, geo.inv_abs_dz, out=sec)
@@ -623,12 +630,13 @@ def integrate_edges(section, law, caps=None):
     if caps is not None:
         below = [_volume_below_caps(section, layer.top, caps, f_buf[:n], ta_buf[:n])
                  for layer in law.layers[:-1]]
-        volume_h = _volume_below_caps(section, h, caps, f_buf[:n], ta_buf[:n])
     layer_volumes, layer_weights, volume, weight = _layer_volumes(law, below + [volume_h])
     max_pressure = law.pressure_at(section.z_min)
-    arrays = (wetted[:n], p_start, p_end, fx[:n], fz[:n], res[:n], cp, hoop0[:n], hoop1[:n])
+    arrays = (wetted[:n], p_start, p_end, fx[:n], fz[:n], res[:n], hoop0[:n], hoop1[:n])
     for a in arrays:
         a.setflags(write=False)
+    if cp.flags.writeable:
+        cp.setflags(write=False)
     return EdgeLoads(
         law=law, caps=caps, wetted_length=wetted[:n], p_start=p_start, p_end=p_end,
         fx=fx[:n], fz=fz[:n], resultant=res[:n], centre_of_pressure=cp,
@@ -706,7 +714,7 @@ def _ramp_sum(z, levels, slopes, out, work):
 
 def _cut_edges(section, law, caps, idx, p_start, p_end, fx, fz, res, cpx):
     """Exact loads of the edges ``idx`` by cutting each at the ramp levels
-    and its cap into pieces of linear pressure (few edges: small arrays).
+    and its cap into pieces of linear pressure, vectorised over the edges.
 
     Writes, for those edges: p_start and p_end; plane: the signed normal
     force into ``res`` and the centre of pressure parameter t along the edge
