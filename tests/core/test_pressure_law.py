@@ -179,6 +179,23 @@ def test_few_and_many_cut_edges_agree(data, s):
                                atol=1e-9 * size_of(s), equal_nan=True)
 
 
+@SETTINGS
+@given(s=sections, p_gas=st.sampled_from([1e3, 2.5e5, -101325.0]))
+def test_a_gas_alone_has_no_net_force_on_a_closed_cavity(s, p_gas):
+    # A uniform pressure over a closed boundary has no resultant (the
+    # divergence theorem; Cengel & Cimbala sec. 3-1): empty but for the gas.
+    s = closed(s)
+    e = integrate_edges(s, PressureLaw.single(1000.0, s.z_min, gravity=G, gas_pressure=p_gas))
+    assert e.volume == 0.0 and e.fluid_weight == 0.0
+    assert np.all(e.wetted_length[s.geometry.dz != 0] == 0.0)
+    total = abs(p_gas) * float(np.sum(s.geometry.length)) * (
+        2 * np.pi * float(np.max(s.outline[:, 0])) if s.is_axisymmetric else s.width)
+    assert abs(float(np.sum(e.fz))) <= 1e-12 * total
+    if not s.is_axisymmetric:
+        assert abs(float(np.sum(e.fx))) <= 1e-12 * total
+        np.testing.assert_array_equal(e.p_start, np.full(s.n_edges, p_gas))
+
+
 # ------------------------------------------------------- hand formulas
 
 
