@@ -19,7 +19,7 @@ import math
 
 import numpy as np
 
-__all__ = ["ASSUMPTIONS", "CAUTIONS", "results_record"]
+__all__ = ["ASSUMPTIONS", "CAUTION", "results_record"]
 
 ASSUMPTIONS = (
     "hydrostatic, one liquid, pockets vented",
@@ -27,10 +27,12 @@ ASSUMPTIONS = (
     "straight edges; curved walls are represented by their polygon",
 )
 
-CAUTIONS = (
+CAUTION = (
     "Hydrostatic loads only: no sloshing, seismic, wind, surge, thermal or "
     "structural capacity checks. Verify against local codes and licensed practice."
 )
+"""The one caution of every output: the record's ``cautions``, the readable
+table, the window, the diagram and the calculation sheet."""
 
 
 def _num(v):
@@ -109,5 +111,5 @@ def results_record(case, solution=None):
         "edges": edges,
         "warnings": list(sol.warnings),
         "assumptions": list(ASSUMPTIONS),
-        "cautions": CAUTIONS,
+        "cautions": CAUTION,
     }

@@ -11,7 +11,7 @@ from __future__ import annotations
 
 from PySide6.QtGui import QUndoCommand
 
-from wetline.core.report_tables import fmt
+from wetline.core.numbers import format_number
 from wetline.core.uplift import DEFAULT_REQUIRED_FACTOR, PartResistance
 
 __all__ = ["CaseCommand", "UnitsCommand", "DiagramScaleCommand", "ResistanceCommand",
@@ -143,7 +143,7 @@ class ResistanceCommand(CaseCommand):
         # A part with nothing holding it down is not checked (and not saved).
         new_case = case.with_resistance(part, None if new.total == 0 else new)
         q, label = resistance_unit(document)
-        shown = fmt(document.units.units.to_display(float(value), q))
+        shown = format_number(document.units.units.to_display(float(value), q))
         super().__init__(document, new_case,
                          f"{_title(part)} {self.WORDS[field]} {shown} {label}")
 
@@ -155,7 +155,7 @@ class RequiredFactorCommand(CaseCommand):
         factor = float(factor)
         new_case = document.case.with_required_uplift_factor(factor)  # CaseError if <= 0
         text = ("Required uplift factor: default" if factor == DEFAULT_REQUIRED_FACTOR
-                else f"Required uplift factor {fmt(factor)}")
+                else f"Required uplift factor {format_number(factor)}")
         super().__init__(document, new_case, text)
 
 

@@ -36,6 +36,7 @@ from PySide6.QtGui import QUndoStack
 
 from wetline.app.model.display import DisplayChoice
 from wetline.core.case import Case
+from wetline.core.force_scope import force_scale
 from wetline.core.level_table import level_table
 from wetline.core.section import SectionError
 
@@ -158,6 +159,9 @@ class Document(QObject):
         """The :class:`wetline.core.hydrostatics.Solution` shown: of the valid
         preview during a drag, else of the case."""
         self.level_table = None
+        self._scope_key = self._scope = None
+        self._scale_of = None
+        self._force_scale = 0.0
         self._need_solve = True
         self._need_table = True
         self.undo_stack = QUndoStack(self)
@@ -222,6 +226,31 @@ class Document(QObject):
         if self._draft is not None:
             return self._draft.outline, self._draft.error
         return None
+
+    def force_scope(self, section=None):
+        """How forces of ``section`` (default: the shown case's) are shown:
+        the :class:`wetline.core.force_scope.ForceScope` of the display units
+        and the file's length unit."""
+        if section is None:
+            section = self.shown_case.section
+        key = (section.kind, section.width, self._units, self._case.length_unit)
+        if self._scope_key != key:
+            self._scope_key = key
+            self._scope = self._units.force_scope(section, self._case.length_unit)
+        return self._scope
+
+    @property
+    def force_scale(self):
+        """The largest force of :attr:`solution` [N] (0 before the first
+        solve): forces below :data:`wetline.core.numbers.NOISE` of it are
+        round-off and show as 0."""
+        sol = self.solution
+        if sol is None:
+            return 0.0
+        if self._scale_of is not sol:
+            self._scale_of = sol
+            self._force_scale = force_scale(sol)
+        return self._force_scale
 
     @property
     def is_modified(self):

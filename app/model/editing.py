@@ -12,10 +12,10 @@ from __future__ import annotations
 import numpy as np
 
 from wetline.app.model.commands import CaseCommand, DiagramScaleCommand, UnitsCommand
-from wetline.app.model.display import format_number
 from wetline.app.model.document import Draft
 from wetline.app.model.gravity import format_gravity, gravity_label
 from wetline.core.fill import FillError, capacity
+from wetline.core.numbers import format_number
 from wetline.core.section import SectionError
 
 __all__ = [

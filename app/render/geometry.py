@@ -1,6 +1,8 @@
-"""Drawing geometry of the loads: pressure diagrams, arrows, resultants.
+"""Drawing geometry of the loads: the liquid, the free surface, pressure
+diagrams, arrows, resultants and where pressure values are written.
 
-Pure numpy (no Qt), so the canvas and any renderer share it. Everything in
+Pure numpy and shapely (no Qt): the live canvas and the exported diagram
+draw from these same functions, so they show the same thing. Everything in
 metres and pascals; the pressure ``scale`` turns a pressure into a drawing
 length [m/Pa]. Diagrams are drawn outward from the wall (along the outward
 normal, from the liquid into the wall).
@@ -9,20 +11,30 @@ normal, from the liquid into the wall).
 from __future__ import annotations
 
 import itertools
+import math
 from dataclasses import dataclass
 
 import numpy as np
+import shapely
 
 from wetline.core.section import AXIS, OPEN
 
-__all__ = ["WettedEdges", "wetted_edges", "auto_scale", "diagram_polygons", "chain_starts",
-           "carrying_edges", "pressure_arrows", "arrow_strokes", "PartRun", "part_runs",
-           "run_resultants"]
+__all__ = ["CORNER_COS", "is_corner", "WettedEdges", "wetted_edges", "auto_scale",
+           "diagram_polygons", "chain_starts", "carrying_edges", "axis_edges",
+           "pressure_arrows", "arrow_strokes", "PartRun", "part_runs", "run_resultants",
+           "surface_spans", "liquid_rings", "PressureSite", "pressure_sites"]
 
 
-KINK_COS = 0.985
-"""Cosine of the angle between neighbouring edges above which the diagram
-does not return to the wall at their common vertex (about 10 degrees)."""
+CORNER_COS = math.cos(math.radians(10.0))
+"""Two walls meeting at more than 10 degrees make a corner: the diagram
+returns to the wall there and the pressure is written there. Below it the
+walls are a smooth bend (a curve drawn as a polyline)."""
+
+
+def is_corner(nx0, nz0, nx1, nz1):
+    """True (elementwise) where walls with outward normals (nx0, nz0) and
+    (nx1, nz1) meet at a corner, not a smooth bend (see :data:`CORNER_COS`)."""
+    return nx0 * nx1 + nz0 * nz1 < CORNER_COS
 
 
 @dataclass(frozen=True)
@@ -44,10 +56,21 @@ class WettedEdges:
     nz: np.ndarray
 
 
+def axis_edges(section):
+    """Boolean mask of the edges drawn as the axis: parts named ``axis`` and,
+    on an axisymmetric section, every edge lying on x = 0."""
+    mask = np.fromiter((p == AXIS for p in section.parts), bool, count=section.n_edges)
+    if section.is_axisymmetric:
+        x = section.outline[:, 0]
+        mask |= (x == 0) & (np.roll(x, -1) == 0)
+    return mask
+
+
 def carrying_edges(section):
-    """Boolean mask of the edges that carry load (not ``open`` or ``axis``)."""
-    return np.fromiter((p not in (OPEN, AXIS) for p in section.parts), bool,
-                       count=section.n_edges)
+    """Boolean mask of the edges that carry a pressure diagram: walls, not
+    ``open`` edges or the axis (:func:`axis_edges`)."""
+    walls = np.fromiter((p != OPEN for p in section.parts), bool, count=section.n_edges)
+    return walls & ~axis_edges(section)
 
 
 def wetted_edges(solution, carries=None):
@@ -102,7 +125,7 @@ def diagram_polygons(w, scale):
     # times fills a hundred times slower.
     starts = chain_starts(w)
     kink = np.zeros(m, dtype=bool)  # after edge k
-    kink[:-1] = (w.nx[:-1] * w.nx[1:] + w.nz[:-1] * w.nz[1:]) < KINK_COS
+    kink[:-1] = is_corner(w.nx[:-1], w.nz[:-1], w.nx[1:], w.nz[1:])
     nan = np.full(m, np.nan)
     fx = np.column_stack([w.ax + w.pa * scale * w.nx, w.bx + w.pb * scale * w.nx,
                           np.where(kink, w.bx, nan)])
@@ -265,3 +288,128 @@ def run_resultants(solution, runs, w=None):
             cx, cz = cx + t * fz, cz - t * fx
         out.append((run, fx, fz, cx, cz))
     return out
+
+
+def surface_spans(section, level):
+    """x-ranges [m] where the free surface z = ``level`` crosses the cavity,
+    as a list of (x0, x1); empty below the section and above its roof."""
+    pts = section.outline
+    size = max(section.z_max - section.z_min, 1e-12)
+    h = level - 1e-9 * size
+    x0, z0 = pts[:, 0], pts[:, 1]
+    x1, z1 = np.roll(x0, -1), np.roll(z0, -1)
+    cross = (z0 > h) != (z1 > h)
+    with np.errstate(divide="ignore", invalid="ignore"):
+        xs = x0[cross] + (h - z0[cross]) * (x1[cross] - x0[cross]) / (z1[cross] - z0[cross])
+    xs = np.sort(xs)
+    return [(float(xs[k]), float(xs[k + 1])) for k in range(0, len(xs) - 1, 2)]
+
+
+def liquid_rings(section, level, polygon=None):
+    """The liquid: the cavity below ``level`` [m], as rings of (N, 2) points
+    [m] (each polygon's outline, then its holes) for an odd-even fill.
+    ``polygon`` is ``shapely.Polygon(section.outline)`` if already built."""
+    if level <= section.z_min:
+        return []
+    if polygon is None:
+        polygon = shapely.Polygon(section.outline)
+    pts = section.outline
+    x0, x1 = float(pts[:, 0].min()), float(pts[:, 0].max())
+    pad = 1.0 + (x1 - x0) + (section.z_max - section.z_min)
+    wet = shapely.clip_by_rect(polygon, x0 - pad, section.z_min - pad, x1 + pad, level)
+    rings = []
+    for poly in shapely.get_parts(wet):
+        if poly.geom_type != "Polygon" or poly.is_empty:
+            continue
+        for ring in [poly.exterior, *poly.interiors]:
+            rings.append(shapely.get_coordinates(ring))
+    return rings
+
+
+@dataclass(frozen=True)
+class PressureSite:
+    """A place where a pressure value is written: a corner or end of a
+    wetted wall, or the middle of a uniform diagram (a horizontal wall).
+
+    ``x, z`` the wall point [m]; ``pressure`` there [Pa]; ``normals`` the
+    outward unit normals of the walls meeting there; ``uniform`` True for
+    the middle of a uniform diagram, whose wetted part runs from ``along[:2]``
+    to ``along[2:]`` [m].
+    """
+
+    x: float
+    z: float
+    pressure: float
+    normals: tuple
+    uniform: bool = False
+    along: tuple = ()
+
+    @property
+    def direction(self):
+        """The unit direction the value is written in: the mean of the normals."""
+        sx = sum(n[0] for n in self.normals)
+        sz = sum(n[1] for n in self.normals)
+        norm = math.hypot(sx, sz)
+        if norm < 1e-6:
+            return self.normals[0]
+        return sx / norm, sz / norm
+
+    def tip(self, scale):
+        """The point [m] at the diagram's outer edge along :attr:`direction`."""
+        dx, dz = self.direction
+        reach = max(scale * self.pressure * (nx * dx + nz * dz) for nx, nz in self.normals)
+        reach = max(reach, 0.0)
+        return self.x + dx * reach, self.z + dz * reach
+
+
+def pressure_sites(w, n_vertices, limit=16):
+    """Where the pressure values of the diagrams are written, deepest first.
+
+    The middle of every uniform diagram (a horizontal wall), and each wetted
+    end or corner of the other walls (where two walls meet at less than a
+    corner, :func:`is_corner`, only the deepest such vertex). At most
+    ``limit``: the deepest, then others spread over the range of pressures.
+
+    Parameters
+    ----------
+    w : WettedEdges
+    n_vertices : int
+        Vertices of the section (to close the outline).
+    limit : int
+
+    Returns
+    -------
+    list of PressureSite
+    """
+    m = w.index.size
+    if m == 0:
+        return []
+    pmax = float(max(w.pa.max(), w.pb.max()))
+    if not pmax > 0:
+        return []
+    tol = 1e-9 * pmax
+    sites = []
+    at = {}  # vertex -> [pressure, x, z, [normals]]
+    for k in range(m):
+        i = int(w.index[k])
+        nx, nz = float(w.nx[k]), float(w.nz[k])
+        pa, pb = float(w.pa[k]), float(w.pb[k])
+        if abs(pa - pb) <= tol and pa > tol:
+            ax, az, bx, bz = float(w.ax[k]), float(w.az[k]), float(w.bx[k]), float(w.bz[k])
+            sites.append(PressureSite(0.5 * (ax + bx), 0.5 * (az + bz), pa, ((nx, nz),), True,
+                                      (ax, az, bx, bz)))
+            continue
+        for v, p, x, z in ((i, pa, w.ax[k], w.az[k]), ((i + 1) % n_vertices, pb, w.bx[k],
+                                                        w.bz[k])):
+            if p > tol:
+                at.setdefault(v, [p, float(x), float(z), []])[3].append((nx, nz))
+    deepest = max(at, key=lambda v: at[v][0]) if at else None
+    for v, (p, x, z, normals) in at.items():
+        if len(normals) == 2 and v != deepest and not is_corner(*normals[0], *normals[1]):
+            continue  # a smooth bend
+        sites.append(PressureSite(x, z, p, tuple(normals)))
+    sites.sort(key=lambda site: -site.pressure)
+    if len(sites) > limit:
+        keep = np.unique(np.linspace(1, len(sites) - 1, max(limit - 1, 1)).astype(int))
+        sites = [sites[0]] + [sites[k] for k in keep]
+    return sites[:limit]

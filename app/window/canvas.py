@@ -17,10 +17,15 @@ An axisymmetric section is drawn as the vessel it describes: the real half
 (x >= 0, the one edited) and, faintly, its mirror image x -> -x, with the
 axis as a dash-dot centre line.
 
-Labels are laid out by :class:`wetline.app.render.labels.LabelLayout`: the most
+The liquid, free surface, diagrams, resultants and the places of the
+pressure values come from :mod:`wetline.app.render.geometry`, the same
+functions the exported diagram draws from, in the same part colours
+(:func:`wetline.app.render.style.part_colours`). Labels are laid out by the
+one layout engine, :class:`wetline.app.render.labels.LabelLayout`: the most
 important first (resultants, largest first; the free surface; pressure
 values, deepest first); a label that would cover another, an arrow or a
-vertex handle is moved (if it must show) or left out.
+vertex handle is moved (if it must show) or left out. Its work per label is
+bounded, however far a vertex is dragged.
 """
 
 from __future__ import annotations
@@ -33,42 +38,45 @@ from PySide6.QtGui import QBrush, QColor, QFont, QFontMetricsF, QPainterPath, QP
 from PySide6.QtWidgets import QGraphicsPathItem, QInputDialog, QMenu
 
 from wetline.app.model import editing
-from wetline.app.model.display import format_number
 from wetline.app.render.geometry import (
     arrow_strokes,
     auto_scale,
     carrying_edges,
     diagram_polygons,
+    liquid_rings,
     part_runs,
     pressure_arrows,
+    pressure_sites,
     run_resultants,
+    surface_spans,
     wetted_edges,
 )
 from wetline.app.render.labels import LabelLayout
+from wetline.app.render.style import (
+    DIAGRAM_FILL,
+    DIAGRAM_LINE,
+    DIAGRAM_TEXT,
+    LOAD,
+    SURFACE,
+    UPLIFT,
+    part_colours,
+)
 from wetline.app.window.grid import LightGrid
 from wetline.core.section import AXIS, FLOOR, OPEN, Section, SectionError
 
-__all__ = ["SectionCanvas", "VertexHandles", "part_colour", "RESERVED_PART_CHOICES"]
+__all__ = ["SectionCanvas", "VertexHandles", "RESERVED_PART_CHOICES"]
 
 RESERVED_PART_CHOICES = ("wall", FLOOR, OPEN, "lid", AXIS)
 """Part names offered first when assigning a part to an edge."""
 
-_PART_COLOURS = {
-    FLOOR: "#7a5230",
-    "wall": "#34506e",
-    "lid": "#1f8a84",
-    "roof": "#1f8a84",
-    OPEN: "#9aa5b1",
-    AXIS: "#9aa5b1",
-}
-_EXTRA_COLOURS = ("#5b7f2a", "#b0602b", "#4f6bb3", "#8f7a1e", "#a34766", "#3d8f5f")
 LIQUID_BRUSH = QColor(126, 178, 226, 95)
-SURFACE_COLOUR = "#1d5fa6"
-DIAGRAM_BRUSH = QColor(236, 150, 70, 80)
-DIAGRAM_PEN = QColor(205, 110, 40)
-ARROW_COLOUR = "#c9712f"
-DOWN_COLOUR = "#b3261e"
-UPLIFT_COLOUR = "#8e24aa"
+SURFACE_COLOUR = SURFACE
+DIAGRAM_BRUSH = QColor(*DIAGRAM_FILL[:3], 80)
+DIAGRAM_PEN = QColor(DIAGRAM_LINE)
+ARROW_COLOUR = DIAGRAM_LINE
+DOWN_COLOUR = LOAD
+UPLIFT_COLOUR = UPLIFT
+PRESSURE_TEXT = DIAGRAM_TEXT
 HIGHLIGHT_COLOUR = "#f2b705"
 FAULT_COLOUR = "#d00000"
 MAX_HANDLES = 3000
@@ -87,17 +95,8 @@ LABEL_FILL = pg.mkBrush(255, 255, 255, 170)
 """Behind each label, so lines under it do not cross its text."""
 SAME_VALUE_PX = 150.0
 """A pressure value already labelled this near [px] is not labelled again."""
-
-
-def part_colour(name, known=()):
-    """Colour of a part's edges: fixed for the usual names, else taken in
-    turn from a short list by the part's position among ``known``."""
-    c = _PART_COLOURS.get(name)
-    if c is not None:
-        return c
-    others = [p for p in known if p not in _PART_COLOURS]
-    k = others.index(name) if name in others else len(others)
-    return _EXTRA_COLOURS[k % len(_EXTRA_COLOURS)]
+SHAFT_CLEARANCE = 4.0
+"""Labels keep this far [px] off a resultant's shaft."""
 
 
 def _cosmetic_pen(colour, width=1.0, style=Qt.SolidLine):
@@ -113,6 +112,19 @@ def _path(x, z, connect):
         return QPainterPath()
     return pg.arrayToQPath(np.asarray(x, float), np.asarray(z, float), connect=connect,
                            finiteCheck=False)
+
+
+def _rings_path(rings):
+    """One odd-even path of closed rings ((N, 2) arrays [m])."""
+    if not rings:
+        return QPainterPath()
+    connect = []
+    for ring in rings:
+        c = np.ones(len(ring), dtype=bool)
+        c[-1] = False
+        connect.append(c)
+    pts = np.concatenate(rings)
+    return _path(pts[:, 0], pts[:, 1], np.concatenate(connect))
 
 
 def _segments(outline, edges):
@@ -430,6 +442,7 @@ class SectionCanvas(pg.PlotWidget):
         if outline is None:
             outline, parts = self._doc.working_outline()
         names = tuple(dict.fromkeys(parts))
+        colours = part_colours(names)
         parts_arr = np.array(parts, dtype=object)
         for name in list(self._part_curves):
             if name not in names:
@@ -440,7 +453,7 @@ class SectionCanvas(pg.PlotWidget):
             edges = np.flatnonzero(parts_arr == name)
             x, z = _segments(outline, edges)
             curve = self._part_curves.get(name)
-            colour = part_colour(name, names)
+            colour = colours[name]
             style = (Qt.DashLine if name == OPEN else Qt.DashDotLine if name == AXIS
                      else Qt.SolidLine)
             width = 1.5 if name in (OPEN, AXIS) else 3
@@ -537,33 +550,20 @@ class SectionCanvas(pg.PlotWidget):
             self._polygon = shapely.Polygon(outline)
             self._polygon_section = section
         axi = section.is_axisymmetric
-        if h > zmin:
-            wet = shapely.clip_by_rect(self._polygon, xmin - 1, zmin - 1, xmax + 1, h)
-            path = self._polygon_path(wet)
-            self._liquid.setPath(path)
-            if axi:
-                self._mirror_liquid.setPath(QTransform.fromScale(-1.0, 1.0).map(path))
-        else:
-            self._liquid.setPath(QPainterPath())
-            if axi:
-                self._mirror_liquid.setPath(QPainterPath())
+        path = _rings_path(liquid_rings(section, h, self._polygon))
+        self._liquid.setPath(path)
+        if axi:
+            self._mirror_liquid.setPath(QTransform.fromScale(-1.0, 1.0).map(path))
         margin = 0.04 * size
         left_end = -xmax if axi else xmin
         if h > zmin:
-            line = shapely.LineString([(xmin - 1, h), (xmax + 1, h)])
-            sx, sz = [], []
-            for seg in shapely.get_parts(shapely.intersection(self._polygon, line)):
-                if seg.geom_type == "LineString":
-                    c = shapely.get_coordinates(seg)
-                    if len(c) < 2:
-                        continue
-                    sx += [c[0, 0], c[-1, 0]]
-                    sz += [h, h]
-            if not sx:  # level above a closed section's roof: a standpipe head
-                sx, sz = [left_end - margin, xmax + margin], [h, h]
+            spans = surface_spans(section, h)
+            if not spans:  # level above a closed section's roof: a standpipe head
+                spans = [(left_end - margin, xmax + margin)]
             elif axi:  # across the whole vessel
-                sx, sz = sx + [-v for v in sx], sz + sz
-            self._surface.setData(np.array(sx), np.array(sz), connect="pairs")
+                spans += [(-b, -a) for a, b in spans]
+            sx = np.array(spans, dtype=float).ravel()
+            self._surface.setData(sx, np.full(sx.size, h), connect="pairs")
         else:
             self._surface.setData([], [])
         spill = section.spill_level
@@ -576,7 +576,10 @@ class SectionCanvas(pg.PlotWidget):
             self._carries = carrying_edges(section)
             self._runs = part_runs(section)
             self._parts_key = section.parts
-        w = wetted_edges(solution, self._carries)
+        # On an axisymmetric section the edges on the axis carry nothing,
+        # and a drag may move a vertex onto or off the axis.
+        carries = carrying_edges(section) if axi else self._carries
+        w = wetted_edges(solution, carries)
         scale = self._scale(solution)
         x, z, connect = diagram_polygons(w, scale)
         path = _path(x, z, connect)
@@ -597,7 +600,7 @@ class SectionCanvas(pg.PlotWidget):
                         SURFACE_COLOUR, (1, 0.5))
         if spill is not None:
             self._label(xmax + 2 * margin, spill, "spill level", "#5a6b7d", (0, 0.5))
-        self._label_pressures(w, scale, units)
+        self._label_pressures(w, scale, section.n_edges, units)
         self.layout_labels()
 
     def _parts_cached(self, section):
@@ -605,22 +608,6 @@ class SectionCanvas(pg.PlotWidget):
         parts (they depend on nothing else, so a dragged outline keeps them)."""
         key = getattr(self, "_parts_key", None)
         return key is not None and (key is section.parts or key == section.parts)
-
-    def _polygon_path(self, geom):
-        xs, zs, cs = [], [], []
-        for poly in shapely.get_parts(geom):
-            if poly.geom_type != "Polygon" or poly.is_empty:
-                continue
-            for ring in [poly.exterior, *poly.interiors]:
-                c = shapely.get_coordinates(ring)
-                xs.append(c[:, 0])
-                zs.append(c[:, 1])
-                conn = np.ones(len(c), dtype=bool)
-                conn[-1] = False
-                cs.append(conn)
-        if not xs:
-            return QPainterPath()
-        return _path(np.concatenate(xs), np.concatenate(zs), np.concatenate(cs))
 
     def _polygon_section_is(self, section):
         return self._polygon is not None and getattr(self, "_polygon_section", None) is section
@@ -661,32 +648,36 @@ class SectionCanvas(pg.PlotWidget):
         self._label_timer.stop()
         px = self._vb.viewPixelSize()
         self._px = (px[0] or 1e-9, px[1] or 1e-9)
-        self._layout = LabelLayout()
+        # The view and as much again around it: obstacles and arrows far off
+        # the view are dropped or clipped, so a vertex dragged far away costs
+        # no more than one near by.
+        (x0, x1), (z0, z1) = self._vb.viewRange()
+        bx0, bx1 = x0 / self._px[0], x1 / self._px[0]
+        bz0, bz1 = z0 / self._px[1], z1 / self._px[1]
+        wx, wz = bx1 - bx0, bz1 - bz0
+        self._layout = LabelLayout(bounds=(bx0 - wx, bz0 - wz, bx1 + wx, bz1 + wz))
         outline = self._label_outline
         if len(outline) <= MAX_HANDLE_OBSTACLES:
             for vx, vz in outline / self._px:
                 self._layout.add_obstacle(vx - 5, vz - 5, vx + 5, vz + 5)
-        for shaft in self._arrow_shafts:
-            self._arrow_obstacle(*shaft)
+        for x0, z0, x1, z1 in self._arrow_shafts:  # labels keep off the shafts
+            self._layout.add_line(x0 / self._px[0], z0 / self._px[1], x1 / self._px[0],
+                                  z1 / self._px[1], clearance=SHAFT_CLEARANCE, soft=False)
         self._labels_used = 0
-        shown = []  # (text, x, y [px]) of the "once" labels placed
         for x, z, text, colour, anchor, bold, optional, once in self._label_requests:
-            if once:
-                X, Y = x / self._px[0], z / self._px[1]
-                if any(t == text and abs(X - a) + abs(Y - b) < SAME_VALUE_PX
-                       for t, a, b in shown):
-                    continue
-            item = self._place_label(x, z, text, colour, anchor, bold, optional)
-            if once and item is not None:
-                shown.append((text, X, Y))
+            X, Y = x / self._px[0], z / self._px[1]
+            if once and self._layout.seen_near(text, X, Y, SAME_VALUE_PX):
+                continue
+            self._place_label(x, z, text, colour, anchor, bold, optional)
         for item in self._labels[self._labels_used:]:
             if item.isVisible():
                 item.hide()
 
     def _place_label(self, x, z, text, colour, anchor, bold, optional):
         width, height = self._text_size(text, bold)
-        shift = self._layout.place(x / self._px[0], z / self._px[1], width, height, anchor,
-                                   required=not optional, margin=LABEL_MARGIN)
+        shift = self._layout.place_anchored(x / self._px[0], z / self._px[1], width, height,
+                                            anchor, required=not optional, margin=LABEL_MARGIN,
+                                            key=text)
         if shift is None:
             return None
         x += shift[0] * self._px[0]
@@ -722,40 +713,16 @@ class SectionCanvas(pg.PlotWidget):
         """Pixel boxes (x0, y0, x1, y1, y up) of the placed labels' text."""
         return list(self._layout.boxes)
 
-    def _label_pressures(self, w, scale, units):
-        if w.index.size == 0:
-            return
-        # Points of the diagram at edge ends and kinks, pressure > 0.
-        px = np.concatenate([w.ax, w.bx])
-        pz = np.concatenate([w.az, w.bz])
-        p = np.concatenate([w.pa, w.pb])
-        nx = np.concatenate([w.nx, w.nx])
-        nz = np.concatenate([w.nz, w.nz])
-        keep = p > 1e-9 * max(float(p.max()), 1e-300)
-        px, pz, p, nx, nz = px[keep], pz[keep], p[keep], nx[keep], nz[keep]
-        if p.size == 0:
-            return
-        # At most a few dozen candidates (evenly along the outline, plus the
-        # deepest), then one label per distinct diagram corner.
-        if p.size > 4 * MAX_PRESSURE_LABELS:
-            pick = np.unique(np.append(
-                np.linspace(0, p.size - 1, 4 * MAX_PRESSURE_LABELS).astype(int), np.argmax(p)))
-            px, pz, p, nx, nz = px[pick], pz[pick], p[pick], nx[pick], nz[pick]
-        d = p * scale
-        key = np.round(np.column_stack([px + d * nx, pz + d * nz]), 9)
-        _, first = np.unique(key, axis=0, return_index=True)
-        first = np.sort(first)
-        if first.size > MAX_PRESSURE_LABELS:
-            deepest = first[np.argmax(p[first])]
-            pick = first[np.linspace(0, first.size - 1, MAX_PRESSURE_LABELS - 1).astype(int)]
-            first = np.unique(np.append(pick, deepest))
-        plabel = units.units.label("pressure")
-        for k in first[np.argsort(-p[first], kind="stable")]:  # deepest first
-            d = p[k] * scale
+    def _label_pressures(self, w, scale, n_vertices, units):
+        """The pressure at the places of
+        :func:`wetline.app.render.geometry.pressure_sites` (the same as the
+        exported diagram's), deepest first, where there is room."""
+        for site in pressure_sites(w, n_vertices, MAX_PRESSURE_LABELS):
+            dx, dz = site.direction
+            x, z = site.tip(scale)
             # One value once in a neighbourhood (both ends of a lid ...).
-            self._label(px[k] + d * nx[k], pz[k] + d * nz[k],
-                        f"{format_number(units.pressure(p[k]), 3)} {plabel}", "#8a4a12",
-                        (0.5 - 0.5 * nx[k], 0.5 + 0.5 * nz[k]), optional=True, once=True)
+            self._label(x, z, units.fmt_pressure(site.pressure), PRESSURE_TEXT,
+                        (0.5 - 0.5 * dx, 0.5 + 0.5 * dz), optional=True, once=True)
 
     def _draw_resultants(self, solution, w, size, units):
         section = solution.section
@@ -782,8 +749,9 @@ class SectionCanvas(pg.PlotWidget):
             if len(labels) < MAX_RESULTANT_LABELS:
                 labels.append((run.part, mag, uplift, tip, ux, uz))
         # The arrows are obstacles (layout_labels); the labels, largest first.
+        scope = self._doc.force_scope(section)
         for part, mag, uplift, tip, ux, uz in labels:
-            text = f"{part}: {units.fmt_force(section, mag)}" + (" uplift" if uplift else "")
+            text = f"{part}: {scope.text(mag)}" + (" uplift" if uplift else "")
             # The tip on the box's edge facing back along the arrow.
             m = max(abs(ux), abs(uz))
             self._label(tip[0], tip[1], text, UPLIFT_COLOUR if uplift else DOWN_COLOUR,
@@ -795,18 +763,6 @@ class SectionCanvas(pg.PlotWidget):
                 item.setData(x, z)
             else:
                 item.setData([], [])
-
-    def _arrow_obstacle(self, x0, z0, x1, z1, step_px=14.0, half_px=4.0):
-        """Keep labels off a resultant's shaft: small boxes along it."""
-        a = (x0 / self._px[0], z0 / self._px[1])
-        b = (x1 / self._px[0], z1 / self._px[1])
-        n = max(1, int(np.hypot(b[0] - a[0], b[1] - a[1]) // step_px))
-        for k in range(n):
-            t0, t1 = k / n, (k + 1) / n
-            self._layout.add_obstacle(a[0] + t0 * (b[0] - a[0]) - half_px,
-                                      a[1] + t0 * (b[1] - a[1]) - half_px,
-                                      a[0] + t1 * (b[0] - a[0]) + half_px,
-                                      a[1] + t1 * (b[1] - a[1]) + half_px)
 
     # ------------------------------------------------------ picking
     def _pixel(self):

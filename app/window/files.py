@@ -242,7 +242,8 @@ class Transfer(QObject):
     def export_edges_csv_to(self, path):
         try:
             self.doc.flush()
-            text = to_csv(edges_table(self.doc.solution, self.doc.units.units))
+            text = to_csv(edges_table(self.doc.solution, self.doc.units.units,
+                                      self.doc.case.length_unit))
             write_atomically(path, text)
         except Exception as exc:
             return self._error("Cannot export the CSV", exc)

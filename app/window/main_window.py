@@ -26,7 +26,7 @@ from PySide6.QtWidgets import (
 
 from wetline.app.model import editing
 from wetline.app.model.commands import ReportInfoCommand
-from wetline.app.model.display import DisplayChoice, format_number
+from wetline.app.model.display import DisplayChoice
 from wetline.app.model.document import Document
 from wetline.app.window import dialogs
 from wetline.app.window.canvas import SectionCanvas
@@ -35,13 +35,13 @@ from wetline.app.window.files import Transfer
 from wetline.app.window.panels import FillPanel, LiquidPanel, TotalsPanel, parse_number
 from wetline.app.window.tables import EdgesTable, PartsTable, VerticesPane, VerticesTable
 from wetline.app.window.uplift_panel import UpliftPanel
+from wetline.core.numbers import format_number
+from wetline.core.results import CAUTION
 from wetline.core.section import SectionError
 from wetline.core.section_file import SectionFileError, read_section_file, write_section_file
 
-__all__ = ["MainWindow", "CAUTION"]
+__all__ = ["MainWindow"]
 
-CAUTION = ("Hydrostatic loads only: no sloshing, seismic, wind, surge or structural "
-           "capacity. Verify against local codes and licensed practice.")
 MAX_RECENT = 8
 UNIT_CHOICES = (("si", "m"), ("si", "mm"), ("us", "ft"), ("us", "in"))
 
@@ -573,9 +573,9 @@ class MainWindow(QMainWindow):
         return self.export_to(path) if path else False
 
     def export_to(self, path, size=None):
-        """Write the pressure diagram PNG (through :mod:`wetline.app.render.scene`)."""
+        """Write the pressure diagram PNG (through :mod:`wetline.app.render.png`)."""
         try:
-            from wetline.app.render import scene
+            from wetline.app.render import png
         except ImportError as exc:
             dialogs.show_error(self, "Export", f"PNG export is not available: {exc}")
             return False
@@ -583,7 +583,7 @@ class MainWindow(QMainWindow):
         if size is not None:
             kwargs["size"] = size
         try:
-            scene.export_png(self.doc.case, path, **kwargs)
+            png.export_png(self.doc.case, path, **kwargs)
         except Exception as exc:
             dialogs.show_error(self, "Export failed", str(exc))
             return False

@@ -35,9 +35,10 @@ from PySide6.QtWidgets import (
 )
 
 from wetline.app.model.commands import RequiredFactorCommand, ResistanceCommand, resistance_unit
+from wetline.app.render.style import MUTED, NOT_OK_COLOUR, OK_COLOUR
 from wetline.app.window.panels import parse_number
 from wetline.core.case import CaseError
-from wetline.core.report_tables import fmt
+from wetline.core.numbers import format_number
 from wetline.core.uplift import (
     DEFAULT_REQUIRED_FACTOR,
     REQUIRED_FACTOR_SOURCE,
@@ -46,11 +47,9 @@ from wetline.core.uplift import (
     worst_uplifts,
 )
 
-__all__ = ["UpliftPanel", "UpliftChecker", "OK_COLOUR", "NOT_OK_COLOUR"]
+__all__ = ["UpliftPanel", "UpliftChecker"]
 
-OK_COLOUR = "#1b7a3a"
-NOT_OK_COLOUR = "#b00020"
-MUTED = "#6b7480"
+
 FIELDS = ("self_weight", "holding_down")
 
 
@@ -60,7 +59,7 @@ def verdict_html(ok, factor, level_text=None):
     colour = OK_COLOUR if ok else NOT_OK_COLOUR
     tag = (f'<span style="background-color:{colour}; color:white; font-weight:600;">'
            f'&nbsp;{"OK" if ok else "NOT OK"}&nbsp;</span>')
-    value = "no uplift" if math.isinf(factor) else fmt(factor, 3)
+    value = "no uplift" if math.isinf(factor) else format_number(factor)
     text = f"{tag}<br>{value}"
     if level_text:
         text += f' <span style="color:{MUTED};">at {html.escape(level_text)}</span>'
@@ -243,20 +242,20 @@ class UpliftPanel(QGroupBox):
             for field in FIELDS:
                 edit = row.edits[field]
                 value = 0.0 if r is None else getattr(r, field)
-                text = fmt(units.to_display(value, q))
+                text = format_number(units.to_display(value, q), 6)  # an input
                 row.shown[field] = text
                 edit.blockSignals(True)
                 edit.setText(text)
                 edit.blockSignals(False)
         f = doc.case.required_uplift_factor
         self.factor.blockSignals(True)
-        self.factor.setText(fmt(f))
+        self.factor.setText(format_number(f))
         self.factor.blockSignals(False)
         self._factor_shown = self.factor.text()
         if f == DEFAULT_REQUIRED_FACTOR:
             self.source.setText(f"Required factor: {REQUIRED_FACTOR_SOURCE}.")
         else:
-            self.source.setText(f"Required factor {fmt(f)} set for this case "
+            self.source.setText(f"Required factor {format_number(f)} set for this case "
                                 f"({REQUIRED_FACTOR_SOURCE}).")
         self.default_button.setEnabled(f != DEFAULT_REQUIRED_FACTOR)
         self._show_error("")
@@ -281,7 +280,7 @@ class UpliftPanel(QGroupBox):
         self.results = self._checker.check(case, sol) if case.resistances else []
         by_part = {r.part: r for r in self.results}
         units = doc.units
-        force = units.force_label(case.section)
+        scope, scale = doc.force_scope(case.section), doc.force_scale
         lines = []
         for part, row in self._rows.items():
             r = by_part.get(part)
@@ -300,14 +299,13 @@ class UpliftPanel(QGroupBox):
             row.worst.setText(verdict_html(r.ok, r.worst_factor, level_worst))
             row.worst.setToolTip("The level in the fill range with the greatest uplift")
             lines.append(
-                f"{part}: resistance {units.fmt_force(case.section, r.resistance)}; uplift "
-                f"{units.fmt_force(case.section, r.uplift)} now, "
-                f"{units.fmt_force(case.section, r.worst_uplift)} at {level_worst} (worst); "
-                f"required {fmt(r.required_factor, 3)}")
+                f"{part}: resistance {scope.text(r.resistance)}; uplift "
+                f"{scope.text(r.uplift, scale=scale)} now, "
+                f"{scope.text(r.worst_uplift)} at {level_worst} (worst); "
+                f"required {format_number(r.required_factor)}")
         if not lines:
             lines.append("Enter a self-weight or holding-down resistance of a part to check "
-                         f"it against uplift. Forces {units.force_scope(case.section)} "
-                         f"({force}).")
+                         f"it against uplift. Forces {scope.words} ({scope.label}).")
         self.details.setText("\n".join(lines))
 
     # ------------------------------------------------------- view -> document

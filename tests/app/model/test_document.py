@@ -93,7 +93,7 @@ def test_delete_down_to_two_vertices_is_refused_as_draft(qtbot):
 
 def test_liquid_and_units_commands_have_readable_text(doc):
     editing.set_liquid(doc, seawater(10.0, 35.0))
-    assert doc.undo_stack.undoText() == "Liquid: seawater 10.0 C, 35.0 g/kg"
+    assert doc.undo_stack.undoText() == "Liquid: seawater 10 C, 35 g/kg"
     editing.set_units(doc, DisplayChoice("us", "in"))
     assert doc.undo_stack.undoText() == "Units: US customary, in"
     doc.undo_stack.undo()

@@ -12,6 +12,10 @@ from wetline.app.render.geometry import (
     run_resultants,
     wetted_edges,
 )
+from wetline.core.case import Case
+from wetline.core.section import Section
+
+SQUARE = [[0, 0], [2, 0], [2, 3], [0, 3]]
 
 
 def _polygons(x, z, connect):
@@ -66,3 +70,27 @@ def test_run_resultants_sum_to_part_loads(template_case):
         ok = ~np.isnan(cp[:, 0])
         m = np.sum(cp[ok, 0] * sol.fz[idx][ok] - cp[ok, 1] * sol.fx[idx][ok])
         assert px * fz - pz * fx == pytest.approx(m, abs=1e-9 * sol.fluid_weight)
+
+
+@pytest.mark.parametrize("parts, runs", [
+    (["floor", "wall", "open", "wall"], [("floor", (0,)), ("wall", (1,)), ("wall", (3,))]),
+    (["wall", "wall", "floor", "wall"], [("floor", (2,)), ("wall", (3, 0, 1))]),
+    (["wall"] * 4, [("wall", (0, 1, 2, 3))]),
+])
+def test_runs_split_a_part_into_its_separate_pieces(parts, runs):
+    # A run may wrap past the last edge; open edges carry nothing.
+    section = Section.build(SQUARE, parts=parts)
+    assert [(r.part, r.edges) for r in part_runs(section)] == runs
+
+
+def test_wetted_part_is_cut_at_the_free_surface():
+    # Edge 1 rises from (2, 0) to (2, 3): wetted up to the level 1.5 m, with
+    # p = rho g h at its foot and 0 at the surface (common practice).
+    case = Case.default(Section.build(SQUARE, parts=["floor", "wall", "open", "wall"]), 1.5)
+    sol = case.solve()
+    w = wetted_edges(sol)
+    assert list(w.index) == [0, 1, 3]  # the open edge carries nothing
+    k = list(w.index).index(1)
+    rg = sol.density * sol.gravity
+    assert (w.ax[k], w.az[k], w.bx[k], w.bz[k]) == pytest.approx((2.0, 0.0, 2.0, 1.5))
+    assert (w.pa[k], w.pb[k]) == pytest.approx((1.5 * rg, 0.0), abs=1e-9 * rg)

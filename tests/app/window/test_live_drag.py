@@ -8,9 +8,9 @@ from PySide6.QtCore import QEvent, QPointF, Qt
 from PySide6.QtGui import QMouseEvent
 from PySide6.QtWidgets import QApplication
 
-from wetline.app.model.display import format_number
 from wetline.core.fill import volume_below
 from wetline.core.level_table import level_table
+from wetline.core.numbers import format_number
 
 
 def _drag_to(w, index, x, z, settle):
@@ -38,13 +38,14 @@ def test_totals_tables_and_chart_show_the_dragged_outline(make_window, settle):
         volume = volume_below(dragged, before.level)
         assert sol.volume == volume
         assert w.totals.values["volume"].text().startswith(u.fmt_volume(volume))
-        assert w.totals.values["weight"].text() == u.fmt_force(dragged, sol.fluid_weight)
-        assert w.totals.values["floor"].text() == u.fmt_force(dragged, sol.floor_force)
+        scope, scale = doc.force_scope(dragged), doc.force_scale
+        assert w.totals.values["weight"].text() == scope.text(sol.fluid_weight, scale=scale)
+        assert w.totals.values["floor"].text() == scope.text(sol.floor_force, scale=scale)
         # Parts table: the floor row's downward load.
         parts = w.parts_table.model()
         row = [parts.index(r, 0).data() for r in range(parts.rowCount())].index("floor")
         assert parts.index(row, 3).data() == format_number(
-            u.force(dragged, sol.parts["floor"].down))
+            scope.to_display(sol.parts["floor"].down))
         # Edges table: the length of the stretched floor edge 0.
         edges = w.edges_table.model()
         assert edges.index(0, 1).data() == format_number(u.length(dragged.geometry.length[0]))
@@ -53,7 +54,7 @@ def test_totals_tables_and_chart_show_the_dragged_outline(make_window, settle):
                             levels=doc.level_table.levels)
         cx, cy = w.chart._curves[0].getData()
         assert cx == pytest.approx(u.length(table.levels))
-        assert cy == pytest.approx(u.force(dragged, table.fluid_weight), rel=1e-12)
+        assert cy == pytest.approx(scope.to_display(table.fluid_weight), rel=1e-12)
         assert w.chart.cursor_level == pytest.approx(sol.level)
         # Vertex table: the dragged vertex's x as the canvas shows it.
         vertices = w.vertices_table.model()
