@@ -87,6 +87,13 @@ class DisplayChoice:
         shown in this system (:func:`wetline.core.force_scope.force_scope`)."""
         return force_scope(section, self.units, length_unit)
 
+    def resistance_unit(self, section: Section) -> tuple[str, str]:
+        """(quantity, label) of a part's self-weight and holding-down
+        resistance: per metre of width for plane sections ("kN/m",
+        "lbf/ft"), totals for axisymmetric ones ("kN", "lbf")."""
+        q = "force" if section.is_axisymmetric else "force_per_length"
+        return q, self.units.label(q)
+
     # -------------------------------------------------------- formatting
     def fmt_length(self, metres: float) -> str:
         return self.units.text(metres, "length")

@@ -1,10 +1,12 @@
-"""User edits of a document, as undo commands.
+"""User edits of a document, as undo commands: every edit is built here.
 
-The views call these functions; each builds the new case with core and
-pushes one :class:`wetline.app.model.commands.CaseCommand` with readable text. Outline
-edits that core refuses (crossing edges, too few vertices) become the
-document's :class:`wetline.app.model.document.Draft` instead, so nothing typed or dragged
-is lost and the last valid case stays in force.
+The views (panels, tables, canvas, chart, main window, file import) call
+these functions; each builds the new case with core and pushes one
+:class:`wetline.app.model.commands.CaseCommand` with readable text (or a
+units or diagram-scale command). Outline edits that core refuses (crossing
+edges, too few vertices) become the document's
+:class:`wetline.app.model.document.Draft` instead, so nothing typed, drawn
+or dragged is lost and the last valid case stays in force.
 """
 
 from __future__ import annotations
@@ -12,18 +14,23 @@ from __future__ import annotations
 import numpy as np
 
 from wetline.app.model.commands import CaseCommand, DiagramScaleCommand, UnitsCommand
-from wetline.app.model.document import Draft
+from wetline.app.model.document import Draft, fill_range
 from wetline.app.model.gravity import format_gravity, gravity_label
 from wetline.core.fill import FillError, capacity
 from wetline.core.numbers import format_number
-from wetline.core.section import SectionError
+from wetline.core.section import Section, SectionError
+from wetline.core.uplift import DEFAULT_REQUIRED_FACTOR, PartResistance
 
 __all__ = [
     "apply_outline", "move_vertex", "insert_vertex", "delete_vertex", "set_edge_part",
-    "replace_section", "set_kind", "set_width", "rename", "set_liquid", "set_gravity",
-    "fill_to_level", "fill_to_volume", "fill_to_percent", "set_units",
-    "set_diagram_scale", "discard_draft",
+    "draw_outline", "replace_section", "import_section", "set_kind", "set_width", "rename",
+    "set_liquid", "set_gravity", "fill_to_level", "fill_to_volume", "fill_to_percent",
+    "set_resistance", "set_required_factor", "set_report_info", "set_units",
+    "set_diagram_scale", "discard_draft", "RESISTANCE_FIELDS",
 ]
+
+RESISTANCE_FIELDS = {"self_weight": "self-weight", "holding_down": "holding-down"}
+"""The fields of a part's resistance against uplift, and their words."""
 
 
 def apply_outline(doc, outline, parts, text, merge_key=None):
@@ -89,11 +96,45 @@ def set_edge_part(doc, edge, name):
     return apply_outline(doc, outline, parts, f"Set part of edge {edge} to {name}")
 
 
+def draw_outline(doc, points, part="wall", text="Draw new outline"):
+    """A new outline drawn vertex by vertex (every edge ``part``), keeping
+    the section's kind, width and name; the draft if core refuses it.
+
+    Returns
+    -------
+    bool
+        True if the outline became the section.
+    """
+    old = doc.section
+    outline = np.array(points, dtype=np.float64).reshape(-1, 2)
+    parts = (part,) * len(outline)
+    try:
+        section = Section.build(outline, parts=parts, kind=old.kind, width=old.width,
+                                name=old.name)
+    except SectionError as exc:
+        doc.set_draft(Draft(outline, parts, exc))
+        return False
+    replace_section(doc, section, text=text)
+    return True
+
+
 def replace_section(doc, section, level=None, text="New section"):
     """A whole new section (template, drawn outline), optionally refilled."""
     case = doc.case.with_section(section)
     if level is not None:
         case = case.with_level(level)
+    doc.undo_stack.push(CaseCommand(doc, case, text))
+
+
+def import_section(doc, section, text):
+    """An outline read from a drawing or a coordinate list replaces the
+    section as one undo step, keeping the liquid, the uplift inputs and the
+    fill if the new section can take it (else filled to its top level)."""
+    case = doc.case.with_section(section)
+    if case.fill_level is not None:
+        lo, hi = fill_range(section)
+        if not lo <= case.fill_level <= hi:
+            case = case.with_level(section.top_level)
     doc.undo_stack.push(CaseCommand(doc, case, text))
 
 
@@ -178,6 +219,66 @@ def fill_to_percent(doc, percent, merge_key=None):
     if not (np.isfinite(percent) and 0 <= percent <= 100):
         raise FillError("the percentage must be between 0 and 100")
     fill_to_volume(doc, capacity(doc.section) * percent / 100.0, merge_key)
+
+
+def _title(part):
+    return part[:1].upper() + part[1:]
+
+
+def set_resistance(doc, part, field, value):
+    """Set one part's self-weight or holding-down resistance ("Lid
+    self-weight 2.5 kN/m"): ``field`` one of :data:`RESISTANCE_FIELDS`,
+    ``value`` [N/m of width for plane sections, N for axisymmetric] >= 0
+    (ValueError otherwise). A part left with nothing holding it down is not
+    checked (and not saved)."""
+    if field not in RESISTANCE_FIELDS:
+        raise ValueError(f"no resistance field {field!r}")
+    case = doc.case
+    old = case.resistance_map.get(part, PartResistance())
+    values = {"self_weight": old.self_weight, "holding_down": old.holding_down}
+    values[field] = float(value)
+    new = PartResistance(**values)  # ValueError for a negative value
+    new_case = case.with_resistance(part, None if new.total == 0 else new)
+    if new_case.resistances == case.resistances:
+        return
+    q, label = doc.units.resistance_unit(case.section)
+    shown = format_number(doc.units.units.to_display(float(value), q))
+    doc.undo_stack.push(CaseCommand(doc, new_case,
+                                    f"{_title(part)} {RESISTANCE_FIELDS[field]} {shown} {label}"))
+
+
+def set_required_factor(doc, factor):
+    """Set the required factor against uplift ("Required uplift factor
+    1.25"); CaseError if it is not positive."""
+    factor = float(factor)
+    if factor == doc.case.required_uplift_factor:
+        return
+    case = doc.case.with_required_uplift_factor(factor)  # CaseError if <= 0
+    text = ("Required uplift factor: default" if factor == DEFAULT_REQUIRED_FACTOR
+            else f"Required uplift factor {format_number(factor)}")
+    doc.undo_stack.push(CaseCommand(doc, case, text))
+
+
+_REPORT_WORDS = (("project", "project"), ("job_reference", "job reference"),
+                 ("prepared_by", "prepared by"))
+
+
+def set_report_info(doc, report):
+    """Set the calculation sheet's header fields ("Sheet header: project,
+    job reference"); nothing if they are unchanged.
+
+    Returns
+    -------
+    bool
+        True if an edit was made.
+    """
+    old = doc.case.report
+    changed = [words for key, words in _REPORT_WORDS if getattr(old, key) != getattr(report, key)]
+    if not changed:
+        return False
+    doc.undo_stack.push(CaseCommand(doc, doc.case.with_report(report),
+                                    "Sheet header: " + ", ".join(changed)))
+    return True
 
 
 def set_units(doc, choice):

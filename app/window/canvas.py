@@ -62,7 +62,7 @@ from wetline.app.render.style import (
     part_colours,
 )
 from wetline.app.window.grid import LightGrid
-from wetline.core.section import AXIS, FLOOR, OPEN, Section, SectionError
+from wetline.core.section import AXIS, FLOOR, OPEN
 
 __all__ = ["SectionCanvas", "VertexHandles", "RESERVED_PART_CHOICES"]
 
@@ -967,18 +967,10 @@ class SectionCanvas(pg.PlotWidget):
         self.set_mode("edit")
         if not pts:
             return False
-        old = self._doc.section
-        parts = ("wall",) * len(pts)
-        try:
-            section = Section.build(pts, parts=parts, kind=old.kind, width=old.width,
-                                    name=old.name)
-        except SectionError as exc:
-            from wetline.app.model.document import Draft
-            self._doc.set_draft(Draft(np.array(pts, float).reshape(-1, 2), parts, exc))
-            self.message.emit(f"Invalid outline: {exc}")
+        if not editing.draw_outline(self._doc, pts):
+            self.message.emit(f"Invalid outline: {self._doc.draft.error}")
             self._schedule(outline=True)
             return False
-        editing.replace_section(self._doc, section, text="Draw new outline")
         return True
 
     def cancel_drawing(self):

@@ -23,8 +23,7 @@ from pathlib import Path
 from PySide6.QtCore import QObject, QThread, Signal
 from PySide6.QtWidgets import QApplication
 
-from wetline.app.model.commands import CaseCommand
-from wetline.app.model.document import fill_range
+from wetline.app.model import editing
 from wetline.app.window import dialogs
 from wetline.core.atomic_write import write_atomically
 from wetline.core.coordinates import CoordinateError, format_coordinates, parse_coordinates
@@ -91,16 +90,6 @@ def _base_name(doc):
     if doc.path:
         return Path(doc.path).name.split(".")[0]
     return (doc.section.name.strip() or "section").replace("/", "-")
-
-
-def _refilled(case):
-    """The case with its fill kept if the section can still take it, else
-    filled to the section's top level."""
-    if case.fill_level is not None:
-        lo, hi = fill_range(case.section)
-        if not lo <= case.fill_level <= hi:
-            return case.with_level(case.section.top_level)
-    return case
 
 
 class Transfer(QObject):
@@ -280,8 +269,7 @@ class Transfer(QObject):
 
     # ------------------------------------------------------------ imports
     def _replace_section(self, section, text):
-        case = _refilled(self.doc.case.with_section(section))
-        self.doc.undo_stack.push(CaseCommand(self.doc, case, text))
+        editing.import_section(self.doc, section, text)
         fit = getattr(self._window, "canvas", None)
         if fit is not None:
             fit.fit()

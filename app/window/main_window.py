@@ -25,7 +25,6 @@ from PySide6.QtWidgets import (
 )
 
 from wetline.app.model import editing
-from wetline.app.model.commands import ReportInfoCommand
 from wetline.app.model.display import DisplayChoice
 from wetline.app.model.document import Document
 from wetline.app.window import dialogs
@@ -562,10 +561,7 @@ class MainWindow(QMainWindow):
     def edit_report_info(self):
         """File > Calculation sheet header: one undo step if anything changed."""
         report = dialogs.ask_report_info(self, self.doc.case.report)
-        if report is None or report == self.doc.case.report:
-            return False
-        self.doc.undo_stack.push(ReportInfoCommand(self.doc, report))
-        return True
+        return report is not None and editing.set_report_info(self.doc, report)
 
     def export_dialog(self):
         base = Path(self.doc.path).name.split(".")[0] if self.doc.path else "diagram"

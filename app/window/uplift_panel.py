@@ -12,9 +12,10 @@ is solved (a level, vertex or liquid change) and each time a resistance or
 the required factor changes: the factor achieved at the current level and at
 the worst level in the fill range, each with its verdict, OK or NOT OK.
 
-Every edit is one undo command (:class:`wetline.app.model.commands.ResistanceCommand`,
-:class:`wetline.app.model.commands.RequiredFactorCommand`); bad input is shown in red
-under the fields and changes nothing.
+Every edit is one undo command built by :mod:`wetline.app.model.editing`
+(:func:`~wetline.app.model.editing.set_resistance`,
+:func:`~wetline.app.model.editing.set_required_factor`); bad input is shown
+in red under the fields and changes nothing.
 """
 
 from __future__ import annotations
@@ -34,7 +35,7 @@ from PySide6.QtWidgets import (
     QWidget,
 )
 
-from wetline.app.model.commands import RequiredFactorCommand, ResistanceCommand, resistance_unit
+from wetline.app.model import editing
 from wetline.app.render.style import MUTED, NOT_OK_COLOUR, OK_COLOUR
 from wetline.app.window.panels import parse_number
 from wetline.core.case import CaseError
@@ -228,7 +229,7 @@ class UpliftPanel(QGroupBox):
     def _write_back(self):
         doc = self._doc
         units = doc.units.units
-        q, label = resistance_unit(doc)
+        q, label = doc.units.resistance_unit(doc.section)
         scope = "total" if doc.section.is_axisymmetric else "per m of width"
         titles = ("Part", f"Self-weight\n[{label}]", f"Holding-down\n[{label}]",
                   "Now", "Worst level")
@@ -322,13 +323,13 @@ class UpliftPanel(QGroupBox):
             return  # unchanged (focus passing through)
         what = "Self-weight" if field == "self_weight" else "Holding-down"
         doc = self._doc
-        q, _ = resistance_unit(doc)
+        q, _ = doc.units.resistance_unit(doc.section)
         try:
             text = edit.text().strip() or "0"
             value = doc.units.units.from_display(parse_number(text, f"{what} of {part}"), q)
             if value < 0:
                 raise ValueError(f"{what} of {part} must be >= 0")
-            doc.undo_stack.push(ResistanceCommand(doc, part, field, value))
+            editing.set_resistance(doc, part, field, value)
         except ValueError as exc:
             self._show_error(str(exc))
             return
@@ -350,9 +351,7 @@ class UpliftPanel(QGroupBox):
 
     def set_required_factor(self, value):
         """Push the command that sets the required factor (if it changes)."""
-        doc = self._doc
-        if value != doc.case.required_uplift_factor:
-            doc.undo_stack.push(RequiredFactorCommand(doc, value))
+        editing.set_required_factor(self._doc, value)
         self._show_error("")
 
 

@@ -12,7 +12,6 @@ from PySide6.QtCore import QTimer
 from PySide6.QtWidgets import QApplication, QPushButton
 
 from wetline.app.model import editing
-from wetline.app.model.commands import ReportInfoCommand, ResistanceCommand
 from wetline.app.model.display import DisplayChoice
 from wetline.app.window import dialogs
 from wetline.core.case import Case, ReportInfo
@@ -30,7 +29,7 @@ def sump_window(make_window, settle, sample):
     w = make_window()
     assert w.open_path(str(sample("sump_with_lid")))
     editing.set_liquid(w.doc, custom_liquid(1100.0))  # something an import must keep
-    w.doc.undo_stack.push(ResistanceCommand(w.doc, "lid", "self_weight", 1800.0))
+    editing.set_resistance(w.doc, "lid", "self_weight", 1800.0)
     settle(w)
     return w
 
@@ -70,8 +69,8 @@ def test_file_menu_has_import_export_and_header(make_window):
 def test_pdf_sheet_from_the_menu_states_the_uplift_verdict(
         sump_window, qtbot, tmp_path, monkeypatch, no_dialogs):
     w = sump_window
-    w.doc.undo_stack.push(ReportInfoCommand(
-        w.doc, ReportInfo("Inlet works upgrade", "C-0417", "design team")))
+    assert editing.set_report_info(
+        w.doc, ReportInfo("Inlet works upgrade", "C-0417", "design team"))
     out = tmp_path / "calc.pdf"
     asked = []
     monkeypatch.setattr(dialogs, "ask_export_file",
