@@ -388,28 +388,42 @@ def pressure_sites(w, n_vertices, limit=16):
     if not pmax > 0:
         return []
     tol = 1e-9 * pmax
+    uniform = (np.abs(w.pa - w.pb) <= tol) & (w.pa > tol)
+    # Every wetted end with pressure of the other walls: edge k starts at
+    # vertex index[k] and ends at vertex index[k] + 1; grouped by vertex.
+    ka = np.flatnonzero(~uniform & (w.pa > tol))
+    kb = np.flatnonzero(~uniform & (w.pb > tol))
+    vert = np.concatenate([w.index[ka], (w.index[kb] + 1) % n_vertices])
+    order = np.argsort(vert, kind="stable")
+    vert = vert[order]
+    edge = np.concatenate([ka, kb])[order]
+    pres = np.concatenate([w.pa[ka], w.pb[kb]])[order]
+    px = np.concatenate([w.ax[ka], w.bx[kb]])[order]
+    pz = np.concatenate([w.az[ka], w.bz[kb]])[order]
+    starts = np.flatnonzero(np.r_[True, vert[1:] != vert[:-1]]) if vert.size else vert
+    last = np.r_[starts[1:], vert.size] - 1 if vert.size else vert
+    e0, e1 = edge[starts], edge[last]
+    at = np.maximum(pres[starts], pres[last])
+    keep = (last == starts) | is_corner(w.nx[e0], w.nz[e0], w.nx[e1], w.nz[e1])
+    if starts.size:
+        keep[int(np.argmax(at))] = True  # the deepest is written even on a bend
+    cu = np.flatnonzero(uniform)
+    cv = np.flatnonzero(keep)
+    order = np.argsort(-np.concatenate([w.pa[cu], at[cv]]), kind="stable")
+    if order.size > limit:
+        spread = np.unique(np.linspace(1, order.size - 1, max(limit - 1, 1)).astype(int))
+        order = np.concatenate([order[:1], order[spread]])[:limit]
     sites = []
-    at = {}  # vertex -> [pressure, x, z, [normals]]
-    for k in range(m):
-        i = int(w.index[k])
-        nx, nz = float(w.nx[k]), float(w.nz[k])
-        pa, pb = float(w.pa[k]), float(w.pb[k])
-        if abs(pa - pb) <= tol and pa > tol:
+    for j in order.tolist():
+        if j < cu.size:
+            k = int(cu[j])
             ax, az, bx, bz = float(w.ax[k]), float(w.az[k]), float(w.bx[k]), float(w.bz[k])
-            sites.append(PressureSite(0.5 * (ax + bx), 0.5 * (az + bz), pa, ((nx, nz),), True,
+            sites.append(PressureSite(0.5 * (ax + bx), 0.5 * (az + bz), float(w.pa[k]),
+                                      ((float(w.nx[k]), float(w.nz[k])),), True,
                                       (ax, az, bx, bz)))
             continue
-        for v, p, x, z in ((i, pa, w.ax[k], w.az[k]), ((i + 1) % n_vertices, pb, w.bx[k],
-                                                        w.bz[k])):
-            if p > tol:
-                at.setdefault(v, [p, float(x), float(z), []])[3].append((nx, nz))
-    deepest = max(at, key=lambda v: at[v][0]) if at else None
-    for v, (p, x, z, normals) in at.items():
-        if len(normals) == 2 and v != deepest and not is_corner(*normals[0], *normals[1]):
-            continue  # a smooth bend
-        sites.append(PressureSite(x, z, p, tuple(normals)))
-    sites.sort(key=lambda site: -site.pressure)
-    if len(sites) > limit:
-        keep = np.unique(np.linspace(1, len(sites) - 1, max(limit - 1, 1)).astype(int))
-        sites = [sites[0]] + [sites[k] for k in keep]
-    return sites[:limit]
+        g = int(cv[j - cu.size])
+        ks = sorted({int(e0[g]), int(e1[g])})
+        sites.append(PressureSite(float(px[starts[g]]), float(pz[starts[g]]), float(at[g]),
+                                  tuple((float(w.nx[k]), float(w.nz[k])) for k in ks)))
+    return sites

@@ -521,7 +521,7 @@ class MainWindow(QMainWindow):
             dialogs.show_error(self, "Cannot open the file", f"{path}: {exc}")
             return False
         self.doc.load(case, path)
-        self.canvas._first_fit = True
+        self.canvas.fit_when_drawn()
         self._add_recent(path)
         self._status(f"Opened {path}")
         return True

@@ -8,7 +8,7 @@ import numpy as np
 import pytest
 
 from wetline.app.render.labels import LabelLayout, label_box
-from wetline.app.window.canvas import LABEL_MARGIN
+from wetline.app.window.canvas_labels import LABEL_MARGIN
 from wetline.core.liquids import seawater
 from wetline.core.section_file import read_section_file
 
@@ -16,7 +16,7 @@ from wetline.core.section_file import read_section_file
 def _text_rects(canvas):
     """Scene rectangles of the visible labels' text (without the margin)."""
     rects = []
-    for item in canvas._labels[:canvas._labels_used]:
+    for item in canvas.labels.items[:canvas.labels.used]:
         r = item.mapRectToScene(item.textItem.mapRectToParent(item.textItem.boundingRect()))
         rects.append((item.toPlainText(), r.adjusted(LABEL_MARGIN, LABEL_MARGIN,
                                                       -LABEL_MARGIN, -LABEL_MARGIN)))
@@ -50,10 +50,10 @@ def test_sump_lid_labels_keep_off_the_arrows(make_window, settle, sample):
     case = read_section_file(sample("sump_with_lid"))
     w = make_window(case)
     c = w.canvas
-    px, pz = c._px
+    px, pz = c.labels.px
     boxes = c.label_boxes()
     # The resultant shafts (as drawn) do not pass through any label's text.
-    for item in (c._down, c._up):
+    for item in (c.load_layer.down, c.load_layer.up):
         x, z = item.getData()
         if x is None:
             continue
@@ -100,7 +100,7 @@ def test_labels_fit_the_repaint_budget(make_window, settle):
     pts = np.vstack([pts, [[4.0, 3.5], [0.0, 3.5]]])
     parts = ["floor"] * 2999 + ["wall", "open", "wall"]
     w = make_window(Case.default(Section.build(pts, parts=parts), 3.0))
-    layout = w.canvas._layout
+    layout = w.canvas.labels.layout
     assert len(layout.obstacles) < 200 and len(layout.boxes) < 40
 
 
@@ -117,8 +117,8 @@ def test_a_vertex_dragged_a_million_sizes_away_keeps_the_layout_bounded(make_win
     editing.move_vertex(w.doc, 3, x + 1e6 * size, z)
     settle(w)
     assert w.doc.section.outline[3, 0] == pytest.approx(x + 1e6 * size)
-    layout = w.canvas._layout
-    requests = len(w.canvas._label_requests)
+    layout = w.canvas.labels.layout
+    requests = len(w.canvas.labels.requests)
     assert requests < MAX_LABELS
     assert layout.candidates_tried <= 2 * MAX_CANDIDATES * requests
     assert layout.box_tests < 20_000

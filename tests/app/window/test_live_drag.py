@@ -87,11 +87,11 @@ def test_invalid_drag_step_keeps_last_valid_results_and_marks_fault(make_window,
     _drag_to(w, 1, -1.0, 2.5, settle)  # crosses the far wall
     assert doc.solution is valid
     assert w.totals.values["volume"].text() == valid_text
-    assert w.canvas._fault_text.isVisible()
-    assert "crosses" in w.canvas._fault_text.toPlainText()
-    assert len(w.canvas._draft_curve.getData()[0]) == before.section.n_edges + 1
+    assert w.canvas.outline_layer.fault_text.isVisible()
+    assert "crosses" in w.canvas.outline_layer.fault_text.toPlainText()
+    assert len(w.canvas.outline_layer.draft_curve.getData()[0]) == before.section.n_edges + 1
     _drag_to(w, 1, x + 0.2, z, settle)  # valid again: fault gone, results follow
-    assert not w.canvas._fault_text.isVisible()
+    assert not w.canvas.outline_layer.fault_text.isVisible()
     assert doc.solution.section.outline[1, 0] == pytest.approx(x + 0.2)
     h.dragFinished.emit(1, x + 0.2, z)
     settle(w)
@@ -104,7 +104,7 @@ def test_real_mouse_drag_updates_totals_before_release(make_window, settle):
     vp = c.viewport()
 
     def at(x, z):
-        return c.mapFromScene(c._vb.mapViewToScene(QPointF(x, z))).toPointF()
+        return c.mapFromScene(c.getPlotItem().getViewBox().mapViewToScene(QPointF(x, z))).toPointF()
 
     def send(kind, pos, button, buttons):
         QApplication.sendEvent(vp, QMouseEvent(kind, pos, vp.mapToGlobal(pos), button,
