@@ -12,7 +12,10 @@ diagram, SVG, PDF and CSV):
 
 Inside Wetline (and in the JSON results record) forces stay N on the
 section's whole width; only their display changes. Hoop forces are N/m
-whatever the width and are not affected.
+whatever the width and are not affected, nor are the self-weight and
+holding-down resistance a user enters against uplift: per metre of width
+on a plane section, totals on an axisymmetric one
+(:func:`resistance_quantity`).
 
 Round-off: :func:`force_scale` gives the largest force of a solution, the
 ``scale`` below which :func:`wetline.core.numbers.format_number` shows a
@@ -28,7 +31,7 @@ import numpy as np
 
 from .numbers import DEFAULT_DIGITS, format_number, is_noise
 
-__all__ = ["ForceScope", "force_scope", "force_scale", "RUN_LENGTHS"]
+__all__ = ["ForceScope", "force_scope", "force_scale", "resistance_quantity", "RUN_LENGTHS"]
 
 RUN_LENGTHS = {"m": 1.0, "ft": 0.3048}
 """The unit of run [m] a file in each length unit may be exactly as wide as:
@@ -146,3 +149,11 @@ def force_scale(solution) -> float:
     parts = [(0.0 if p.fx is None else p.fx, p.fz, p.down) for p in solution.parts.values()]
     return _largest(solution.fx, solution.fz, solution.resultant, parts,
                     [solution.fluid_weight, solution.floor_force, solution.support_reaction])
+
+
+def resistance_quantity(section) -> str:
+    """The display quantity of a part's self-weight and holding-down
+    resistance (:class:`wetline.core.uplift.PartResistance`): per metre of
+    width, ``"force_per_length"`` (kN/m, lbf/ft), on a plane section;
+    totals, ``"force"`` (kN, lbf), on an axisymmetric one."""
+    return "force" if section.is_axisymmetric else "force_per_length"

@@ -11,7 +11,7 @@ Round-off noise: a force summed from opposite contributions (the net
 horizontal force on a tank's two side walls, the support reaction of a
 section whose floor carries everything) comes out as 1e-13 of the loads
 instead of 0. Given the ``scale`` of the quantity (the case's largest value
-of the same kind, :func:`wetline.core.force_scope.force_scales`), a value
+of the same kind, :func:`wetline.core.force_scope.force_scale`), a value
 smaller than :data:`NOISE` of it prints as ``0``.
 """
 

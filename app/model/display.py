@@ -17,7 +17,7 @@ from dataclasses import dataclass
 
 import numpy as np
 
-from wetline.core.force_scope import ForceScope, force_scope
+from wetline.core.force_scope import ForceScope, force_scope, resistance_quantity
 from wetline.core.section import Section
 from wetline.core.units import SI_LENGTH_UNITS, US_LENGTH_UNITS, DisplayUnits, display_units
 
@@ -91,7 +91,7 @@ class DisplayChoice:
         """(quantity, label) of a part's self-weight and holding-down
         resistance: per metre of width for plane sections ("kN/m",
         "lbf/ft"), totals for axisymmetric ones ("kN", "lbf")."""
-        q = "force" if section.is_axisymmetric else "force_per_length"
+        q = resistance_quantity(section)
         return q, self.units.label(q)
 
     # -------------------------------------------------------- formatting

@@ -423,10 +423,6 @@ class Document(QObject):
             self.modifiedChanged.emit(modified)
 
     # ---------------------------------------------------------- results
-    def request_recompute(self):
-        self._need_solve = True
-        self._timer.start()
-
     def flush(self):
         """Compute now anything pending (tests, benchmarks, export)."""
         if self._timer.isActive():

@@ -60,7 +60,7 @@ from wetline.app.render.output import (
 )
 from wetline.app.render.scene import DiagramScene
 from wetline.app.render.style import INK, MUTED, NOT_OK_COLOUR, OK_COLOUR, RULE, point_font
-from wetline.core.force_scope import force_scale, force_scope
+from wetline.core.force_scope import force_scale, force_scope, resistance_quantity
 from wetline.core.numbers import format_number
 from wetline.core.report_tables import (
     cell_text,
@@ -285,11 +285,11 @@ class _Sheet:
         out.append(_kv_html(rows))
         res = case.resistance_map
         if res:
-            unit = du.label("force") if s.is_axisymmetric else du.label("force_per_length")
+            q = resistance_quantity(s)
+            unit = du.label(q)
             per = "totals" if s.is_axisymmetric else "per unit width"
             header = ("part", f"self-weight G [{unit}]", f"holding-down R [{unit}]",
                       f"G + R [{unit}]")
-            q = "force" if s.is_axisymmetric else "force_per_length"
             rows = [(name, du.to_display(r.self_weight, q), du.to_display(r.holding_down, q),
                      du.to_display(r.total, q)) for name, r in sorted(res.items())]
             out.append(f'<p class="note">Resistance holding each part down ({per}).</p>')

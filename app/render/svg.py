@@ -4,7 +4,8 @@ The same drawing as the PNG (:class:`wetline.app.render.scene.DiagramScene`), pa
 through :class:`PySide6.QtSvg.QSvgGenerator` instead of onto an image, so
 lines, fills and text stay vectors: the outline and the pressure diagrams
 become ``<polyline>``/``<path>`` elements, every label a ``<text>`` element.
-(pyqtgraph's own SVG exporter fails on Qt >= 6.11, see STACK-NOTES.)
+(pyqtgraph's own SVG exporter fails on Qt >= 6.11: Qt now closes paths with
+'Z', which it does not expect.)
 
 The SVG's user units are the scene's pixels (``viewBox="0 0 W H"``); its
 physical size is stated at 96 px per inch, the CSS pixel, so a browser shows

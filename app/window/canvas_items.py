@@ -2,8 +2,9 @@
 
 pyqtgraph curves and Qt path items in data coordinates (metres, z up),
 cosmetic pens that keep their pixel width at any zoom, and paths built from
-numpy arrays in one call (see STACK-NOTES: one path or ``connect='pairs'``
-curve for thousands of segments).
+numpy arrays in one call: one path or ``connect='pairs'`` curve holds
+thousands of segments (see DEVELOPERS.md, "The desktop program", for what
+that saves).
 """
 
 from __future__ import annotations

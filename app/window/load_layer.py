@@ -4,8 +4,8 @@ level, the pressure diagrams with their arrows, and each run's resultant;
 and the labels they ask for.
 
 What is drawn comes from :mod:`wetline.app.render.geometry`, the same
-functions the exported diagram draws from. Drawing is batched (see
-STACK-NOTES): one path for the liquid, one for all pressure diagrams, one
+functions the exported diagram draws from. Drawing is batched (DEVELOPERS.md, "The
+desktop program"): one path for the liquid, one for all pressure diagrams, one
 ``connect='pairs'`` curve for all pressure arrows and one per direction of
 the resultants.
 """

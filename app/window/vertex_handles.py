@@ -53,9 +53,6 @@ class VertexHandles(pg.ScatterPlotItem):
         else:
             self.dragMoved.emit(self._dragging, p.x(), p.y())
 
-    def cancel_drag(self):
-        self._dragging = None
-
     def set_positions(self, pos):
         """Show handles at ``pos`` ((N, 2) [m]). When only a few moved (a
         drag), they are moved in place: rebuilding a few thousand spots
