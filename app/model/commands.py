@@ -11,7 +11,17 @@ menu) are built in :mod:`wetline.app.model.editing`, and only there.
 
 from __future__ import annotations
 
+from collections.abc import Hashable
+from typing import TYPE_CHECKING
+
 from PySide6.QtGui import QUndoCommand
+
+from wetline.core.case import Case
+
+from .display import DisplayChoice
+
+if TYPE_CHECKING:
+    from .document import Document
 
 __all__ = ["CaseCommand", "UnitsCommand", "DiagramScaleCommand"]
 
@@ -33,17 +43,18 @@ class CaseCommand(QUndoCommand):
         Consecutive commands with the same key merge into one step.
     """
 
-    def __init__(self, document, case, text, merge_key=None):
+    def __init__(self, document: Document, case: Case, text: str,
+                 merge_key: Hashable | None = None) -> None:
         super().__init__(text)
         self._doc = document
-        self._old = document.case
-        self._new = case
+        self._old: Case = document.case
+        self._new: Case = case
         self._key = merge_key
 
-    def id(self):
+    def id(self) -> int:
         return -1 if self._key is None else _CASE_ID
 
-    def mergeWith(self, other):
+    def mergeWith(self, other: QUndoCommand) -> bool:
         if not isinstance(other, CaseCommand) or self._key is None or other._key != self._key:
             return False
         self._new = other._new
@@ -52,50 +63,50 @@ class CaseCommand(QUndoCommand):
             self.setObsolete(True)
         return True
 
-    def redo(self):
+    def redo(self) -> None:
         self._doc.set_case(self._new)
 
-    def undo(self):
+    def undo(self) -> None:
         self._doc.set_case(self._old)
 
 
 class UnitsCommand(QUndoCommand):
     """Switch the display units ("Units: US customary, in")."""
 
-    def __init__(self, document, choice):
+    def __init__(self, document: Document, choice: DisplayChoice) -> None:
         super().__init__(f"Units: {choice.title}")
         self._doc = document
         self._old = document.units
         self._new = choice
 
-    def redo(self):
+    def redo(self) -> None:
         self._doc.set_units(self._new)
 
-    def undo(self):
+    def undo(self) -> None:
         self._doc.set_units(self._old)
 
 
 class DiagramScaleCommand(QUndoCommand):
     """Change the pressure-diagram scale; consecutive changes merge."""
 
-    def __init__(self, document, scale, text):
+    def __init__(self, document: Document, scale: float | None, text: str) -> None:
         super().__init__(text)
         self._doc = document
         self._old = document.diagram_scale
         self._new = scale
 
-    def id(self):
+    def id(self) -> int:
         return _SCALE_ID
 
-    def mergeWith(self, other):
+    def mergeWith(self, other: QUndoCommand) -> bool:
         if not isinstance(other, DiagramScaleCommand):
             return False
         self._new = other._new
         self.setText(other.text())
         return True
 
-    def redo(self):
+    def redo(self) -> None:
         self._doc.set_diagram_scale(self._new)
 
-    def undo(self):
+    def undo(self) -> None:
         self._doc.set_diagram_scale(self._old)

@@ -11,15 +11,22 @@ or dragged is lost and the last valid case stays in force.
 
 from __future__ import annotations
 
-import numpy as np
+from collections.abc import Hashable, Sequence
 
-from wetline.app.model.commands import CaseCommand, DiagramScaleCommand, UnitsCommand
-from wetline.app.model.document import Draft, fill_range
-from wetline.app.model.gravity import format_gravity, gravity_label
+import numpy as np
+from numpy.typing import ArrayLike
+
+from wetline.core.case import ReportInfo
 from wetline.core.fill import FillError, capacity
+from wetline.core.liquids import Liquid
 from wetline.core.numbers import format_number
 from wetline.core.section import Section, SectionError
 from wetline.core.uplift import DEFAULT_REQUIRED_FACTOR, PartResistance
+
+from .commands import CaseCommand, DiagramScaleCommand, UnitsCommand
+from .display import DisplayChoice
+from .document import Document, Draft, fill_range
+from .gravity import format_gravity, gravity_label
 
 __all__ = [
     "apply_outline", "move_vertex", "insert_vertex", "delete_vertex", "set_edge_part",
@@ -33,7 +40,8 @@ RESISTANCE_FIELDS = {"self_weight": "self-weight", "holding_down": "holding-down
 """The fields of a part's resistance against uplift, and their words."""
 
 
-def apply_outline(doc, outline, parts, text, merge_key=None):
+def apply_outline(doc: Document, outline: ArrayLike, parts: Sequence[str], text: str,
+                  merge_key: Hashable | None = None) -> bool:
     """Make ``outline`` / ``parts`` the section, or the draft if invalid.
 
     Returns
@@ -56,7 +64,8 @@ def apply_outline(doc, outline, parts, text, merge_key=None):
     return True
 
 
-def move_vertex(doc, index, x, z, merge_key=None):
+def move_vertex(doc: Document, index: int, x: float, z: float,
+                merge_key: Hashable | None = None) -> bool:
     """Move vertex ``index`` to (x, z) [m]."""
     outline, parts = doc.working_outline()
     outline = np.array(outline)
@@ -64,7 +73,7 @@ def move_vertex(doc, index, x, z, merge_key=None):
     return apply_outline(doc, outline, parts, f"Move vertex {index}", merge_key)
 
 
-def insert_vertex(doc, edge, x, z):
+def insert_vertex(doc: Document, edge: int, x: float, z: float) -> bool:
     """Split ``edge`` at (x, z) [m]; both halves keep the edge's part."""
     outline, parts = doc.working_outline()
     outline = np.insert(np.array(outline), edge + 1, (x, z), axis=0)
@@ -72,7 +81,7 @@ def insert_vertex(doc, edge, x, z):
     return apply_outline(doc, outline, parts, f"Insert vertex on edge {edge}")
 
 
-def delete_vertex(doc, index):
+def delete_vertex(doc: Document, index: int) -> bool:
     """Remove vertex ``index``; the edge arriving there takes over."""
     outline, parts = doc.working_outline()
     n = len(outline)
@@ -84,7 +93,7 @@ def delete_vertex(doc, index):
     return apply_outline(doc, outline, parts, f"Delete vertex {index}")
 
 
-def set_edge_part(doc, edge, name):
+def set_edge_part(doc: Document, edge: int, name: str) -> bool:
     """Give ``edge`` the part ``name`` (reserved or any typed name)."""
     name = str(name).strip()
     outline, parts = doc.working_outline()
@@ -96,7 +105,8 @@ def set_edge_part(doc, edge, name):
     return apply_outline(doc, outline, parts, f"Set part of edge {edge} to {name}")
 
 
-def draw_outline(doc, points, part="wall", text="Draw new outline"):
+def draw_outline(doc: Document, points: ArrayLike, part: str = "wall",
+                 text: str = "Draw new outline") -> bool:
     """A new outline drawn vertex by vertex (every edge ``part``), keeping
     the section's kind, width and name; the draft if core refuses it.
 
@@ -118,7 +128,8 @@ def draw_outline(doc, points, part="wall", text="Draw new outline"):
     return True
 
 
-def replace_section(doc, section, level=None, text="New section"):
+def replace_section(doc: Document, section: Section, level: float | None = None,
+                    text: str = "New section") -> None:
     """A whole new section (template, drawn outline), optionally refilled."""
     case = doc.case.with_section(section)
     if level is not None:
@@ -126,7 +137,7 @@ def replace_section(doc, section, level=None, text="New section"):
     doc.undo_stack.push(CaseCommand(doc, case, text))
 
 
-def import_section(doc, section, text):
+def import_section(doc: Document, section: Section, text: str) -> None:
     """An outline read from a drawing or a coordinate list replaces the
     section as one undo step, keeping the liquid, the uplift inputs and the
     fill if the new section can take it (else filled to its top level)."""
@@ -138,7 +149,7 @@ def import_section(doc, section, text):
     doc.undo_stack.push(CaseCommand(doc, case, text))
 
 
-def set_kind(doc, kind):
+def set_kind(doc: Document, kind: str) -> None:
     """Switch plane / axisymmetric (may be refused: x < 0 ...)."""
     section = doc.section.replace(kind=kind)
     doc.set_draft(None)
@@ -146,18 +157,18 @@ def set_kind(doc, kind):
                                     f"Section: {kind}"))
 
 
-def set_width(doc, width_m):
+def set_width(doc: Document, width_m: float) -> None:
     section = doc.section.replace(width=float(width_m))
     doc.undo_stack.push(CaseCommand(doc, doc.case.with_section(section),
                                     f"Width {doc.units.fmt_length(width_m)}"))
 
 
-def rename(doc, name):
+def rename(doc: Document, name: str) -> None:
     section = doc.section.replace(name=str(name))
     doc.undo_stack.push(CaseCommand(doc, doc.case.with_section(section), f"Rename to {name}"))
 
 
-def _liquid_text(liquid):
+def _liquid_text(liquid: Liquid) -> str:
     if liquid.preset == "seawater":
         return (f"Liquid: seawater {format_number(liquid.temperature, 3)} C, "
                 f"{format_number(liquid.salinity, 3)} g/kg")
@@ -168,13 +179,13 @@ def _liquid_text(liquid):
     return f"Liquid: {liquid.name}, {format_number(liquid.density, 5)} kg/m3"
 
 
-def set_liquid(doc, liquid):
+def set_liquid(doc: Document, liquid: Liquid) -> None:
     if liquid == doc.case.liquid:
         return
     doc.undo_stack.push(CaseCommand(doc, doc.case.with_liquid(liquid), _liquid_text(liquid)))
 
 
-def set_gravity(doc, gravity):
+def set_gravity(doc: Document, gravity: float) -> None:
     """Set gravity [m/s2]; the undo text gives it in the display system's
     unit ("Gravity 32.174 ft/s2")."""
     gravity = float(gravity)
@@ -187,7 +198,7 @@ def set_gravity(doc, gravity):
                                     f"Gravity {format_gravity(u, gravity)} {gravity_label(u)}"))
 
 
-def fill_to_level(doc, level, merge_key=None):
+def fill_to_level(doc: Document, level: float, merge_key: Hashable | None = None) -> None:
     """Fill to ``level`` [m]; a slider drag passes one key for all its steps."""
     level = float(level)
     if not np.isfinite(level):
@@ -198,7 +209,7 @@ def fill_to_level(doc, level, merge_key=None):
                                     f"Fill to {doc.units.fmt_length(level)}", merge_key))
 
 
-def fill_to_volume(doc, volume, merge_key=None):
+def fill_to_volume(doc: Document, volume: float, merge_key: Hashable | None = None) -> None:
     """Fill with ``volume`` [m3]; FillError if the section cannot hold it."""
     volume = float(volume)
     if not np.isfinite(volume) or volume < 0:
@@ -213,7 +224,8 @@ def fill_to_volume(doc, volume, merge_key=None):
                                     f"Fill with {doc.units.fmt_volume(volume)}", merge_key))
 
 
-def fill_to_percent(doc, percent, merge_key=None):
+def fill_to_percent(doc: Document, percent: float,
+                    merge_key: Hashable | None = None) -> None:
     """Fill to ``percent`` of the capacity (0 to 100)."""
     percent = float(percent)
     if not (np.isfinite(percent) and 0 <= percent <= 100):
@@ -221,11 +233,11 @@ def fill_to_percent(doc, percent, merge_key=None):
     fill_to_volume(doc, capacity(doc.section) * percent / 100.0, merge_key)
 
 
-def _title(part):
+def _title(part: str) -> str:
     return part[:1].upper() + part[1:]
 
 
-def set_resistance(doc, part, field, value):
+def set_resistance(doc: Document, part: str, field: str, value: float) -> None:
     """Set one part's self-weight or holding-down resistance ("Lid
     self-weight 2.5 kN/m"): ``field`` one of :data:`RESISTANCE_FIELDS`,
     ``value`` [N/m of width for plane sections, N for axisymmetric] >= 0
@@ -247,7 +259,7 @@ def set_resistance(doc, part, field, value):
                                     f"{_title(part)} {RESISTANCE_FIELDS[field]} {shown} {label}"))
 
 
-def set_required_factor(doc, factor):
+def set_required_factor(doc: Document, factor: float) -> None:
     """Set the required factor against uplift ("Required uplift factor
     1.25"); CaseError if it is not positive."""
     factor = float(factor)
@@ -263,7 +275,7 @@ _REPORT_WORDS = (("project", "project"), ("job_reference", "job reference"),
                  ("prepared_by", "prepared by"))
 
 
-def set_report_info(doc, report):
+def set_report_info(doc: Document, report: ReportInfo) -> bool:
     """Set the calculation sheet's header fields ("Sheet header: project,
     job reference"); nothing if they are unchanged.
 
@@ -281,15 +293,15 @@ def set_report_info(doc, report):
     return True
 
 
-def set_units(doc, choice):
+def set_units(doc: Document, choice: DisplayChoice) -> None:
     if choice != doc.units:
         doc.undo_stack.push(UnitsCommand(doc, choice))
 
 
-def set_diagram_scale(doc, scale, text="Diagram scale"):
+def set_diagram_scale(doc: Document, scale: float | None, text: str = "Diagram scale") -> None:
     if scale != doc.diagram_scale:
         doc.undo_stack.push(DiagramScaleCommand(doc, scale, text))
 
 
-def discard_draft(doc):
+def discard_draft(doc: Document) -> None:
     doc.set_draft(None)
