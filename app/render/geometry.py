@@ -105,14 +105,16 @@ def auto_scale(section, max_pressure, fraction=0.3):
     return fraction * size / max_pressure
 
 
-def diagram_polygons(w, scale):
+def diagram_polygons(w, scale, closed=True):
     """The diagrams as few polygons: one per chain of consecutive wetted
-    edges (wall points forward, then the diagram's outer edge back), so a
-    wall of ten thousand edges fills as one polygon (a path of thousands of
-    small overlapping polygons takes hundreds of ms to fill).
+    edges (the diagram's outer edge forward from the wall, then back along
+    the wall), so a wall of ten thousand edges fills as one polygon (a path
+    of thousands of small overlapping polygons takes hundreds of ms to fill).
+    ``closed=False``: only the outer edges, from the wall out and back to it
+    (to outline the diagrams without stroking the walls again).
 
-    Returns x, z and ``connect`` (False after each polygon's last point),
-    for :func:`pyqtgraph.arrayToQPath`.
+    Returns x, z and ``connect`` (False after each polygon's or line's last
+    point), for :func:`pyqtgraph.arrayToQPath`.
     """
     m = w.index.size
     if m == 0:
@@ -138,10 +140,10 @@ def diagram_polygons(w, scale):
         oz = fz[k0:k1].ravel()
         keep = ~np.isnan(ox)
         keep[-1] = False  # the chain's end is added with the wall below
-        x = np.concatenate([w.ax[k0:k0 + 1], ox[keep], w.bx[k1 - 1:k1], w.bx[k0:k1][::-1],
-                            w.ax[k0:k0 + 1]])
-        z = np.concatenate([w.az[k0:k0 + 1], oz[keep], w.bz[k1 - 1:k1], w.bz[k0:k1][::-1],
-                            w.az[k0:k0 + 1]])
+        back_x = [w.bx[k0:k1][::-1], w.ax[k0:k0 + 1]] if closed else []
+        back_z = [w.bz[k0:k1][::-1], w.az[k0:k0 + 1]] if closed else []
+        x = np.concatenate([w.ax[k0:k0 + 1], ox[keep], w.bx[k1 - 1:k1], *back_x])
+        z = np.concatenate([w.az[k0:k0 + 1], oz[keep], w.bz[k1 - 1:k1], *back_z])
         c = np.ones(x.size, dtype=bool)
         c[-1] = False
         xs.append(x)

@@ -44,17 +44,9 @@ def draw_diagrams(p, view):
     k = view.pressure_scale
     if w.index.size == 0 or k <= 0:
         return
-    x, z, connect = diagram_polygons(w, k)
-    path = QPainterPath()
-    path.setFillRule(Qt.FillRule.WindingFill)
-    ends = np.flatnonzero(~connect) + 1
-    start = 0
-    for end in ends.tolist():
-        path.addPolygon(QPolygonF([view.to_px(a, b) for a, b in
-                                   zip(x[start:end].tolist(), z[start:end].tolist(),
-                                       strict=True)]))
-        path.closeSubpath()
-        start = end
+    fill = _path(view, *diagram_polygons(w, k), close=True)
+    fill.setFillRule(Qt.FillRule.WindingFill)
+    edge = _path(view, *diagram_polygons(w, k, closed=False), close=False)
     lw = view.lw
     step = max(3.0 * lw, 0.55 * view.scene.base_font)
     length = float(np.sqrt((w.bx - w.ax) ** 2 + (w.bz - w.az) ** 2).sum()) * view.px_per_m
@@ -69,7 +61,7 @@ def draw_diagrams(p, view):
     p.save()
     p.setPen(Qt.PenStyle.NoPen)
     p.setBrush(QColor(*DIAGRAM_FILL))
-    p.drawPath(path)
+    p.drawPath(fill)
     hc = QColor(DIAGRAM_LINE)
     hc.setAlpha(150)
     p.setPen(QPen(hc, 0.55 * lw))
@@ -78,8 +70,26 @@ def draw_diagrams(p, view):
     pen.setJoinStyle(Qt.PenJoinStyle.RoundJoin)
     p.setPen(pen)
     p.setBrush(Qt.BrushStyle.NoBrush)
-    p.drawPath(path)
+    p.drawPath(edge)
     p.restore()
+
+
+def _path(view, x, z, connect, close):
+    """A page path [px] of the pieces of x, z [m] that ``connect`` separates."""
+    path = QPainterPath()
+    ends = np.flatnonzero(~connect) + 1
+    px = view.px_per_m
+    xs = (view.to_px(0.0, 0.0).x() + px * x).tolist()
+    zs = (view.to_px(0.0, 0.0).y() - px * z).tolist()
+    start = 0
+    for end in ends.tolist():
+        poly = QPolygonF([QPointF(a, b) for a, b in zip(xs[start:end], zs[start:end],
+                                                       strict=True)])
+        path.addPolygon(poly)
+        if close:
+            path.closeSubpath()
+        start = end
+    return path
 
 
 def _room_behind(view, head, direction):

@@ -102,12 +102,14 @@ def draw_outline(p, view):
     pts = s.outline
     n = s.n_edges
     on_axis = axis_edges(s)
-    p.save()
+    lines = {}
     for i in range(n):
-        if on_axis[i]:
-            continue
-        j = (i + 1) % n
-        part = s.parts[i]
+        if not on_axis[i]:
+            j = (i + 1) % n
+            lines.setdefault(s.parts[i], []).append(
+                QLineF(view.to_px(pts[i, 0], pts[i, 1]), view.to_px(pts[j, 0], pts[j, 1])))
+    p.save()
+    for part, group in lines.items():  # one pen per part
         if part == OPEN:
             pen = QPen(QColor(OPEN_EDGE), 1.2 * view.lw)
             pen.setStyle(Qt.PenStyle.DashLine)
@@ -115,7 +117,7 @@ def draw_outline(p, view):
             pen = QPen(QColor(colours[part]), 3.0 * view.lw)
             pen.setCapStyle(Qt.PenCapStyle.RoundCap)
         p.setPen(pen)
-        p.drawLine(QLineF(view.to_px(pts[i, 0], pts[i, 1]), view.to_px(pts[j, 0], pts[j, 1])))
+        p.drawLines(group)
     p.restore()
 
 
