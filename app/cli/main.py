@@ -392,7 +392,7 @@ def _cmd_import(args, out):
     else:
         if not math.isfinite(args.liquid_density) or args.liquid_density <= 0:
             raise CommandError(f"--liquid-density must be a positive number of kg/m3, "
-                               f"not {args.liquid_density:g}")
+                               f"not {format_number(args.liquid_density)}")
         liquid = custom_liquid(args.liquid_density)
     if args.level is None:
         level = section.top_level

@@ -165,7 +165,7 @@ class LiquidPanel(QGroupBox):
             for w in widgets:
                 w.blockSignals(False)
         self.summary.setText(f"{liquid.name}: {units.fmt_density(liquid.density)} "
-                             f"(SG {liquid.specific_gravity:.4f})\n{liquid.source}")
+                             f"(SG {format_number(liquid.specific_gravity, 5)})\n{liquid.source}")
         _show(self.error, "")
 
     def _on_kind_changed(self, kind):
