@@ -39,7 +39,7 @@ def is_noise(value, scale: float | None):
     (True, False, False)
     """
     if scale is None or not math.isfinite(scale):
-        return abs(value) < 0.0
+        return abs(value) < 0.0  # False, of the shape of value
     return abs(value) < NOISE * abs(scale)
 
 

@@ -85,7 +85,7 @@ class LoadLayer:
         section = solution.section
         size = max(float(np.ptp(section.outline[:, 0])), section.z_max - section.z_min, 1e-9)
         labels.clear(section.outline)
-        self._draw_liquid(solution, size, units, labels)
+        surface_labels = self._draw_liquid(solution, size, units)
         carries, runs = self._parts_of(section)
         w = wetted_edges(solution, carries)
         x, z, connect = diagram_polygons(w, scale)
@@ -95,7 +95,8 @@ class LoadLayer:
         tx, tz, px, pz = pressure_arrows(w, scale)
         self.arrows.setData(*arrow_strokes(tx, tz, px, pz, 0.02 * size))
         self._draw_resultants(solution, w, runs, size, scope, labels)
-        self._ask_surface_labels(solution, size, units, labels)
+        for ask in surface_labels:
+            labels.ask(*ask)
         self._ask_pressures(w, scale, section.n_edges, units, labels)
 
     def _parts_of(self, section):
@@ -110,9 +111,11 @@ class LoadLayer:
         carries = carrying_edges(section) if section.is_axisymmetric else self._carries
         return carries, self._runs
 
-    def _draw_liquid(self, solution, size, units, labels):
+    def _draw_liquid(self, solution, size, units):
         """The liquid below the free surface, the surface across the cavity
-        (across the whole width above a closed section's roof) and the spill level."""
+        (across the whole width above a closed section's roof) and the spill
+        level; returns the labels they ask for (asked after the resultants,
+        which come first)."""
         section = solution.section
         h = solution.level
         xmin, xmax = float(section.outline[:, 0].min()), float(section.outline[:, 0].max())
@@ -125,6 +128,7 @@ class LoadLayer:
             self.mirror_liquid.setVisible(axi)
         margin = 0.04 * size
         left_end = -xmax if axi else xmin
+        asks = []
         if h > section.z_min:
             spans = surface_spans(section, h)
             if not spans:  # level above a closed section's roof: a standpipe head
@@ -133,27 +137,17 @@ class LoadLayer:
                 spans += [(-b, -a) for a, b in spans]
             sx = np.array(spans, dtype=float).ravel()
             self.surface.setData(sx, np.full(sx.size, h), connect="pairs")
+            asks.append((float(sx.min()) - 0.5 * margin, h, f"free surface {units.fmt_length(h)}",
+                         SURFACE, (1, 0.5)))
         else:
             self.surface.setData([], [])
         spill = section.spill_level
         if spill is not None:
             self.spill.setData([left_end - 2 * margin, xmax + 2 * margin], [spill, spill])
+            asks.append((xmax + 2 * margin, spill, "spill level", MUTED, (0, 0.5)))
         else:
             self.spill.setData([], [])
-
-    def _ask_surface_labels(self, solution, size, units, labels):
-        section = solution.section
-        h = solution.level
-        margin = 0.04 * size
-        xmin, xmax = float(section.outline[:, 0].min()), float(section.outline[:, 0].max())
-        left_end = -xmax if section.is_axisymmetric else xmin
-        if h > section.z_min:
-            sx = self.surface.getData()[0]
-            left = float(np.min(sx)) if sx is not None and len(sx) else left_end
-            labels.ask(left - 0.5 * margin, h, f"free surface {units.fmt_length(h)}", SURFACE,
-                       (1, 0.5))
-        if section.spill_level is not None:
-            labels.ask(xmax + 2 * margin, section.spill_level, "spill level", MUTED, (0, 0.5))
+        return asks
 
     def _draw_resultants(self, solution, w, runs, size, scope, labels):
         """One arrow per run of a part from the point where it acts, longer
