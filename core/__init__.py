@@ -16,13 +16,16 @@ Modules, one concern each:
 - :mod:`wetline.core.units`: the one pint registry and the display unit systems.
 - :mod:`wetline.core.case`: a section with its liquid, gravity and fill.
 - :mod:`wetline.core.section_file`: read and write ``*.section.json`` files.
-- :mod:`wetline.core.results`: the results record of ``wetline solve --json``.
+- :mod:`wetline.core.results`: the results record of ``wetline solve --json``, the caution.
 - :mod:`wetline.core.templates`: parametric sections (open tank, hopper ...).
 - :mod:`wetline.core.uplift`: the uplift check of lifted parts.
 - :mod:`wetline.core.report_tables`: result tables in display units (CLI, CSV, sheet).
+- :mod:`wetline.core.numbers`: the one number formatter and 1-2-5 steps.
+- :mod:`wetline.core.force_scope`: what force values cover and their display unit.
 - :mod:`wetline.core.dxf_io`: outlines from and to DXF drawings.
 - :mod:`wetline.core.coordinates`: coordinate lists pasted from a spreadsheet or CSV.
 - :mod:`wetline.core.limits`: the representable range of every input.
+- :mod:`wetline.core.atomic_write`: every file written whole or not at all.
 """
 
 STANDARD_GRAVITY = 9.80665

@@ -10,7 +10,7 @@ where the density comes from. Build one with:
   user gives.
 
 :func:`liquid_from_spec` and :func:`liquid_to_spec` read and write the
-``fluid`` object of a section file (``/work/shared/spec/section-format.md``,
+``fluid`` object of a section file (the shared spec's ``section-format.md``,
 version 1).
 
 References

@@ -2,8 +2,18 @@
 export, the calculation sheet and the desktop program.
 
 Each function returns a :class:`Table`: column headers that name their units
-and rows of plain values (float, str or None for "not defined"). Formatting
-to text is left to the caller; :func:`to_csv` writes full precision.
+and rows of plain values (float, str or None for "not defined"). Text for
+people comes from :func:`cell_text` (the one number formatter,
+:func:`wetline.core.numbers.format_number`); :func:`to_csv` writes full
+precision.
+
+Forces are shown as :func:`wetline.core.force_scope.force_scope` says: per
+run (kN/m, lbf/ft) for a plane section one unit of run wide, else for the
+section's width or over the full circumference (kN, lbf); the tables take
+the ``length_unit`` of the section's file for that rule. A force smaller
+than :data:`wetline.core.numbers.NOISE` of the case's largest force is
+round-off and is given as 0 (the JSON results record keeps the computed
+value).
 """
 
 from __future__ import annotations
@@ -16,14 +26,16 @@ from typing import TYPE_CHECKING
 
 import numpy as np
 
+from .force_scope import force_scale, force_scope
 from .level_table import level_table
+from .numbers import format_number, is_noise
 
 if TYPE_CHECKING:
     from .case import Case
     from .units import DisplayUnits
 
-__all__ = ["Table", "force_scope", "totals_table", "with_note", "parts_table", "edges_table",
-           "level_load_table", "uplift_table", "to_csv", "fmt"]
+__all__ = ["Table", "totals_table", "with_note", "parts_table", "edges_table",
+           "level_load_table", "uplift_table", "to_csv", "cell_text"]
 
 
 @dataclass(frozen=True)
@@ -35,47 +47,22 @@ class Table:
     rows: tuple
 
 
-def fmt(v, digits=5):
-    """A number for people: ``digits`` significant figures, no exponent for
-    ordinary magnitudes, trailing zeros dropped; ``-`` for None/NaN, text
-    passed through.
+def cell_text(v):
+    """A table cell as text for people: whole numbers (edge indices) as
+    they are, other numbers by :func:`wetline.core.numbers.format_number`,
+    ``-`` where a value is not defined, text as it is.
 
-    >>> fmt(44129.925), fmt(0.000123456), fmt(None), fmt(-0.0)
-    ('44130', '0.00012346', '-', '0')
+    >>> cell_text(3), cell_text(44129.925), cell_text(None), cell_text("floor")
+    ('3', '44130', '-', 'floor')
     """
-    if v is None:
-        return "-"
-    if isinstance(v, str):
-        return v
-    v = float(v)
-    if math.isnan(v):
-        return "-"
-    if math.isinf(v):
-        return "inf" if v > 0 else "-inf"
-    if v == 0:
-        return "0"
-    mag = math.floor(math.log10(abs(v)))
-    if -4 <= mag < 9:
-        decimals = max(digits - 1 - mag, 0)
-        text = f"{v:.{decimals}f}"
-        if "." in text:
-            text = text.rstrip("0").rstrip(".")
-        return "0" if text in ("-0", "") else text
-    return f"{v:.{digits - 1}e}"
+    if isinstance(v, (bool, int)):
+        return str(v)
+    return format_number(v)
 
 
-def force_scope(section, units):
-    """What a section's force values cover, in words for a sentence
-    ("Forces per m run."): the full circumference (axisymmetric), a metre or
-    foot run (plane, that wide), else the section's width in ``units``."""
-    if section.is_axisymmetric:
-        return "over the full circumference"
-    if abs(section.width - 1.0) <= 1e-9:
-        return "per m run"
-    if units.name == "us" and abs(section.width - 0.3048) <= 1e-9:
-        return "per ft run"
-    return (f"for a width of {fmt(units.to_display(section.width, 'length'))} "
-            f"{units.label('length')}")
+def with_note(value, note):
+    """:func:`cell_text` of ``value`` followed by ``(note)`` when there is one."""
+    return f"{cell_text(value)} ({note})" if note else cell_text(value)
 
 
 def _num(v):
@@ -85,24 +72,34 @@ def _num(v):
     return None if math.isnan(v) else v + 0.0
 
 
-def totals_table(solution, units):
+def _shown(values, divisor, scale):
+    """``values`` [SI] over ``divisor`` (display units), with round-off below
+    ``scale`` [SI] as 0."""
+    v = np.asarray(values, dtype=np.float64)
+    return np.where(is_noise(v, scale), 0.0, v / divisor)
+
+
+def totals_table(solution, units, length_unit="m"):
     """Level, volume, weight, floor force, support reaction, max pressure and
     the spill level (or the top of a closed section), each with a note for
     people: "held down" for a negative support reaction, "capped at the spill
     level" for a level that was capped."""
     u = units
     s = solution.section
-    F = u.label("force")
+    scope = force_scope(s, u, length_unit)
+    scale = force_scale(solution)
+    F = scope.label
     L = u.label("length")
     capped = solution.level != solution.requested_level
+    weight, floor, support = _shown([solution.fluid_weight, solution.floor_force,
+                                     solution.support_reaction], scope.divisor, scale)
     rows = [
         ("level", _num(u.to_display(solution.level, "length")), L,
          "capped at the spill level" if capped else ""),
         ("volume", _num(u.to_display(solution.volume, "volume")), u.label("volume"), ""),
-        ("fluid weight", _num(u.to_display(solution.fluid_weight, "force")), F, ""),
-        ("floor force", _num(u.to_display(solution.floor_force, "force")), F, ""),
-        ("support reaction", _num(u.to_display(solution.support_reaction, "force")), F,
-         "held down" if solution.support_reaction < 0 else ""),
+        ("fluid weight", _num(weight), F, ""),
+        ("floor force", _num(floor), F, ""),
+        ("support reaction", _num(support), F, "held down" if support < 0 else ""),
         ("max pressure", _num(u.to_display(solution.max_pressure, "pressure")),
          u.label("pressure"), ""),
     ]
@@ -113,30 +110,28 @@ def totals_table(solution, units):
     return Table("Totals", ("quantity", "value", "unit", "note"), tuple(rows))
 
 
-def with_note(value, note):
-    """``fmt(value)`` followed by ``(note)`` when there is one."""
-    return f"{fmt(value)} ({note})" if note else fmt(value)
-
-
-def parts_table(solution, units):
+def parts_table(solution, units, length_unit="m"):
     """One row per loaded part: fx, fz, down (negative: uplift)."""
-    u = units
-    F = u.label("force")
+    scope = force_scope(solution.section, units, length_unit)
+    scale = force_scale(solution)
+    F = scope.label
     rows = []
     for name, p in solution.parts.items():
-        rows.append((name, _num(None if p.fx is None else u.to_display(p.fx, "force")),
-                     _num(u.to_display(p.fz, "force")), _num(u.to_display(p.down, "force")),
-                     "uplift" if p.down < 0 else ""))
+        fz, down = _shown([p.fz, p.down], scope.divisor, scale)
+        fx = None if p.fx is None else _shown(p.fx, scope.divisor, scale)
+        rows.append((name, _num(fx), _num(fz), _num(down), "uplift" if down < 0 else ""))
     return Table("Parts", ("part", f"fx [{F}]", f"fz [{F}]", f"down [{F}]", "note"),
                  tuple(rows))
 
 
-def edges_table(solution, units):
+def edges_table(solution, units, length_unit="m"):
     """One row per edge, in the file's order: geometry, pressures, forces,
     centre of pressure (plane) or hoop forces (axisymmetric)."""
     u = units
     s = solution.section
-    L, P, F = u.label("length"), u.label("pressure"), u.label("force")
+    scope = force_scope(s, u, length_unit)
+    scale = force_scale(solution)
+    L, P, F = u.label("length"), u.label("pressure"), scope.label
     NL = u.label("force_per_length")
     axi = s.is_axisymmetric
     header = ["edge", "part", f"x start [{L}]", f"z start [{L}]", f"x end [{L}]",
@@ -151,14 +146,13 @@ def edges_table(solution, units):
     p0 = u.to_display(solution.p_start, "pressure")
     p1 = u.to_display(solution.p_end, "pressure")
     rows = []
+    fz = _shown(solution.fz, scope.divisor, scale)
     if axi:
-        fz = u.to_display(solution.fz, "force")
         h0 = u.to_display(solution.hoop_start, "force_per_length")
         h1 = u.to_display(solution.hoop_end, "force_per_length")
     else:
-        fx = u.to_display(solution.fx, "force")
-        fz = u.to_display(solution.fz, "force")
-        res = u.to_display(solution.resultant, "force")
+        fx = _shown(solution.fx, scope.divisor, scale)
+        res = _shown(solution.resultant, scope.divisor, scale)
         cp = u.to_display(solution.centre_of_pressure, "length")
     for i in range(n):
         j = (i + 1) % n
@@ -176,18 +170,25 @@ def level_load_table(case: Case, units: DisplayUnits, steps: int = 51) -> Table:
     """Totals at ``steps`` levels from empty to the top level."""
     u = units
     t = level_table(case.section, case.liquid.density, case.gravity, steps)
-    F = u.label("force")
+    scope = force_scope(case.section, u, case.length_unit)
     quantity = {"level": ("length", u.label("length")),
                 "volume": ("volume", u.label("volume")),
                 "max_pressure": ("pressure", u.label("pressure"))}
+    columns = list(t.columns())
+    forces = [arr for name, arr in columns if name not in quantity]
+    scale = max((float(np.nanmax(np.abs(a), initial=0.0)) for a in forces), default=0.0)
     header, cols = [], []
-    for name, arr in t.columns():
-        q, lab = quantity.get(name, ("force", F))
+    for name, arr in columns:
+        if name in quantity:
+            q, lab = quantity[name]
+            cols.append(u.to_display(arr, q))
+        else:
+            lab = scope.label
+            cols.append(_shown(arr, scope.divisor, scale))
         # Readable names for the fixed columns; part names exactly as written,
         # so that parts "a_b" and "a b" stay two columns.
         title = name if name.startswith("down:") else name.replace("_", " ")
         header.append(f"{title} [{lab}]")
-        cols.append(u.to_display(arr, q))
     rows = tuple(tuple(_num(c[k]) for c in cols) for k in range(t.levels.size))
     return Table("Loads against level", tuple(header), rows)
 
@@ -195,14 +196,15 @@ def level_load_table(case: Case, units: DisplayUnits, steps: int = 51) -> Table:
 def uplift_table(case, units, solution=None):
     """The uplift check of every part with a resistance entered."""
     u = units
-    F = u.label("force")
+    scope = force_scope(case.section, u, case.length_unit)
+    F = scope.label
     L = u.label("length")
     rows = []
     for r in case.uplift(solution):
-        rows.append((r.part, _num(u.to_display(r.resistance, "force")),
-                     _num(u.to_display(r.uplift, "force")), _num(r.factor),
+        rows.append((r.part, _num(scope.to_display(r.resistance)),
+                     _num(scope.to_display(r.uplift)), _num(r.factor),
                      _num(u.to_display(r.worst_level, "length")),
-                     _num(u.to_display(r.worst_uplift, "force")), _num(r.worst_factor),
+                     _num(scope.to_display(r.worst_uplift)), _num(r.worst_factor),
                      _num(r.required_factor), r.verdict))
     return Table("Uplift check", ("part", f"resistance [{F}]", f"uplift now [{F}]",
                                   "factor now", f"worst level [{L}]", f"worst uplift [{F}]",

@@ -25,7 +25,7 @@ if TYPE_CHECKING:  # pragma: no cover - types only
     from .case import Case
     from .hydrostatics import Solution
 
-__all__ = ["ASSUMPTIONS", "CAUTIONS", "results_record"]
+__all__ = ["ASSUMPTIONS", "CAUTION", "results_record"]
 
 ASSUMPTIONS = (
     "hydrostatic, one liquid, pockets vented",
@@ -33,10 +33,12 @@ ASSUMPTIONS = (
     "straight edges; curved walls are represented by their polygon",
 )
 
-CAUTIONS = (
+CAUTION = (
     "Hydrostatic loads only: no sloshing, seismic, wind, surge, thermal or "
     "structural capacity checks. Verify against local codes and licensed practice."
 )
+"""The one caution of every output: the record's ``cautions``, the readable
+table, the window, the diagram and the calculation sheet."""
 
 
 def _num(v: float | None) -> float | None:
@@ -115,5 +117,5 @@ def results_record(case: Case, solution: Solution | None = None) -> dict[str, An
         "edges": edges,
         "warnings": list(sol.warnings),
         "assumptions": list(ASSUMPTIONS),
-        "cautions": CAUTIONS,
+        "cautions": CAUTION,
     }

@@ -63,7 +63,6 @@ __all__ = [
 FORMAT = "wetline-section"
 VERSION = 2
 """The newest version this program reads and writes."""
-SUFFIX = ".section.json"
 
 _TOP_KEYS = {"format", "version", "name", "length_unit", "geometry", "outline",
              "parts", "fluid", "gravity", "fill"}

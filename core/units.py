@@ -42,6 +42,8 @@ from typing import TYPE_CHECKING, Any, overload
 import numpy as np
 import numpy.typing as npt
 
+from .numbers import DEFAULT_DIGITS, format_number
+
 if TYPE_CHECKING:  # pragma: no cover - types only
     import pint
 
@@ -357,6 +359,16 @@ class DisplayUnits:
         (:func:`to_si_exactly`), so a typed 2300 mm is exactly 2.3 m.
         """
         return to_si_exactly(value, self.unit(quantity).factor)
+
+    def text(self, value_si, quantity: str, digits: int = DEFAULT_DIGITS) -> str:
+        """`value_si` in this system's unit of `quantity` with its label, for
+        people (:func:`wetline.core.numbers.format_number`).
+
+        >>> SI.text(24516.6, "pressure")
+        '24.52 kPa'
+        """
+        shown = format_number(self.to_display(value_si, quantity), digits)
+        return f"{shown} {self.label(quantity)}"
 
     def with_length(self, unit: str) -> DisplayUnits:
         """A copy showing lengths in `unit` (see :func:`length_display`)."""

@@ -58,6 +58,31 @@ def template_case():
     return make_template_case
 
 
+def make_run_case(run="m"):
+    """A 2 m wide open tank of water (1000 kg/m3) filled to 1.5 m, one unit
+    of run wide: 1 m in a file in metres (``run="m"``) or 1 ft in a file in
+    feet (``run="ft"``). Its loads per metre run, by hand (Cengel & Cimbala,
+    Fluid Mechanics, sec. 3-4: a vertical wall carries gamma h^2 / 2, a
+    floor gamma h times its length): floor 29419.95 N/m, each wall
+    11032.48 N/m; in US units (NIST SP 811: 1 lbf/ft = 14.5939029372 N/m)
+    2016 lbf/ft and 756.0 lbf/ft."""
+    from wetline.core.case import Case
+    from wetline.core.liquids import custom_liquid
+    from wetline.core.section import Section
+
+    width = {"m": 1.0, "ft": 0.3048}[run]
+    section = Section.build([[0, 0], [2, 0], [2, 3], [0, 3]],
+                            parts=["floor", "wall", "open", "wall"], width=width,
+                            name=f"Tank one {run} wide")
+    return Case(section=section, liquid=custom_liquid(1000.0), fill_level=1.5, length_unit=run)
+
+
+@pytest.fixture(scope="session")
+def run_case():
+    """Factory: ``run_case(run="m")``, see :func:`make_run_case`."""
+    return make_run_case
+
+
 HARD_LIMIT_S = 420
 """A test still running after this long ends the run with every thread's stack.
 

@@ -1,1 +1,1 @@
-"""The command line: ``wetline solve|table|cases|export|report|import``."""
+"""The command line: ``wetline solve|table|export|report|import`` (:mod:`wetline.app.cli.main`)."""

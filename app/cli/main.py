@@ -30,7 +30,7 @@ import re
 import sys
 import warnings
 
-from wetline.core.report_tables import fmt
+from wetline.core.numbers import format_number
 
 __all__ = ["main"]
 
@@ -274,52 +274,56 @@ def _table(rows, header, align=None):
 # ----------------------------------------------------------------- solve
 def _render(table, align=None):
     """Text lines of a report table, numbers formatted for people."""
-    rows = [[fmt(v) if not isinstance(v, int) else str(v) for v in r] for r in table.rows]
+    from wetline.core.report_tables import cell_text
+
+    rows = [[cell_text(v) for v in r] for r in table.rows]
     return [table.title] + ["  " + line for line in _table(rows, list(table.header), align)]
 
 
 def solve_text(case, units_name="si"):
     """The readable table of ``wetline solve``."""
+    from wetline.core.force_scope import force_scope
     from wetline.core.report_tables import (
         edges_table,
-        force_scope,
         parts_table,
         totals_table,
         uplift_table,
         with_note,
     )
-    from wetline.core.results import CAUTIONS
+    from wetline.core.results import CAUTION
     from wetline.core.units import display_units
     from wetline.core.uplift import UPLIFT_CAUTION
 
     u = display_units(units_name)
     sol = case.solve()
     sec = sol.section
-    flabel, fnote = u.label("force"), force_scope(sec, u)
+    lu = case.length_unit
+    scope = force_scope(sec, u, lu)
     liquid = case.liquid
+    # Inputs are echoed with the digits that identify them.
     lines = [f"{sec.name or 'Section'}",
-             f"  {sec.kind} section, {sec.n_edges} edges; forces in {flabel} {fnote}",
-             f"  liquid: {liquid.name}, {fmt(u.to_display(liquid.density, 'density'))} "
-             f"{u.label('density')} ({liquid.source})",
-             f"  gravity: {fmt(case.gravity, 7)} m/s2", ""]
+             f"  {sec.kind} section, {sec.n_edges} edges; forces in {scope.label} {scope.words}",
+             f"  liquid: {liquid.name}, {u.text(liquid.density, 'density', 5)} "
+             f"({liquid.source})",
+             f"  gravity: {format_number(case.gravity, 7)} m/s2", ""]
     rows = [[name, with_note(value, note), unit]
-            for name, value, unit, note in totals_table(sol, u).rows]
+            for name, value, unit, note in totals_table(sol, u, lu).rows]
     lines += ["Totals"] + ["  " + r for r in _table(rows, ["", "value", "unit"],
                                                      ["<", ">", "<"])]
     lines.append("")
-    lines += _render(parts_table(sol, u))
+    lines += _render(parts_table(sol, u, lu))
     lines.append("")
-    lines += _render(edges_table(sol, u), [">", "<"] + [">"] * 14)
+    lines += _render(edges_table(sol, u, lu), [">", "<"] + [">"] * 14)
     lines.append("")
     uplift = uplift_table(case, u, sol)
     if uplift.rows:
         lines += _render(uplift)
-        lines.append(f"  required factor {fmt(case.required_uplift_factor, 4)}; "
+        lines.append(f"  required factor {format_number(case.required_uplift_factor)}; "
                      f"{UPLIFT_CAUTION}")
         lines.append("")
     if sol.warnings:
         lines += ["Warnings"] + [f"  - {w}" for w in sol.warnings] + [""]
-    lines.append(f"Caution: {CAUTIONS}")
+    lines.append(f"Caution: {CAUTION}")
     return "\n".join(lines) + "\n"
 
 
@@ -336,7 +340,8 @@ def _cmd_solve(args, out):
         from wetline.core.report_tables import edges_table, to_csv
         from wetline.core.units import display_units
 
-        out.write(to_csv(edges_table(case.solve(), display_units(args.units))))
+        out.write(to_csv(edges_table(case.solve(), display_units(args.units),
+                                     case.length_unit)))
     else:
         out.write(solve_text(case, args.units))
     return 0
@@ -344,7 +349,7 @@ def _cmd_solve(args, out):
 
 # ----------------------------------------------------------------- table
 def _cmd_table(args, out):
-    from wetline.core.report_tables import level_load_table, to_csv
+    from wetline.core.report_tables import cell_text, level_load_table, to_csv
     from wetline.core.units import display_units
 
     if args.steps is None:
@@ -361,8 +366,8 @@ def _cmd_table(args, out):
         out.write(to_csv(table))
     else:
         out.write(f"{case.section.name or 'Section'}: loads against level "
-                  f"({case.liquid.name}, {fmt(case.liquid.density)} kg/m3)\n")
-        rows = [[fmt(v) for v in r] for r in table.rows]
+                  f"({case.liquid.name}, {format_number(case.liquid.density, 5)} kg/m3)\n")
+        rows = [[cell_text(v) for v in r] for r in table.rows]
         for line in _table(rows, list(table.header), [">"] * len(table.header)):
             out.write(line + "\n")
     return 0
@@ -383,7 +388,7 @@ def _cmd_export(args, out):
         write_outline(case.section, args.dxf, unit=case.length_unit)
         out.write(f"wrote {args.dxf}\n")
     if args.png is not None:
-        from wetline.app.render.scene import export_png
+        from wetline.app.render.png import export_png
 
         kwargs = {} if size is None else {"size": size}
         export_png(case, args.png, units=args.units, **kwargs)

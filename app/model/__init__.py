@@ -1,2 +1,6 @@
-"""The document model the views observe: the document, its undo commands, the edits
-that build them, display-unit choices and number parsing and formatting. No widgets."""
+"""The document model the views observe, no widgets:
+:mod:`~wetline.app.model.document` (the one open case and its results),
+:mod:`~wetline.app.model.editing` (every user edit, built as an undo step),
+:mod:`~wetline.app.model.commands` (the undo commands),
+:mod:`~wetline.app.model.display` (the display unit choice) and
+:mod:`~wetline.app.model.gravity` (gravity in the display system's unit)."""

@@ -1,46 +1,33 @@
-"""How results are shown: the display unit choice and number formatting.
+"""How results are shown: the display unit choice of the window.
 
-Values inside Wetline are SI floats; this module converts and formats them
-for labels, tables and the status bar only.
+Values inside Wetline are SI floats; this module converts them for labels,
+tables and the status bar only, and writes them with the one number
+formatter (:func:`wetline.core.numbers.format_number`).
 
-Forces of a plane section are the loads on its full ``width``. When the
-width is exactly 1 m (the section file's "results per metre" convention) the
-values are labelled as force per length (kN/m, lbf/ft), converted as
-force / width; otherwise they are labelled as forces (kN, lbf) for the width.
-Axisymmetric forces are for the full revolution (kN, lbf).
+Forces follow the one rule of :mod:`wetline.core.force_scope`: a plane
+section exactly one unit of run wide (1 m, or 1 ft in a file in ft) shows
+forces per run (kN/m, lbf/ft), any other width the force for that width and
+an axisymmetric section the full revolution (kN, lbf).
+:meth:`DisplayChoice.force_scope` gives that scope for a section.
 """
 
 from __future__ import annotations
 
-import math
 from dataclasses import dataclass
 
 import numpy as np
 
-from wetline.core.report_tables import force_scope
-from wetline.core.units import SI_LENGTH_UNITS, US_LENGTH_UNITS, display_units
+from wetline.core.force_scope import ForceScope, force_scope, resistance_quantity
+from wetline.core.section import Section
+from wetline.core.units import SI_LENGTH_UNITS, US_LENGTH_UNITS, DisplayUnits, display_units
 
-__all__ = ["DisplayChoice", "format_number", "LENGTH_UNITS_OF"]
+__all__ = ["DisplayChoice", "LENGTH_UNITS_OF"]
 
 LENGTH_UNITS_OF = {"si": SI_LENGTH_UNITS, "us": US_LENGTH_UNITS}
 """Display length units offered for each unit system."""
 
-
-def format_number(value, digits=4):
-    """``value`` with ``digits`` significant digits, plain notation when
-    reasonable (``12.35``, ``-0.004120``, ``1.235e+07``); "-" for NaN/None."""
-    if value is None:
-        return "-"
-    v = float(value)
-    if not math.isfinite(v):
-        return "-"
-    if v == 0:
-        return "0"
-    a = abs(v)
-    if a >= 1e7 or a < 1e-4:
-        return f"{v:.{digits - 1}e}"
-    decimals = max(0, digits - 1 - int(math.floor(math.log10(a))))
-    return f"{v:.{decimals}f}"
+Value = float | np.ndarray
+"""A float or a numpy array of them."""
 
 
 @dataclass(frozen=True)
@@ -58,91 +45,73 @@ class DisplayChoice:
     system: str = "si"
     length_unit: str = "m"
 
-    def __post_init__(self):
+    def __post_init__(self) -> None:
         if self.system not in LENGTH_UNITS_OF:
             raise ValueError(f"unit system must be 'si' or 'us', not {self.system!r}")
         if self.length_unit not in LENGTH_UNITS_OF[self.system]:
             raise ValueError(f"{self.length_unit!r} is not a length unit of {self.system}")
 
-    @classmethod
-    def for_system(cls, system):
-        """The system with its usual length unit (m or ft)."""
-        return cls(system, "m" if system == "si" else "ft")
-
     @property
-    def units(self):
+    def units(self) -> DisplayUnits:
         """The :class:`wetline.core.units.DisplayUnits` with this length unit."""
         return _units(self.system, self.length_unit)
 
     @property
-    def title(self):
+    def title(self) -> str:
         return f"{self.units.title}, {self.length_unit}"
 
     # --------------------------------------------------------- conversions
-    def length(self, metres):
+    def length(self, metres: Value) -> Value:
         return self.units.to_display(metres, "length")
 
-    def length_si(self, value):
+    def length_si(self, value: Value) -> Value:
         return self.units.from_display(value, "length")
 
-    def pressure(self, pa):
+    def pressure(self, pa: Value) -> Value:
         return self.units.to_display(pa, "pressure")
 
-    def volume(self, m3):
+    def volume(self, m3: Value) -> Value:
         return self.units.to_display(m3, "volume")
 
-    def volume_si(self, value):
+    def volume_si(self, value: Value) -> Value:
         return self.units.from_display(value, "volume")
 
-    def density(self, kg_m3):
+    def density(self, kg_m3: Value) -> Value:
         return self.units.to_display(kg_m3, "density")
 
-    def density_si(self, value):
+    def density_si(self, value: Value) -> Value:
         return self.units.from_display(value, "density")
 
-    # ------------------------------------------------------------- forces
-    @staticmethod
-    def per_length(section):
-        """True if the forces of ``section`` are shown per length (a plane
-        section exactly 1 m wide)."""
-        return section.kind == "plane" and section.width == 1.0
+    def force_scope(self, section: Section, length_unit: str = "m") -> ForceScope:
+        """How the forces of ``section`` (from a file in ``length_unit``) are
+        shown in this system (:func:`wetline.core.force_scope.force_scope`)."""
+        return force_scope(section, self.units, length_unit)
 
-    def force_label(self, section):
-        q = "force_per_length" if self.per_length(section) else "force"
-        return self.units.label(q)
-
-    def force(self, section, newtons):
-        """A force [N] of ``section`` in display units (see module notes)."""
-        if self.per_length(section):
-            return self.units.to_display(np.asarray(newtons) / section.width,
-                                         "force_per_length")
-        return self.units.to_display(newtons, "force")
-
-    def force_scope(self, section):
-        """Plain words saying what the force values cover."""
-        return force_scope(section, self.units)
+    def resistance_unit(self, section: Section) -> tuple[str, str]:
+        """(quantity, label) of a part's self-weight and holding-down
+        resistance: per metre of width for plane sections ("kN/m",
+        "lbf/ft"), totals for axisymmetric ones ("kN", "lbf")."""
+        q = resistance_quantity(section)
+        return q, self.units.label(q)
 
     # -------------------------------------------------------- formatting
-    def fmt_length(self, metres):
-        return f"{format_number(self.length(metres))} {self.length_unit}"
+    def fmt_length(self, metres: float) -> str:
+        return self.units.text(metres, "length")
 
-    def fmt_pressure(self, pa):
-        return f"{format_number(self.pressure(pa))} {self.units.label('pressure')}"
+    def fmt_pressure(self, pa: float) -> str:
+        return self.units.text(pa, "pressure")
 
-    def fmt_volume(self, m3):
-        return f"{format_number(self.volume(m3))} {self.units.label('volume')}"
+    def fmt_volume(self, m3: float) -> str:
+        return self.units.text(m3, "volume")
 
-    def fmt_density(self, kg_m3):
-        return f"{format_number(self.density(kg_m3))} {self.units.label('density')}"
-
-    def fmt_force(self, section, newtons):
-        return f"{format_number(self.force(section, newtons))} {self.force_label(section)}"
+    def fmt_density(self, kg_m3: float) -> str:
+        return self.units.text(kg_m3, "density")
 
 
-_CACHE = {}
+_CACHE: dict[tuple[str, str], DisplayUnits] = {}
 
 
-def _units(system, length_unit):
+def _units(system: str, length_unit: str) -> DisplayUnits:
     key = (system, length_unit)
     u = _CACHE.get(key)
     if u is None:

@@ -27,17 +27,23 @@ The drag's one undo command is pushed on release (:mod:`wetline.app.model.editin
 
 from __future__ import annotations
 
+import os
+from collections.abc import Sequence
 from dataclasses import dataclass
 from pathlib import Path
 
 import numpy as np
+from numpy.typing import ArrayLike
 from PySide6.QtCore import QObject, QTimer, Signal
 from PySide6.QtGui import QUndoStack
 
-from wetline.app.model.display import DisplayChoice
 from wetline.core.case import Case
-from wetline.core.level_table import level_table
-from wetline.core.section import SectionError
+from wetline.core.force_scope import ForceScope, force_scale
+from wetline.core.hydrostatics import Solution
+from wetline.core.level_table import LevelTable, level_table
+from wetline.core.section import Section, SectionError
+
+from .display import DisplayChoice
 
 __all__ = ["Document", "Draft", "Preview", "fill_range", "preview_steps", "UNDO_LIMIT"]
 
@@ -68,7 +74,7 @@ class Draft:
     """
 
     outline: np.ndarray
-    parts: tuple
+    parts: tuple[str, ...]
     error: SectionError
 
 
@@ -89,30 +95,31 @@ class Preview:
     """
 
     outline: np.ndarray
-    parts: tuple
+    parts: tuple[str, ...]
     case: Case | None = None
     error: SectionError | None = None
 
     @property
-    def checked(self):
+    def checked(self) -> bool:
         """True once the recompute step has built (or refused) the section."""
         return self.case is not None or self.error is not None
 
 
-def preview_steps(n_edges):
+def preview_steps(n_edges: int) -> int:
     """Levels of the chart's table during a drag of an outline with
     ``n_edges`` edges: all :data:`CHART_STEPS` for small sections, fewer
     (at least 21) for large ones."""
     return int(min(CHART_STEPS, max(21, PREVIEW_TABLE_ELEMENTS // max(n_edges, 1))))
 
 
-def fill_range(section):
+def fill_range(section: Section) -> tuple[float, float]:
     """Levels the fill slider spans [m]: the lowest point to the spill level
     (open sections), or to the roof plus a head as high as the section
     (closed sections accept a head above the roof)."""
     lo = section.z_min
-    if section.is_open:
-        return lo, section.spill_level
+    spill = section.spill_level
+    if spill is not None:
+        return lo, spill
     return lo, section.z_max + (section.z_max - section.z_min)
 
 
@@ -141,26 +148,31 @@ class Document(QObject):
     reportChanged = Signal()
     """The calculation sheet header fields changed."""
 
-    def __init__(self, case, path=None, parent=None, saved=True):
+    def __init__(self, case: Case, path: str | os.PathLike[str] | None = None,
+                 parent: QObject | None = None, saved: bool = True) -> None:
         super().__init__(parent)
         if not isinstance(case, Case):
             raise TypeError("a Document holds a core.case.Case")
         self._case = case
-        self._saved_case = case if saved else None
-        self._path = None if path is None else str(path)
+        self._saved_case: Case | None = case if saved else None
+        self._path: str | None = None if path is None else str(path)
         self._units = DisplayChoice()
-        self._diagram_scale = None
-        self._draft = None
-        self._preview = None
+        self._diagram_scale: float | None = None
+        self._draft: Draft | None = None
+        self._preview: Preview | None = None
         self._preview_marked = False
         self._results_of_preview = False
-        self._selected_edge = None
-        self._selected_vertex = None
+        self._selected_edge: int | None = None
+        self._selected_vertex: int | None = None
         self._modified = not saved
-        self.solution = None
+        self.solution: Solution | None = None
         """The :class:`wetline.core.hydrostatics.Solution` shown: of the valid
         preview during a drag, else of the case."""
-        self.level_table = None
+        self.level_table: LevelTable | None = None
+        self._scope_key: tuple | None = None
+        self._scope: ForceScope | None = None
+        self._scale_of: Solution | None = None
+        self._force_scale = 0.0
         self._need_solve = True
         self._need_table = True
         self.undo_stack = QUndoStack(self)
@@ -174,51 +186,51 @@ class Document(QObject):
 
     # ------------------------------------------------------------ reading
     @property
-    def case(self):
+    def case(self) -> Case:
         return self._case
 
     @property
-    def section(self):
+    def section(self) -> Section:
         return self._case.section
 
     @property
-    def path(self):
+    def path(self) -> str | None:
         return self._path
 
     @property
-    def display_name(self):
+    def display_name(self) -> str:
         if self._path:
             return Path(self._path).name
         return self._case.section.name or "Untitled"
 
     @property
-    def units(self):
+    def units(self) -> DisplayChoice:
         """The :class:`wetline.app.model.display.DisplayChoice` values are shown in."""
         return self._units
 
     @property
-    def diagram_scale(self):
+    def diagram_scale(self) -> float | None:
         """Drawing length per pressure [m/Pa] of the pressure diagrams, or
         None to fit them to the section automatically."""
         return self._diagram_scale
 
     @property
-    def draft(self):
+    def draft(self) -> Draft | None:
         return self._draft
 
     @property
-    def preview(self):
+    def preview(self) -> Preview | None:
         """The :class:`Preview` of an outline being dragged, or None."""
         return self._preview
 
     @property
-    def shown_case(self):
+    def shown_case(self) -> Case:
         """The case the results are of: the valid preview's during a drag,
         else the document's."""
         p = self._preview
         return p.case if p is not None and p.case is not None else self._case
 
-    def fault(self):
+    def fault(self) -> tuple[np.ndarray, SectionError] | None:
         """(outline [m], SectionError) of the invalid outline to mark on the
         canvas (an invalid preview first, then the draft), or None."""
         p = self._preview
@@ -228,25 +240,51 @@ class Document(QObject):
             return self._draft.outline, self._draft.error
         return None
 
+    def force_scope(self, section: Section | None = None) -> ForceScope:
+        """How forces of ``section`` (default: the shown case's) are shown:
+        the :class:`wetline.core.force_scope.ForceScope` of the display units
+        and the file's length unit."""
+        if section is None:
+            section = self.shown_case.section
+        key = (section.kind, section.width, self._units, self._case.length_unit)
+        if self._scope_key != key:
+            self._scope_key = key
+            self._scope = self._units.force_scope(section, self._case.length_unit)
+        assert self._scope is not None
+        return self._scope
+
     @property
-    def is_modified(self):
+    def force_scale(self) -> float:
+        """The largest force of :attr:`solution` [N] (0 before the first
+        solve): forces below :data:`wetline.core.numbers.NOISE` of it are
+        round-off and show as 0."""
+        sol = self.solution
+        if sol is None:
+            return 0.0
+        if self._scale_of is not sol:
+            self._scale_of = sol
+            self._force_scale = force_scale(sol)
+        return self._force_scale
+
+    @property
+    def is_modified(self) -> bool:
         return self._modified
 
     @property
-    def selected_edge(self):
+    def selected_edge(self) -> int | None:
         return self._selected_edge
 
     @property
-    def selected_vertex(self):
+    def selected_vertex(self) -> int | None:
         return self._selected_vertex
 
     @property
-    def undo_limit(self):
+    def undo_limit(self) -> int:
         """Undo steps kept (the stack's own limit may be an older one until
         the next :meth:`load`)."""
         return self._undo_limit
 
-    def set_undo_limit(self, steps):
+    def set_undo_limit(self, steps: int) -> None:
         """Keep at most ``steps`` undo steps: at once if nothing can be undone
         yet, else from the next :meth:`load` (Qt sets a limit only on an
         empty stack; the history is never cut behind the user's back)."""
@@ -257,7 +295,7 @@ class Document(QObject):
         if self.undo_stack.count() == 0:
             self.undo_stack.setUndoLimit(steps)
 
-    def working_outline(self):
+    def working_outline(self) -> tuple[np.ndarray, tuple[str, ...]]:
         """(outline [m], parts) being edited: the dragged preview's if any,
         else the draft's, else the section's."""
         if self._preview is not None:
@@ -267,7 +305,7 @@ class Document(QObject):
         return self._case.section.outline, self._case.section.parts
 
     # ----------------------------------------------------------- changing
-    def set_case(self, case):
+    def set_case(self, case: Case) -> None:
         """Replace the case (called by undo commands). Clears any draft."""
         if not isinstance(case, Case):
             raise TypeError("a Document holds a core.case.Case")
@@ -304,7 +342,8 @@ class Document(QObject):
             self._timer.start()
         self._update_modified()
 
-    def load(self, case, path=None, saved=None):
+    def load(self, case: Case, path: str | os.PathLike[str] | None = None,
+             saved: bool | None = None) -> None:
         """Start over on another case (a file opened, New): clears the undo
         history and the draft. The case counts as saved if ``saved`` (default:
         if a ``path`` is given)."""
@@ -335,12 +374,13 @@ class Document(QObject):
         self._update_modified()
 
     @property
-    def file_state(self):
+    def file_state(self) -> tuple[str | None, Case | None]:
         """(path, saved case) of the file the document belongs to: what
         :meth:`set_file_state` takes back (undo of a new section)."""
         return self._path, self._saved_case
 
-    def set_file_state(self, path, saved_case):
+    def set_file_state(self, path: str | os.PathLike[str] | None,
+                       saved_case: Case | None) -> None:
         """Belong to the file at ``path`` holding ``saved_case``, or to no file
         (None, None: an untitled section that Save asks a name for)."""
         path = None if path is None else str(path)
@@ -350,7 +390,7 @@ class Document(QObject):
             self.pathChanged.emit()
         self._update_modified()
 
-    def mark_saved(self, path):
+    def mark_saved(self, path: str | os.PathLike[str]) -> None:
         """The case is now in the file at ``path``."""
         self._saved_case = self._case
         if str(path) != self._path:
@@ -358,14 +398,14 @@ class Document(QObject):
             self.pathChanged.emit()
         self._update_modified()
 
-    def set_units(self, choice):
+    def set_units(self, choice: DisplayChoice) -> None:
         if not isinstance(choice, DisplayChoice):
             raise TypeError("units are a DisplayChoice")
         if choice != self._units:
             self._units = choice
             self.unitsChanged.emit()
 
-    def set_diagram_scale(self, scale):
+    def set_diagram_scale(self, scale: float | None) -> None:
         if scale is not None:
             scale = float(scale)
             if not (np.isfinite(scale) and scale > 0):
@@ -374,14 +414,14 @@ class Document(QObject):
             self._diagram_scale = scale
             self.diagramScaleChanged.emit()
 
-    def set_draft(self, draft):
+    def set_draft(self, draft: Draft | None) -> None:
         """Keep an invalid outline being edited (or None to drop it)."""
         if draft is None and self._draft is None:
             return
         self._draft = draft
         self.draftChanged.emit()
 
-    def preview_outline(self, outline, parts=None):
+    def preview_outline(self, outline: ArrayLike, parts: Sequence[str] | None = None) -> None:
         """Show ``outline`` (a vertex being dragged) live without an edit.
 
         The next recompute checks it: if valid, the results (:attr:`solved`,
@@ -401,7 +441,7 @@ class Document(QObject):
         self._preview = Preview(np.array(outline, dtype=np.float64), tuple(parts))
         self._timer.start()
 
-    def end_preview(self):
+    def end_preview(self) -> None:
         """Stop previewing a dragged outline; the results return to the
         document's case at the next recompute."""
         if self._preview is None:
@@ -415,32 +455,28 @@ class Document(QObject):
             self._preview_marked = False
             self.previewChanged.emit()
 
-    def select_edge(self, index):
+    def select_edge(self, index: int | None) -> None:
         index = None if index is None else int(index)
         if index != self._selected_edge or self._selected_vertex is not None:
             self._selected_edge = index
             self._selected_vertex = None
             self.selectionChanged.emit()
 
-    def select_vertex(self, index):
+    def select_vertex(self, index: int | None) -> None:
         index = None if index is None else int(index)
         if index != self._selected_vertex or self._selected_edge is not None:
             self._selected_vertex = index
             self._selected_edge = None
             self.selectionChanged.emit()
 
-    def _update_modified(self):
+    def _update_modified(self) -> None:
         modified = self._saved_case is None or self._case != self._saved_case
         if modified != self._modified:
             self._modified = modified
             self.modifiedChanged.emit(modified)
 
     # ---------------------------------------------------------- results
-    def request_recompute(self):
-        self._need_solve = True
-        self._timer.start()
-
-    def flush(self):
+    def flush(self) -> None:
         """Compute now anything pending (tests, benchmarks, export)."""
         if self._timer.isActive():
             self._timer.stop()
@@ -448,9 +484,9 @@ class Document(QObject):
         elif self._need_solve or self._need_table:
             self.recompute()
 
-    def _check_preview(self):
-        """Build the pending preview's section (or record why not)."""
-        p = self._preview
+    def _check_preview(self, p: Preview) -> Preview:
+        """Build the pending preview's section (or record why not); the
+        checked preview."""
         try:
             section = self._case.section.replace(outline=p.outline, parts=p.parts)
         except SectionError as exc:
@@ -460,16 +496,16 @@ class Document(QObject):
             self._need_solve = self._need_table = True
         self._preview_marked = True
         self.previewChanged.emit()
+        return self._preview
 
-    def recompute(self):
+    def recompute(self) -> None:
         """Solve the case (or the valid preview of a drag); emit
         :attr:`solved` (and :attr:`levelTableReady` when the geometry or
         liquid changed)."""
         preview = self._preview
         if preview is not None:
             if not preview.checked:
-                self._check_preview()
-                preview = self._preview
+                preview = self._check_preview(preview)
             if preview.case is None:  # invalid: the last valid results stay
                 return
             case = preview.case

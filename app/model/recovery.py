@@ -29,16 +29,22 @@ No widgets here: the window asks the questions.
 from __future__ import annotations
 
 import json
+import os
 import time
 import uuid
 from dataclasses import dataclass
 from datetime import UTC, datetime
 from pathlib import Path
+from typing import TYPE_CHECKING
 
 from PySide6.QtCore import QLockFile, QObject, QStandardPaths, QTimer, Signal
 
 from wetline.core.atomic_write import write_atomically
+from wetline.core.case import Case
 from wetline.core.section_file import dumps_case, read_section_file
+
+if TYPE_CHECKING:
+    from .document import Document
 
 __all__ = ["RecoveryCopy", "Autosaver", "default_folder", "case_to_save", "write_copy",
            "list_copies", "remove_copy", "read_copy", "DEFAULT_INTERVAL_S", "FIRST_DELAY_S",
@@ -82,25 +88,25 @@ class RecoveryCopy:
     section_path: Path
 
     @property
-    def sidecar_path(self):
+    def sidecar_path(self) -> Path:
         return self.section_path.with_name(self.id + SIDECAR_SUFFIX)
 
-    def describe(self):
+    def describe(self) -> str:
         """One line for the user: name, local time, the file it belongs to."""
         when = self.saved_at.astimezone().strftime("%Y-%m-%d %H:%M:%S")
         where = self.original_path or "never saved"
         return f"{self.name}, saved {when} ({where})"
 
 
-def default_folder():
+def default_folder() -> Path:
     """The recovery folder: ``recovery`` in the user's application data
     folder (QStandardPaths.AppDataLocation, e.g. ``~/.local/share/Wetline/
     Wetline/recovery`` on Linux)."""
-    base = QStandardPaths.writableLocation(QStandardPaths.AppDataLocation)
+    base = QStandardPaths.writableLocation(QStandardPaths.StandardLocation.AppDataLocation)
     return Path(base) / "recovery"
 
 
-def case_to_save(case):
+def case_to_save(case: Case) -> Case:
     """``case`` as a section file holds it: resistances of parts no longer in
     the outline (renamed, re-imported) stay in the document for undo but are
     not written (the file format names only loaded parts of its outline)."""
@@ -111,11 +117,13 @@ def case_to_save(case):
     return case
 
 
-def _now():
+def _now() -> datetime:
     return datetime.now(UTC)
 
 
-def write_copy(folder, copy_id, case, name, original_path=None, saved_at=None):
+def write_copy(folder: str | os.PathLike[str], copy_id: str, case: Case, name: str,
+               original_path: str | None = None,
+               saved_at: datetime | None = None) -> RecoveryCopy:
     """Write (or replace) the recovery copy ``copy_id`` of ``case``.
 
     Parameters
@@ -153,7 +161,7 @@ def write_copy(folder, copy_id, case, name, original_path=None, saved_at=None):
     return copy
 
 
-def remove_copy(folder, copy_id):
+def remove_copy(folder: str | os.PathLike[str], copy_id: str) -> None:
     """Remove the recovery copy ``copy_id`` (its section file and sidecar);
     nothing happens if it is not there."""
     folder = Path(folder)
@@ -164,7 +172,7 @@ def remove_copy(folder, copy_id):
             pass
 
 
-def _read_sidecar(path):
+def _read_sidecar(path: Path) -> tuple[str, datetime, str | None] | None:
     """(name, saved_at, original_path) of a sidecar, or None if unreadable."""
     try:
         data = json.loads(path.read_text(encoding="utf-8"))
@@ -180,17 +188,17 @@ def _read_sidecar(path):
         return None
 
 
-def _in_use(folder, copy_id):
+def _in_use(folder: Path, copy_id: str) -> bool:
     """True if a running program holds the copy's lock."""
     lock = QLockFile(str(Path(folder) / (copy_id + LOCK_SUFFIX)))
     lock.setStaleLockTime(0)  # stale only when its program is gone, never by age
     if lock.tryLock(0):
         lock.unlock()  # nobody holds it: an orphan (the lock file goes too)
         return False
-    return lock.error() == QLockFile.LockFailedError
+    return lock.error() == QLockFile.LockError.LockFailedError
 
 
-def list_copies(folder):
+def list_copies(folder: str | os.PathLike[str]) -> list[RecoveryCopy]:
     """The recovery copies in ``folder`` that no running program is writing
     (left by a crash, or kept for later), newest first.
 
@@ -218,7 +226,7 @@ def list_copies(folder):
     return copies
 
 
-def read_copy(copy):
+def read_copy(copy: RecoveryCopy) -> Case:
     """The case held by a :class:`RecoveryCopy`.
 
     Raises
@@ -254,8 +262,9 @@ class Autosaver(QObject):
     written = Signal(object)
     failed = Signal(str)
 
-    def __init__(self, document, folder, interval_s=DEFAULT_INTERVAL_S,
-                 first_delay_s=FIRST_DELAY_S, parent=None):
+    def __init__(self, document: Document, folder: str | os.PathLike[str],
+                 interval_s: float = DEFAULT_INTERVAL_S, first_delay_s: float = FIRST_DELAY_S,
+                 parent: QObject | None = None) -> None:
         super().__init__(parent if parent is not None else document)
         self._doc = document
         self.folder = Path(folder)
@@ -263,9 +272,9 @@ class Autosaver(QObject):
         self._interval = float(interval_s)
         self._first_delay = float(first_delay_s)
         self._dirty = False
-        self._last_write = None  # time.monotonic() of the last copy written
+        self._last_write: float | None = None  # time.monotonic() of the last copy written
         self._on_disk = False  # a copy was (or may have been partly) written
-        self.copy = None
+        self.copy: RecoveryCopy | None = None
         """The :class:`RecoveryCopy` on disk, or None."""
         self._lock = QLockFile(str(self.folder / (self.id + LOCK_SUFFIX)))
         self._lock.setStaleLockTime(0)
@@ -286,16 +295,16 @@ class Autosaver(QObject):
             self._on_changed()
 
     @property
-    def interval_s(self):
+    def interval_s(self) -> float:
         """Seconds between copies (0: off)."""
         return self._interval
 
     @property
-    def pending(self):
+    def pending(self) -> bool:
         """True while a copy is due (changes not yet in the recovery copy)."""
         return self._dirty
 
-    def set_interval(self, seconds):
+    def set_interval(self, seconds: float) -> None:
         """Copy every ``seconds`` from now on; 0 turns autosave off and
         removes the copy (it would grow stale)."""
         self._interval = max(float(seconds), 0.0)
@@ -305,14 +314,14 @@ class Autosaver(QObject):
         elif self._dirty:
             self._schedule()
 
-    def _on_changed(self, *_):
+    def _on_changed(self, *_: object) -> None:
         if not self._doc.is_modified:  # saved, or back to the saved state
             self.remove()
             return
         self._dirty = True
         self._schedule()
 
-    def _schedule(self):
+    def _schedule(self) -> None:
         if self._interval <= 0 or self._timer.isActive():
             return
         if self._last_write is None:
@@ -321,11 +330,11 @@ class Autosaver(QObject):
             delay = max(0.0, self._interval - (time.monotonic() - self._last_write))
         self._timer.start(int(round(delay * 1000)))
 
-    def _on_timeout(self):
+    def _on_timeout(self) -> None:
         if self._dirty and self._doc.is_modified:
             self.write_now()
 
-    def write_now(self):
+    def write_now(self) -> RecoveryCopy | None:
         """Write the copy now; the :class:`RecoveryCopy`, or None if it failed
         (:attr:`failed` says why)."""
         doc = self._doc
@@ -342,7 +351,7 @@ class Autosaver(QObject):
         self.written.emit(copy)
         return copy
 
-    def remove(self):
+    def remove(self) -> None:
         """Remove the copy (the changes are saved or given up)."""
         self._timer.stop()
         self._dirty = False
@@ -352,7 +361,7 @@ class Autosaver(QObject):
             self._on_disk = False
             remove_copy(self.folder, self.id)
 
-    def close(self):
+    def close(self) -> None:
         """The document closes cleanly: remove the copy and release the lock."""
         self.remove()
         if self._locked:

@@ -1,6 +1,8 @@
-"""Drawing geometry of the loads: pressure diagrams, arrows, resultants.
+"""Drawing geometry of the loads: the liquid, the free surface, pressure
+diagrams, arrows, resultants and where pressure values are written.
 
-Pure numpy (no Qt), so the canvas and any renderer share it. Everything in
+Pure numpy and shapely (no Qt): the live canvas and the exported diagram
+draw from these same functions, so they show the same thing. Everything in
 metres and pascals; the pressure ``scale`` turns a pressure into a drawing
 length [m/Pa]. Diagrams are drawn outward from the wall (along the outward
 normal, from the liquid into the wall).
@@ -9,20 +11,30 @@ normal, from the liquid into the wall).
 from __future__ import annotations
 
 import itertools
+import math
 from dataclasses import dataclass
 
 import numpy as np
+import shapely
 
 from wetline.core.section import AXIS, OPEN
 
-__all__ = ["WettedEdges", "wetted_edges", "auto_scale", "diagram_polygons", "chain_starts",
-           "carrying_edges", "pressure_arrows", "arrow_strokes", "PartRun", "part_runs",
-           "run_resultants"]
+__all__ = ["CORNER_COS", "is_corner", "WettedEdges", "wetted_edges", "auto_scale",
+           "diagram_polygons", "chain_starts", "carrying_edges", "axis_edges",
+           "pressure_arrows", "arrow_strokes", "PartRun", "part_runs", "run_resultants",
+           "surface_spans", "liquid_rings", "PressureSite", "pressure_sites"]
 
 
-KINK_COS = 0.985
-"""Cosine of the angle between neighbouring edges above which the diagram
-does not return to the wall at their common vertex (about 10 degrees)."""
+CORNER_COS = math.cos(math.radians(10.0))
+"""Two walls meeting at more than 10 degrees make a corner: the diagram
+returns to the wall there and the pressure is written there. Below it the
+walls are a smooth bend (a curve drawn as a polyline)."""
+
+
+def is_corner(nx0, nz0, nx1, nz1):
+    """True (elementwise) where walls with outward normals (nx0, nz0) and
+    (nx1, nz1) meet at a corner, not a smooth bend (see :data:`CORNER_COS`)."""
+    return nx0 * nx1 + nz0 * nz1 < CORNER_COS
 
 
 @dataclass(frozen=True)
@@ -44,10 +56,21 @@ class WettedEdges:
     nz: np.ndarray
 
 
+def axis_edges(section):
+    """Boolean mask of the edges drawn as the axis: parts named ``axis`` and,
+    on an axisymmetric section, every edge lying on x = 0."""
+    mask = np.fromiter((p == AXIS for p in section.parts), bool, count=section.n_edges)
+    if section.is_axisymmetric:
+        x = section.outline[:, 0]
+        mask |= (x == 0) & (np.roll(x, -1) == 0)
+    return mask
+
+
 def carrying_edges(section):
-    """Boolean mask of the edges that carry load (not ``open`` or ``axis``)."""
-    return np.fromiter((p not in (OPEN, AXIS) for p in section.parts), bool,
-                       count=section.n_edges)
+    """Boolean mask of the edges that carry a pressure diagram: walls, not
+    ``open`` edges or the axis (:func:`axis_edges`)."""
+    walls = np.fromiter((p != OPEN for p in section.parts), bool, count=section.n_edges)
+    return walls & ~axis_edges(section)
 
 
 def wetted_edges(solution, carries=None):
@@ -82,14 +105,16 @@ def auto_scale(section, max_pressure, fraction=0.3):
     return fraction * size / max_pressure
 
 
-def diagram_polygons(w, scale):
+def diagram_polygons(w, scale, closed=True):
     """The diagrams as few polygons: one per chain of consecutive wetted
-    edges (wall points forward, then the diagram's outer edge back), so a
-    wall of ten thousand edges fills as one polygon (a path of thousands of
-    small overlapping polygons takes hundreds of ms to fill).
+    edges (the diagram's outer edge forward from the wall, then back along
+    the wall), so a wall of ten thousand edges fills as one polygon (a path
+    of thousands of small overlapping polygons takes hundreds of ms to fill).
+    ``closed=False``: only the outer edges, from the wall out and back to it
+    (to outline the diagrams without stroking the walls again).
 
-    Returns x, z and ``connect`` (False after each polygon's last point),
-    for :func:`pyqtgraph.arrayToQPath`.
+    Returns x, z and ``connect`` (False after each polygon's or line's last
+    point), for :func:`pyqtgraph.arrayToQPath`.
     """
     m = w.index.size
     if m == 0:
@@ -102,7 +127,7 @@ def diagram_polygons(w, scale):
     # times fills a hundred times slower.
     starts = chain_starts(w)
     kink = np.zeros(m, dtype=bool)  # after edge k
-    kink[:-1] = (w.nx[:-1] * w.nx[1:] + w.nz[:-1] * w.nz[1:]) < KINK_COS
+    kink[:-1] = is_corner(w.nx[:-1], w.nz[:-1], w.nx[1:], w.nz[1:])
     nan = np.full(m, np.nan)
     fx = np.column_stack([w.ax + w.pa * scale * w.nx, w.bx + w.pb * scale * w.nx,
                           np.where(kink, w.bx, nan)])
@@ -115,10 +140,10 @@ def diagram_polygons(w, scale):
         oz = fz[k0:k1].ravel()
         keep = ~np.isnan(ox)
         keep[-1] = False  # the chain's end is added with the wall below
-        x = np.concatenate([w.ax[k0:k0 + 1], ox[keep], w.bx[k1 - 1:k1], w.bx[k0:k1][::-1],
-                            w.ax[k0:k0 + 1]])
-        z = np.concatenate([w.az[k0:k0 + 1], oz[keep], w.bz[k1 - 1:k1], w.bz[k0:k1][::-1],
-                            w.az[k0:k0 + 1]])
+        back_x = [w.bx[k0:k1][::-1], w.ax[k0:k0 + 1]] if closed else []
+        back_z = [w.bz[k0:k1][::-1], w.az[k0:k0 + 1]] if closed else []
+        x = np.concatenate([w.ax[k0:k0 + 1], ox[keep], w.bx[k1 - 1:k1], *back_x])
+        z = np.concatenate([w.az[k0:k0 + 1], oz[keep], w.bz[k1 - 1:k1], *back_z])
         c = np.ones(x.size, dtype=bool)
         c[-1] = False
         xs.append(x)
@@ -265,3 +290,142 @@ def run_resultants(solution, runs, w=None):
             cx, cz = cx + t * fz, cz - t * fx
         out.append((run, fx, fz, cx, cz))
     return out
+
+
+def surface_spans(section, level):
+    """x-ranges [m] where the free surface z = ``level`` crosses the cavity,
+    as a list of (x0, x1); empty below the section and above its roof."""
+    pts = section.outline
+    size = max(section.z_max - section.z_min, 1e-12)
+    h = level - 1e-9 * size
+    x0, z0 = pts[:, 0], pts[:, 1]
+    x1, z1 = np.roll(x0, -1), np.roll(z0, -1)
+    cross = (z0 > h) != (z1 > h)
+    with np.errstate(divide="ignore", invalid="ignore"):
+        xs = x0[cross] + (h - z0[cross]) * (x1[cross] - x0[cross]) / (z1[cross] - z0[cross])
+    xs = np.sort(xs)
+    return [(float(xs[k]), float(xs[k + 1])) for k in range(0, len(xs) - 1, 2)]
+
+
+def liquid_rings(section, level, polygon=None):
+    """The liquid: the cavity below ``level`` [m], as rings of (N, 2) points
+    [m] (each polygon's outline, then its holes) for an odd-even fill.
+    ``polygon`` is ``shapely.Polygon(section.outline)`` if already built."""
+    if level <= section.z_min:
+        return []
+    if polygon is None:
+        polygon = shapely.Polygon(section.outline)
+    pts = section.outline
+    x0, x1 = float(pts[:, 0].min()), float(pts[:, 0].max())
+    pad = 1.0 + (x1 - x0) + (section.z_max - section.z_min)
+    wet = shapely.clip_by_rect(polygon, x0 - pad, section.z_min - pad, x1 + pad, level)
+    rings = []
+    for poly in shapely.get_parts(wet):
+        if poly.geom_type != "Polygon" or poly.is_empty:
+            continue
+        for ring in [poly.exterior, *poly.interiors]:
+            rings.append(shapely.get_coordinates(ring))
+    return rings
+
+
+@dataclass(frozen=True)
+class PressureSite:
+    """A place where a pressure value is written: a corner or end of a
+    wetted wall, or the middle of a uniform diagram (a horizontal wall).
+
+    ``x, z`` the wall point [m]; ``pressure`` there [Pa]; ``normals`` the
+    outward unit normals of the walls meeting there; ``uniform`` True for
+    the middle of a uniform diagram, whose wetted part runs from ``along[:2]``
+    to ``along[2:]`` [m].
+    """
+
+    x: float
+    z: float
+    pressure: float
+    normals: tuple
+    uniform: bool = False
+    along: tuple = ()
+
+    @property
+    def direction(self):
+        """The unit direction the value is written in: the mean of the normals."""
+        sx = sum(n[0] for n in self.normals)
+        sz = sum(n[1] for n in self.normals)
+        norm = math.hypot(sx, sz)
+        if norm < 1e-6:
+            return self.normals[0]
+        return sx / norm, sz / norm
+
+    def tip(self, scale):
+        """The point [m] at the diagram's outer edge along :attr:`direction`."""
+        dx, dz = self.direction
+        reach = max(scale * self.pressure * (nx * dx + nz * dz) for nx, nz in self.normals)
+        reach = max(reach, 0.0)
+        return self.x + dx * reach, self.z + dz * reach
+
+
+def pressure_sites(w, n_vertices, limit=16):
+    """Where the pressure values of the diagrams are written, deepest first.
+
+    The middle of every uniform diagram (a horizontal wall), and each wetted
+    end or corner of the other walls (where two walls meet at less than a
+    corner, :func:`is_corner`, only the deepest such vertex). At most
+    ``limit``: the deepest, then others spread over the range of pressures.
+
+    Parameters
+    ----------
+    w : WettedEdges
+    n_vertices : int
+        Vertices of the section (to close the outline).
+    limit : int
+
+    Returns
+    -------
+    list of PressureSite
+    """
+    m = w.index.size
+    if m == 0:
+        return []
+    pmax = float(max(w.pa.max(), w.pb.max()))
+    if not pmax > 0:
+        return []
+    tol = 1e-9 * pmax
+    uniform = (np.abs(w.pa - w.pb) <= tol) & (w.pa > tol)
+    # Every wetted end with pressure of the other walls: edge k starts at
+    # vertex index[k] and ends at vertex index[k] + 1; grouped by vertex.
+    ka = np.flatnonzero(~uniform & (w.pa > tol))
+    kb = np.flatnonzero(~uniform & (w.pb > tol))
+    vert = np.concatenate([w.index[ka], (w.index[kb] + 1) % n_vertices])
+    order = np.argsort(vert, kind="stable")
+    vert = vert[order]
+    edge = np.concatenate([ka, kb])[order]
+    pres = np.concatenate([w.pa[ka], w.pb[kb]])[order]
+    px = np.concatenate([w.ax[ka], w.bx[kb]])[order]
+    pz = np.concatenate([w.az[ka], w.bz[kb]])[order]
+    starts = np.flatnonzero(np.r_[True, vert[1:] != vert[:-1]]) if vert.size else vert
+    last = np.r_[starts[1:], vert.size] - 1 if vert.size else vert
+    e0, e1 = edge[starts], edge[last]
+    at = np.maximum(pres[starts], pres[last])
+    keep = (last == starts) | is_corner(w.nx[e0], w.nz[e0], w.nx[e1], w.nz[e1])
+    if starts.size:
+        keep[int(np.argmax(at))] = True  # the deepest is written even on a bend
+    cu = np.flatnonzero(uniform)
+    cv = np.flatnonzero(keep)
+    order = np.argsort(-np.concatenate([w.pa[cu], at[cv]]), kind="stable")
+    if order.size > limit:
+        spread = np.unique(np.linspace(1, order.size - 1, max(limit - 1, 1)).astype(int))
+        order = np.concatenate([order[:1], order[spread]])[:limit]
+    sites = []
+    for j in order.tolist():
+        if j < cu.size:
+            k = int(cu[j])
+            ax, az, bx, bz = float(w.ax[k]), float(w.az[k]), float(w.bx[k]), float(w.bz[k])
+            sites.append(PressureSite(0.5 * (ax + bx), 0.5 * (az + bz), float(w.pa[k]),
+                                      ((float(w.nx[k]), float(w.nz[k])),), True,
+                                      (ax, az, bx, bz)))
+            continue
+        g = int(cv[j - cu.size])
+        ks = sorted({int(e0[g]), int(e1[g])})
+        sites.append(PressureSite(float(px[starts[g]]), float(pz[starts[g]]), float(at[g]),
+                                  tuple((float(w.nx[k]), float(w.nz[k])) for k in ks)))
+    return sites

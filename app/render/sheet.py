@@ -10,15 +10,16 @@ for the desktop program's menu. The sheet holds
 3. results: totals, loads by part, the uplift check with its verdicts, the
    required factor and where its default comes from;
 4. warnings, assumptions and cautions;
-5. figures: the pressure diagram (the scene of :mod:`wetline.app.render.scene`) and
+5. figures: the pressure diagram (:class:`wetline.app.render.scene.DiagramScene`) and
    the loads-against-level chart (:mod:`wetline.app.render.level_chart`), both
    painted as vectors;
 6. the per-edge results: pressures, forces and centres of pressure (plane)
    or hoop forces (axisymmetric), one row per edge, as long as it needs to be.
 
 Every table comes from :mod:`wetline.core.report_tables` and every number is written
-with :func:`wetline.core.report_tables.fmt`, so the sheet, ``wetline solve`` and the
-CSV files print the same values.
+with the one formatter, :func:`wetline.core.numbers.format_number`, so the sheet,
+``wetline solve`` and the window print the same values; forces are shown as
+:func:`wetline.core.force_scope.force_scope` says.
 
 How the pages are made: the text of sections 1-4 and of section 6 is laid
 out by two :class:`QTextDocument` objects whose page size is the body area of
@@ -35,12 +36,10 @@ atomically.
 from __future__ import annotations
 
 import html
-import math
 
 from PySide6.QtCore import QBuffer, QByteArray, QIODevice, QLineF, QMarginsF, QRectF, QSizeF, Qt
 from PySide6.QtGui import (
     QColor,
-    QFont,
     QFontMetricsF,
     QPageLayout,
     QPageSize,
@@ -51,26 +50,28 @@ from PySide6.QtGui import (
 )
 
 from wetline.app.render.level_chart import paint_level_chart
-from wetline.app.render.scene import (
-    FONT_FAMILY,
+from wetline.app.render.output import (
     ExportError,
-    _date_text,
-    _ensure_app,
-    _program,
-    _Scene,
+    check_level,
+    date_text,
+    ensure_app,
+    program_name,
+    write_output,
 )
-from wetline.core.atomic_write import WriteError, check_target, write_atomically
+from wetline.app.render.scene import DiagramScene
+from wetline.app.render.style import INK, MUTED, NOT_OK_COLOUR, OK_COLOUR, RULE, point_font
+from wetline.core.force_scope import force_scale, force_scope, resistance_quantity
+from wetline.core.numbers import format_number
 from wetline.core.report_tables import (
+    cell_text,
     edges_table,
-    fmt,
-    force_scope,
     parts_table,
     totals_table,
     uplift_table,
     with_note,
 )
-from wetline.core.results import ASSUMPTIONS, CAUTIONS
-from wetline.core.units import display_units, length_factor
+from wetline.core.results import ASSUMPTIONS, CAUTION
+from wetline.core.units import display_units
 from wetline.core.uplift import DEFAULT_REQUIRED_FACTOR, REQUIRED_FACTOR_SOURCE, UPLIFT_CAUTION
 
 __all__ = ["DPI", "ReportError", "write_report", "report_pdf_bytes"]
@@ -88,13 +89,10 @@ _LEFT_MM, _RIGHT_MM = 18.0, 15.0
 _TOP_MM, _HEADER_MM, _GAP_MM = 10.0, 19.0, 5.0
 _FOOTER_MM, _BOTTOM_MM = 8.0, 9.0
 
-INK = "#1d2530"
-MUTED = "#5f6b78"
-RULE = "#9aa5b1"
 HEAD_FILL = "#e9eef3"
-OK_COLOUR = "#1d6b34"
-NOT_OK_COLOUR = "#b3141f"
+"""Background of a table's header row."""
 FORMULA_FILL = "#f4f6f8"
+"""Background of the method's formulas."""
 
 
 class ReportError(ExportError):
@@ -104,14 +102,6 @@ class ReportError(ExportError):
 # ------------------------------------------------------------------ text
 def _e(text):
     return html.escape(str(text), quote=True)
-
-
-def _cell(v):
-    if isinstance(v, bool):
-        return str(v)
-    if isinstance(v, int):
-        return str(v)
-    return fmt(v)
 
 
 def _table_html(header, rows, *, align=None, cls="t", widths=None, verdict_col=None,
@@ -129,7 +119,7 @@ def _table_html(header, rows, *, align=None, cls="t", widths=None, verdict_col=N
     for row in rows:
         cells = []
         for k, (v, a) in enumerate(zip(row, align, strict=True)):
-            text = _e(_cell(v))
+            text = _e(cell_text(v))
             if verdict_col is not None and k == verdict_col:
                 colour = OK_COLOUR if v == "OK" else NOT_OK_COLOUR
                 text = f'<b><span style="color: {colour};">{text}</span></b>'
@@ -176,19 +166,21 @@ class _Sheet:
         self.sol = case.solve(level)
         self.level_given = level is not None
         self.du = display_units(units)
-        self.date = _date_text(date)
+        self.date = date_text(date)
         self.section = self.sol.section
+        self.scope = force_scope(self.section, self.du, case.length_unit)
+        self.force_scale = force_scale(self.sol)
 
     # ------------------------------------------------------------ units
-    def length(self, m, digits=5):
-        return f"{fmt(self.du.to_display(m, 'length'), digits)} {self.du.label('length')}"
+    def length(self, m):
+        return self.du.text(m, "length")
 
     def force(self, n):
-        return f"{fmt(self.du.to_display(n, 'force'))} {self.du.label('force')}"
+        return self.scope.text(n, scale=self.force_scale)
 
     def force_scope(self):
         """For which width the forces are, in words."""
-        return force_scope(self.section, self.du)
+        return self.scope.words
 
     def title(self):
         s = self.section
@@ -199,9 +191,14 @@ class _Sheet:
                 f"{_e(self.length(self.sol.level))}; forces {_e(self.force_scope())}.</p>")
 
     def inputs(self):
-        s, sol, du, case = self.section, self.sol, self.du, self.case
+        """Section 1: the section, the liquid and gravity, the fill, the uplift inputs."""
+        return ("<h2>1 Inputs</h2>" + self._section_inputs() + self._liquid_inputs()
+                + self._fill_inputs() + self._uplift_inputs())
+
+    def _section_inputs(self):
+        s, du, case = self.section, self.du, self.case
         L = du.label("length")
-        out = ["<h2>1 Inputs</h2>", "<h3>1.1 Section</h3>"]
+        out = ["<h3>1.1 Section</h3>"]
         if s.is_axisymmetric:
             geometry = ("axisymmetric: the outline is a half-section revolved about the "
                         "axis x = 0 (x is the radius); forces over the full circumference")
@@ -217,8 +214,10 @@ class _Sheet:
                 ("Outline", f"{s.n_edges} vertices and {s.n_edges} edges; coordinates "
                             f"below in {_e(L)} (the file gives them in "
                             f"{_e(case.length_unit)})"),
-                ("Extent", f"x from {fmt(pts[:, 0].min())} to {fmt(pts[:, 0].max())} {_e(L)}, "
-                           f"z from {fmt(pts[:, 1].min())} to {fmt(pts[:, 1].max())} {_e(L)}"),
+                ("Extent", f"x from {format_number(pts[:, 0].min())} to "
+                           f"{format_number(pts[:, 0].max())} {_e(L)}, z from "
+                           f"{format_number(pts[:, 1].min())} to "
+                           f"{format_number(pts[:, 1].max())} {_e(L)}"),
                 ("Parts", _e(parts)),
                 ("Top", top)]
         out.append(_kv_html(rows))
@@ -236,26 +235,33 @@ class _Sheet:
             out.append(f'<p class="note">The {s.n_edges} vertices are listed with the per-edge '
                        f"results in section 6 (x start and z start of each edge, with its "
                        f"part).</p>")
+        return "".join(out)
 
+    def _liquid_inputs(self):
+        du, case = self.du, self.case
         liq = case.liquid
-        out.append("<h3>1.2 Liquid and gravity</h3>")
-        density = f"{fmt(du.to_display(liq.density, 'density'))} {du.label('density')}"
+        out = ["<h3>1.2 Liquid and gravity</h3>"]
+        # Inputs are echoed with the digits that identify them.
+        density = du.text(liq.density, "density", 5)
         if du.name != "si":
-            density += f" ({fmt(liq.density)} kg/m3)"
-        gravity = f"{fmt(case.gravity, 7)} m/s2"
+            density += f" ({format_number(liq.density, 5)} kg/m3)"
+        gravity = f"{format_number(case.gravity, 7)} m/s2"
         if du.name == "us":
-            gravity += f" ({fmt(case.gravity / length_factor('ft'), 7)} ft/s2)"
+            gravity += f" ({du.text(case.gravity, 'length', 7)}/s2)"
         out.append(_kv_html([("Liquid", _e(liq.name)), ("Density", _e(density)),
                              ("Source of the density", _e(liq.source)),
                              ("Gravity", _e(gravity))]))
+        return "".join(out)
 
-        out.append("<h3>1.3 Fill</h3>")
+    def _fill_inputs(self):
+        sol, du, case = self.sol, self.du, self.case
+        out = ["<h3>1.3 Fill</h3>"]
         rows = []
         if self.level_given:
             how = "level given for this sheet"
         elif case.fill_volume is not None:
-            how = (f"volume given: {fmt(du.to_display(case.fill_volume, 'volume'))} "
-                   f"{du.label('volume')}; the level holding it was solved exactly")
+            how = (f"volume given: {du.text(case.fill_volume, 'volume')}; the level holding "
+                   "it was solved exactly")
         else:
             how = "level given"
         rows.append(("Fill", _e(how)))
@@ -267,26 +273,23 @@ class _Sheet:
         if sol.head_above_top > 0:
             rows.append(("Head above the roof", _e(self.length(sol.head_above_top)) +
                          " (the closed section is full under a standpipe head)"))
-        rows.append(("Liquid volume", _e(f"{fmt(du.to_display(sol.volume, 'volume'))} "
-                                         f"{du.label('volume')}")))
+        rows.append(("Liquid volume", _e(du.text(sol.volume, "volume"))))
         out.append(_kv_html(rows))
+        return "".join(out)
 
-        out.append("<h3>1.4 Uplift check inputs</h3>")
-        f = case.required_uplift_factor
-        if f == DEFAULT_REQUIRED_FACTOR:
-            source = REQUIRED_FACTOR_SOURCE
-        else:
-            source = f"given by the user (the program's {REQUIRED_FACTOR_SOURCE})"
-        rows = [("Required factor", f"<b>{_e(fmt(f, 4))}</b>"),
-                ("Source", _e(source))]
+    def _uplift_inputs(self):
+        s, du, case = self.section, self.du, self.case
+        out = ["<h3>1.4 Uplift check inputs</h3>"]
+        rows = [("Required factor", f"<b>{_e(format_number(case.required_uplift_factor))}</b>"),
+                ("Source", _e(self._factor_source()))]
         out.append(_kv_html(rows))
         res = case.resistance_map
         if res:
-            unit = du.label("force") if s.is_axisymmetric else du.label("force_per_length")
+            q = resistance_quantity(s)
+            unit = du.label(q)
             per = "totals" if s.is_axisymmetric else "per unit width"
             header = ("part", f"self-weight G [{unit}]", f"holding-down R [{unit}]",
                       f"G + R [{unit}]")
-            q = "force" if s.is_axisymmetric else "force_per_length"
             rows = [(name, du.to_display(r.self_weight, q), du.to_display(r.holding_down, q),
                      du.to_display(r.total, q)) for name, r in sorted(res.items())]
             out.append(f'<p class="note">Resistance holding each part down ({per}).</p>')
@@ -365,14 +368,14 @@ class _Sheet:
         out = ["<h2>3 Results</h2>",
                f"<h3>3.1 Totals</h3><p>Forces {_e(self.force_scope())}.</p>"]
         rows = [(name, with_note(value, note), unit)
-                for name, value, unit, note in totals_table(sol, du).rows]
+                for name, value, unit, note in totals_table(sol, du, case.length_unit).rows]
         out.append(_table_html(("quantity", "value", "unit"), rows,
                                align=["left", "right", "left"], widths=[40, 30, 30]))
         out.append(f'<p class="note">Check: floor force + support reaction = '
                    f"{_e(self.force(sol.floor_force))} + ({_e(self.force(sol.support_reaction))}) "
                    f"= {_e(self.force(sol.floor_force + sol.support_reaction))}; liquid weight "
                    f"ρ g V = {_e(self.force(sol.fluid_weight))}.</p>")
-        parts = parts_table(sol, du)
+        parts = parts_table(sol, du, case.length_unit)
         out.append("<h3>3.2 Loads by part</h3>")
         if parts.rows:
             out.append(_table_html(parts.header, parts.rows))
@@ -389,10 +392,11 @@ class _Sheet:
                                    align=["left"] + ["right"] * (len(up.header) - 2)
                                    + ["center"]))
             verdicts = "; ".join(
-                f"{r[0]}: {r[-1]} (worst factor {fmt(r[6], 4)} against "
-                f"{fmt(case.required_uplift_factor, 4)} required)" for r in up.rows)
+                f"{r[0]}: {r[-1]} (worst factor {format_number(r[6])} against "
+                f"{format_number(case.required_uplift_factor)} required)" for r in up.rows)
             out.append(f"<p><b>{_e(verdicts)}</b></p>")
-            out.append(f'<p class="note">Required factor {_e(fmt(case.required_uplift_factor, 4))}'
+            required = format_number(case.required_uplift_factor)
+            out.append(f'<p class="note">Required factor {_e(required)}'
                        f": {_e(self._factor_source())}. The verdict is taken at the worst "
                        f"level. {_e(UPLIFT_CAUTION)}</p>")
         else:
@@ -424,7 +428,7 @@ class _Sheet:
         out.append("<h3>Cautions</h3>")
         out.append(f'<table width="100%" cellpadding="6" cellspacing="0" border="1" '
                    f'style="border-collapse: collapse; border-color: {NOT_OK_COLOUR};">'
-                   f'<tr><td bgcolor="#fbeeee"><b>{_e(CAUTIONS)}</b><br/>'
+                   f'<tr><td bgcolor="#fbeeee"><b>{_e(CAUTION)}</b><br/>'
                    f"{_e(UPLIFT_CAUTION)}</td></tr></table>")
         out.append('<p class="note">Figures (section 5) and the per-edge results '
                    "(section 6) follow.</p>")
@@ -446,7 +450,7 @@ class _Sheet:
         row wrap and a table still run over, its ``<thead>`` repeats.
         """
         s, du = self.section, self.du
-        t = edges_table(self.sol, du)
+        t = edges_table(self.sol, du, self.case.length_unit)
         intro = ("<h2>6 Per-edge results</h2>"
                  f"<p>Edge i runs from vertex i to vertex i + 1; forces "
                  f"{_e(self.force_scope())}. Pressures at the edge's ends (0 where dry). ")
@@ -461,11 +465,11 @@ class _Sheet:
         align = ["right", "left"] + ["right"] * (len(header) - 2)
         # Fixed column widths, from the longest entry of each column, so that
         # every page's table looks the same and every row has one height.
-        fm = QFontMetricsF(_font(_EDGE_PT), writer)
-        fb = QFontMetricsF(_font(_EDGE_PT, bold=True), writer)
+        fm = QFontMetricsF(point_font(_EDGE_PT), writer)
+        fb = QFontMetricsF(point_font(_EDGE_PT, bold=True), writer)
         need = []
         for k, h in enumerate(header):
-            texts = {_cell(r[k]) for r in t.rows}
+            texts = {cell_text(r[k]) for r in t.rows}
             need.append(max([fb.horizontalAdvance(w) for w in h.split()]
                             + [fm.horizontalAdvance(x) for x in texts]) + 2.5 * fm.height())
         widths = [100.0 * v / sum(need) for v in need]
@@ -499,7 +503,7 @@ def _height(html_text, writer, body):
     """Height of ``html_text`` laid out at the body's width, unpaginated."""
     doc = QTextDocument()
     doc.documentLayout().setPaintDevice(writer)
-    doc.setDefaultFont(_font(8.5))
+    doc.setDefaultFont(point_font(8.5))
     doc.setDocumentMargin(0)
     doc.setUseDesignMetrics(True)
     doc.setTextWidth(body.width())
@@ -528,20 +532,10 @@ class _Pages:
                              _FOOTER_MM * _MM)
 
 
-def _font(pt, bold=False, family=FONT_FAMILY):
-    f = QFont(family)
-    f.setPointSizeF(pt)
-    if bold:
-        f.setWeight(QFont.Weight.Bold)
-    # No "fi"/"fl" ligatures: the text must read back (and search) as typed.
-    f.setFeature(QFont.Tag("liga"), 0)
-    return f
-
-
 def _document(html_text, writer, body):
     doc = QTextDocument()
     doc.documentLayout().setPaintDevice(writer)
-    doc.setDefaultFont(_font(8.5))
+    doc.setDefaultFont(point_font(8.5))
     doc.setDocumentMargin(0)
     doc.setUseDesignMetrics(True)
     doc.setPageSize(QSizeF(body.width(), body.height()))
@@ -553,19 +547,19 @@ def _header(p, rect, sheet, page, pages):
     case, s = sheet.case, sheet.section
     info = case.report
     lw = 0.25 * _MM
-    label_font, value_font = _font(6.5), _font(8.5, bold=True)
+    label_font, value_font = point_font(6.5), point_font(8.5, bold=True)
     dev = p.device()
     lfm, vfm = QFontMetricsF(label_font, dev), QFontMetricsF(value_font, dev)
     title_h = 5.0 * _MM
-    p.setFont(_font(8.5, bold=True))
+    p.setFont(point_font(8.5, bold=True))
     p.setPen(QColor(INK))
     p.drawText(QRectF(rect.left(), rect.top(), rect.width(), title_h),
                Qt.AlignmentFlag.AlignLeft | Qt.AlignmentFlag.AlignVCenter,
                "HYDROSTATIC LOAD CALCULATION")
-    p.setFont(_font(7.5))
+    p.setFont(point_font(7.5))
     p.setPen(QColor(MUTED))
     p.drawText(QRectF(rect.left(), rect.top(), rect.width(), title_h),
-               Qt.AlignmentFlag.AlignRight | Qt.AlignmentFlag.AlignVCenter, _program())
+               Qt.AlignmentFlag.AlignRight | Qt.AlignmentFlag.AlignVCenter, program_name())
     grid = QRectF(rect.left(), rect.top() + title_h, rect.width(), rect.height() - title_h)
     cells = [("Project", info.project or "-"), ("Job reference", info.job_reference or "-"),
              ("Date", sheet.date),
@@ -604,7 +598,7 @@ def _footer(p, rect, sheet, page, pages):
     lw = 0.2 * _MM
     p.setPen(QPen(QColor(RULE), lw))
     p.drawLine(QLineF(rect.left(), rect.top(), rect.right(), rect.top()))
-    p.setFont(_font(6.5))
+    p.setFont(point_font(6.5))
     p.setPen(QColor(MUTED))
     r = rect.adjusted(0, 1.2 * _MM, 0, 0)
     p.drawText(r, Qt.AlignmentFlag.AlignLeft | Qt.AlignmentFlag.AlignTop,
@@ -619,12 +613,12 @@ def _figures(p, body, sheet, units):
     f = 3.3 * _MM  # heading height
     y = body.top()
     p.setPen(QColor(INK))
-    p.setFont(_font(11, bold=True))
+    p.setFont(point_font(11, bold=True))
     p.drawText(QRectF(body.left(), y, body.width(), 6 * _MM),
                Qt.AlignmentFlag.AlignLeft | Qt.AlignmentFlag.AlignTop, "5 Figures")
     y += 8 * _MM
-    cap_font = _font(8.5, bold=True)
-    note_font = _font(7.5)
+    cap_font = point_font(8.5, bold=True)
+    note_font = point_font(7.5)
 
     def caption(y, title, note):
         p.setPen(QColor(INK))
@@ -642,8 +636,8 @@ def _figures(p, body, sheet, units):
 
     y = caption(y, "Figure 1. Pressure diagram",
                 "Gauge pressure on each wetted wall drawn outward from the wall, with the "
-                "resultant of each part and the key totals (values to 4 significant figures; "
-                "the tables give 5).")
+                "resultant of each part and the key totals (values to 4 significant figures, as "
+                "in the tables).")
     # The diagram scene, laid out for a small logical size (so its text is
     # legible at this scale) and painted as vectors.
     logical = (700, 500)
@@ -653,7 +647,7 @@ def _figures(p, body, sheet, units):
     p.translate(rect.topLeft())
     p.scale(rect.width() / logical[0], rect.height() / logical[1])
     p.setClipRect(QRectF(0, 0, *logical))
-    _Scene(sheet.case, sheet.sol, units, logical, sheet.date).draw(p)
+    DiagramScene(sheet.case, sheet.sol, units, logical, sheet.date).draw(p)
     p.restore()
     y = rect.bottom() + 6 * _MM
     y = caption(y, "Figure 2. Loads against level",
@@ -670,12 +664,9 @@ def _figures(p, body, sheet, units):
 
 def report_pdf_bytes(case, *, level=None, units="si", date=None, progress=None):
     """The calculation sheet of ``case`` as PDF bytes (see :func:`write_report`)."""
-    if level is not None:
-        level = float(level)
-        if not math.isfinite(level):
-            raise ReportError(f"level must be a finite number, not {level}")
+    level = check_level(level, ReportError)
     du = display_units(units)
-    _ensure_app()
+    ensure_app()
     steps = 4
 
     def tell(k, text):
@@ -693,7 +684,7 @@ def report_pdf_bytes(case, *, level=None, units="si", date=None, progress=None):
     writer.setPageLayout(geo.layout)
     name = case.section.name.strip() or "Untitled section"
     writer.setTitle(f"Hydrostatic loads: {name}")
-    writer.setCreator(_program())
+    writer.setCreator(program_name())
     tell(1, "laying out the text")
     main = _document(sheet.main_html(), writer, geo.body)
     edges = _document(sheet.edges_html(writer, wide.body), writer, wide.body)
@@ -762,9 +753,5 @@ def write_report(case, path, *, level=None, units="si", date=None, progress=None
     core.units.UnitError
         For an unknown unit system.
     """
-    try:
-        check_target(path, "the PDF")
-        data = report_pdf_bytes(case, level=level, units=units, date=date, progress=progress)
-        write_atomically(path, data)
-    except WriteError as exc:
-        raise ReportError(str(exc)) from None
+    write_output(path, "the PDF", lambda: report_pdf_bytes(
+        case, level=level, units=units, date=date, progress=progress), error=ReportError)

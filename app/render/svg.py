@@ -1,10 +1,11 @@
 """Vector (SVG) export of the pressure diagram.
 
-The same drawing as :mod:`wetline.app.render.scene` (the scene is shared), painted
+The same drawing as the PNG (:class:`wetline.app.render.scene.DiagramScene`), painted
 through :class:`PySide6.QtSvg.QSvgGenerator` instead of onto an image, so
 lines, fills and text stay vectors: the outline and the pressure diagrams
 become ``<polyline>``/``<path>`` elements, every label a ``<text>`` element.
-(pyqtgraph's own SVG exporter fails on Qt >= 6.11, see STACK-NOTES.)
+(pyqtgraph's own SVG exporter fails on Qt >= 6.11: Qt now closes paths with
+'Z', which it does not expect.)
 
 The SVG's user units are the scene's pixels (``viewBox="0 0 W H"``); its
 physical size is stated at 96 px per inch, the CSS pixel, so a browser shows
@@ -15,13 +16,17 @@ and renamed over the target.
 
 from __future__ import annotations
 
-import math
-
 from PySide6.QtCore import QBuffer, QByteArray, QIODevice, QRectF, QSize
 from PySide6.QtSvg import QSvgGenerator
 
-from wetline.app.render.scene import ExportError, _check_size, _ensure_app, _program, _Scene
-from wetline.core.atomic_write import WriteError, check_target, write_atomically
+from wetline.app.render.output import (
+    check_level,
+    check_size,
+    ensure_app,
+    program_name,
+    write_output,
+)
+from wetline.app.render.scene import DiagramScene
 from wetline.core.units import display_units
 
 __all__ = ["DEFAULT_SVG_SIZE", "SVG_DPI", "export_svg", "render_svg"]
@@ -44,7 +49,7 @@ def render_svg(case, *, level=None, units="si", size=DEFAULT_SVG_SIZE, date=None
     units : str
         ``"si"`` or ``"us"``.
     size : (int, int)
-        Drawing width and height [px], as for :func:`wetline.app.render.scene.render_diagram`.
+        Drawing width and height [px], as for :func:`wetline.app.render.png.render_diagram`.
     date : datetime.date or str, optional
         Date in the title block; default today.
 
@@ -55,16 +60,13 @@ def render_svg(case, *, level=None, units="si", size=DEFAULT_SVG_SIZE, date=None
 
     Raises
     ------
-    ExportError
+    wetline.app.render.output.ExportError
         For a bad size or level.
     """
-    w, h = _check_size(size)
+    w, h = check_size(size)
     du = display_units(units)
-    if level is not None:
-        level = float(level)
-        if not math.isfinite(level):
-            raise ExportError(f"level must be a finite number, not {level}")
-    _ensure_app()
+    level = check_level(level)
+    ensure_app()
     solution = case.solve(level)
     data = QByteArray()
     buffer = QBuffer(data)
@@ -76,8 +78,8 @@ def render_svg(case, *, level=None, units="si", size=DEFAULT_SVG_SIZE, date=None
     gen.setResolution(SVG_DPI)
     name = case.section.name.strip() or "Untitled section"
     gen.setTitle(f"{name}: pressure diagram")
-    gen.setDescription(f"Hydrostatic pressure diagram drawn by {_program()}")
-    _Scene(case, solution, du.name, (w, h), date).paint(gen)
+    gen.setDescription(f"Hydrostatic pressure diagram drawn by {program_name()}")
+    DiagramScene(case, solution, du.name, (w, h), date).paint(gen)
     buffer.close()
     return bytes(data.data())
 
@@ -89,14 +91,10 @@ def export_svg(case, path, *, level=None, units="si", size=DEFAULT_SVG_SIZE, dat
 
     Raises
     ------
-    ExportError
+    wetline.app.render.output.ExportError
         For a bad size or level, or a path that cannot be written (missing
         folder, a folder in the way, no permission, disk full). Nothing is
         left behind on failure.
     """
-    try:
-        check_target(path, "the SVG")
-        data = render_svg(case, level=level, units=units, size=size, date=date)
-        write_atomically(path, data)
-    except WriteError as exc:
-        raise ExportError(str(exc)) from None
+    write_output(path, "the SVG",
+                 lambda: render_svg(case, level=level, units=units, size=size, date=date))

@@ -16,17 +16,14 @@ from PySide6.QtCore import Qt
 
 from wetline.app.model import editing
 from wetline.app.model.document import fill_range
-from wetline.app.window.canvas import part_colour
+from wetline.app.render.style import LEVEL_MARK, LEVEL_SERIES, part_colours
 from wetline.app.window.grid import LightGrid
 from wetline.app.window.view_range import smallest_span, usable_range
 from wetline.core.section import FLOOR
 
 __all__ = ["LoadChart"]
 
-_FIXED = (("fluid_weight", "liquid weight", "#1d5fa6", Qt.DashLine),
-          ("floor_force", "floor force", "#7a5230", Qt.SolidLine),
-          ("support_reaction", "support reaction", "#222222", Qt.SolidLine))
-CURSOR_COLOUR = "#d04a02"
+CURSOR_COLOUR = LEVEL_MARK
 
 
 class LoadChart(pg.PlotWidget):
@@ -84,11 +81,12 @@ class LoadChart(pg.PlotWidget):
         u = self._doc.units
         x = u.length(table.levels)
         series = [(getattr(table, key), name, colour, style) for key, name, colour, style
-                  in _FIXED]
+                  in LEVEL_SERIES]
+        # The table may still be of the last outline (its parts as well).
+        colours = part_colours(list(section.part_names) + list(table.part_down))
         names = tuple(n for n in table.part_down if n != FLOOR)  # floor = floor force
         for name in names:
-            series.append((table.part_down[name], f"{name} (down)",
-                           part_colour(name, section.part_names), Qt.DotLine))
+            series.append((table.part_down[name], f"{name} (down)", colours[name], Qt.DotLine))
         key = tuple((name, colour) for _, name, colour, _ in series)
         if key != self._series_key:
             # Other parts: new curves and legend. Otherwise (a slider, a
@@ -99,7 +97,8 @@ class LoadChart(pg.PlotWidget):
             self._curves = [plot.plot(name=name, pen=pg.mkPen(colour, width=2, style=style))
                             for _, name, colour, style in series]
             self._series_key = key
-        ys = [u.force(section, y) for y, *_rest in series]
+        scope = self._doc.force_scope(section)
+        ys = [scope.to_display(y) for y, *_rest in series]
         vb = plot.getViewBox()
         for curve, y in zip(self._curves, ys, strict=True):
             curve.setData(x, y)
@@ -107,7 +106,7 @@ class LoadChart(pg.PlotWidget):
             # (A drag step whose curves fit the view keeps the axes: fitting
             # them again every step relabels and repaints both axes.)
             self._fit_view(vb, section, x, ys)
-        labels = (f"Level [{u.length_unit}]", f"Load [{u.force_label(section)}]")
+        labels = (f"Level [{u.length_unit}]", f"Load [{scope.label}]")
         if labels != getattr(self, "_axis_labels", None):  # a new label repaints the axis
             self._axis_labels = labels
             plot.setLabel("bottom", labels[0])

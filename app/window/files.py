@@ -27,8 +27,6 @@ from PySide6.QtCore import QObject, QThread, Signal
 from PySide6.QtWidgets import QApplication
 
 from wetline.app.model import editing
-from wetline.app.model.commands import CaseCommand
-from wetline.app.model.document import fill_range
 from wetline.app.window import dialogs
 from wetline.core.atomic_write import write_atomically
 from wetline.core.coordinates import CoordinateError, format_coordinates, parse_coordinates
@@ -95,16 +93,6 @@ def _base_name(doc):
     if doc.path:
         return Path(doc.path).name.split(".")[0]
     return (doc.section.name.strip() or "section").replace("/", "-")
-
-
-def _refilled(case):
-    """The case with its fill kept if the section can still take it, else
-    filled to the section's top level."""
-    if case.fill_level is not None:
-        lo, hi = fill_range(case.section)
-        if not lo <= case.fill_level <= hi:
-            return case.with_level(case.section.top_level)
-    return case
 
 
 class Transfer(QObject):
@@ -281,7 +269,8 @@ class Transfer(QObject):
             return False
         try:
             self.doc.flush()
-            text = to_csv(edges_table(self.doc.solution, self.doc.units.units))
+            text = to_csv(edges_table(self.doc.solution, self.doc.units.units,
+                                      self.doc.case.length_unit))
             write_atomically(path, text)
         except Exception as exc:
             return self._error("Cannot export the CSV", exc)
@@ -328,11 +317,7 @@ class Transfer(QObject):
     def _replace_section(self, section, text, new=False):
         """The outline replaced, as one undo step; ``new``: as a new untitled
         section (an import), else an edit of the open one (a paste)."""
-        case = _refilled(self.doc.case.with_section(section))
-        if new:
-            editing.start_new_section(self.doc, case, text)
-        else:
-            self.doc.undo_stack.push(CaseCommand(self.doc, case, text))
+        editing.import_section(self.doc, section, text, new=new)
         fit = getattr(self._window, "canvas", None)
         if fit is not None:
             fit.fit()

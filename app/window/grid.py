@@ -12,19 +12,12 @@ import math
 import numpy as np
 import pyqtgraph as pg
 
-__all__ = ["LightGrid", "nice_step"]
+from wetline.core.numbers import nice_step
 
+__all__ = ["LightGrid", "GRID_LINES"]
 
-def nice_step(span, target=10):
-    """A 1-2-5 step giving about ``target`` intervals over ``span``."""
-    if not span > 0 or not math.isfinite(span):
-        return 1.0
-    raw = span / target
-    mag = 10 ** math.floor(math.log10(raw))
-    for m in (1, 2, 5, 10):
-        if raw <= m * mag:
-            return m * mag
-    return 10 * mag
+GRID_LINES = 10
+"""About this many grid lines across the view, a 1-2-5 step apart."""
 
 
 class LightGrid(pg.PlotCurveItem):
@@ -48,7 +41,7 @@ class LightGrid(pg.PlotCurveItem):
 
     @staticmethod
     def _lines(a, b):
-        step = nice_step(b - a)
+        step = nice_step((b - a) / GRID_LINES)
         if not (math.isfinite(a) and math.isfinite(b)) or (b - a) / step > 200:
             return np.empty(0)
         return np.arange(math.ceil(a / step), math.floor(b / step) + 1) * step

@@ -25,8 +25,7 @@ from PySide6.QtWidgets import (
 )
 
 from wetline.app.model import editing, recovery
-from wetline.app.model.commands import ReportInfoCommand
-from wetline.app.model.display import DisplayChoice, format_number
+from wetline.app.model.display import DisplayChoice
 from wetline.app.model.document import UNDO_LIMIT, Document
 from wetline.app.window import dialogs
 from wetline.app.window.canvas import SectionCanvas
@@ -35,13 +34,13 @@ from wetline.app.window.files import Transfer
 from wetline.app.window.panels import FillPanel, LiquidPanel, TotalsPanel, parse_number
 from wetline.app.window.tables import EdgesTable, PartsTable, VerticesPane, VerticesTable
 from wetline.app.window.uplift_panel import UpliftPanel
+from wetline.core.numbers import format_number
+from wetline.core.results import CAUTION
 from wetline.core.section import SectionError
 from wetline.core.section_file import SectionFileError, read_section_file, write_section_file
 
-__all__ = ["MainWindow", "CAUTION"]
+__all__ = ["MainWindow"]
 
-CAUTION = ("Hydrostatic loads only: no sloshing, seismic, wind, surge or structural "
-           "capacity. Verify against local codes and licensed practice.")
 MAX_RECENT = 8
 REDO_KEYS = ("Ctrl+Y", "Ctrl+Shift+Z")
 UNIT_CHOICES = (("si", "m"), ("si", "mm"), ("us", "ft"), ("us", "in"))
@@ -560,7 +559,7 @@ class MainWindow(QMainWindow):
             dialogs.show_error(self, "Cannot open the file", f"{path}: {exc}")
             return False
         self.doc.load(case, path)
-        self.canvas._first_fit = True
+        self.canvas.fit_when_drawn()
         self._add_recent(path)
         self._remember_folder(path)
         self._status(f"Opened {path}")
@@ -600,10 +599,7 @@ class MainWindow(QMainWindow):
     def edit_report_info(self):
         """File > Calculation sheet header: one undo step if anything changed."""
         report = dialogs.ask_report_info(self, self.doc.case.report)
-        if report is None or report == self.doc.case.report:
-            return False
-        self.doc.undo_stack.push(ReportInfoCommand(self.doc, report))
-        return True
+        return report is not None and editing.set_report_info(self.doc, report)
 
     def export_dialog(self):
         if self.transfer.refuse_stale("diagram"):
@@ -615,12 +611,12 @@ class MainWindow(QMainWindow):
         return self.export_to(path) if path else False
 
     def export_to(self, path, size=None):
-        """Write the pressure diagram PNG (through :mod:`wetline.app.render.scene`);
+        """Write the pressure diagram PNG (through :mod:`wetline.app.render.png`);
         refused while the outline being edited is invalid."""
         if self.transfer.refuse_stale("diagram"):
             return False
         try:
-            from wetline.app.render import scene
+            from wetline.app.render import png
         except ImportError as exc:
             dialogs.show_error(self, "Export", f"PNG export is not available: {exc}")
             return False
@@ -628,7 +624,7 @@ class MainWindow(QMainWindow):
         if size is not None:
             kwargs["size"] = size
         try:
-            scene.export_png(self.doc.case, path, **kwargs)
+            png.export_png(self.doc.case, path, **kwargs)
         except Exception as exc:
             dialogs.show_error(self, "Export failed", str(exc))
             return False

@@ -24,7 +24,6 @@ from PySide6.QtWidgets import (
 )
 
 from wetline.app.model import editing
-from wetline.app.model.display import format_number
 from wetline.app.model.document import fill_range
 from wetline.app.model.gravity import format_gravity, gravity_from_display, gravity_label
 from wetline.core.fill import FillError, capacity
@@ -36,6 +35,7 @@ from wetline.core.liquids import (
     liquid_from_specific_gravity,
     seawater,
 )
+from wetline.core.numbers import format_number
 
 __all__ = ["LiquidPanel", "FillPanel", "TotalsPanel", "parse_number"]
 
@@ -165,7 +165,7 @@ class LiquidPanel(QGroupBox):
             for w in widgets:
                 w.blockSignals(False)
         self.summary.setText(f"{liquid.name}: {units.fmt_density(liquid.density)} "
-                             f"(SG {liquid.specific_gravity:.4f})\n{liquid.source}")
+                             f"(SG {format_number(liquid.specific_gravity, 5)})\n{liquid.source}")
         _show(self.error, "")
 
     def _on_kind_changed(self, kind):
@@ -410,18 +410,19 @@ class TotalsPanel(QGroupBox):
             self._on_solved(self._doc.solution)
 
     def _on_solved(self, s):
-        u = self._doc.units
+        doc = self._doc
+        u = doc.units
         sec = s.section
+        scope, scale = doc.force_scope(sec), doc.force_scale
         v = self.values
         v["level"].setText(u.fmt_length(s.level))
-        area = format_number(u.units.to_display(s.volume / sec.width, 'area'))
+        area = u.units.text(s.volume / sec.width, "area")
         v["volume"].setText(f"{u.fmt_volume(s.volume)}"
-                            + ("" if sec.kind == "axisymmetric" else
-                               f" ({area} {u.units.label('area')} of section)"))
-        v["weight"].setText(u.fmt_force(sec, s.fluid_weight))
-        v["floor"].setText(u.fmt_force(sec, s.floor_force))
+                            + ("" if sec.kind == "axisymmetric" else f" ({area} of section)"))
+        v["weight"].setText(scope.text(s.fluid_weight, scale=scale))
+        v["floor"].setText(scope.text(s.floor_force, scale=scale))
         held = s.support_reaction < -1e-9 * max(s.fluid_weight, 1e-300)
-        v["support"].setText(u.fmt_force(sec, s.support_reaction)
+        v["support"].setText(scope.text(s.support_reaction, scale=scale)
                              + ("  (held down)" if held else ""))
         if held != getattr(self, "_held", None):  # a style sheet change is costly
             self._held = held
@@ -429,6 +430,6 @@ class TotalsPanel(QGroupBox):
         v["max_pressure"].setText(u.fmt_pressure(s.max_pressure))
         v["spill"].setText(u.fmt_length(sec.spill_level) if sec.spill_level is not None
                            else "none (closed)")
-        self.scope.setText(f"Forces {u.force_scope(sec)}. Support reaction: what the "
+        self.scope.setText(f"Forces {scope.words}. Support reaction: what the "
                            "supports carry downward; negative means held down.")
 

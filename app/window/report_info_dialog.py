@@ -1,7 +1,7 @@
 """The calculation sheet header: project, job reference, prepared by.
 
 A small dialog over :class:`wetline.core.case.ReportInfo`; the main window turns its
-result into one undo command (:class:`wetline.app.model.commands.ReportInfoCommand`). The
+result into one undo step (:func:`wetline.app.model.editing.set_report_info`). The
 fields are printed on every page of the PDF sheet and saved in the section
 file (format version 2, key ``report``).
 """

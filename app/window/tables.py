@@ -23,8 +23,8 @@ from PySide6.QtWidgets import (
 )
 
 from wetline.app.model import editing
-from wetline.app.model.display import format_number
 from wetline.app.window.panels import parse_number
+from wetline.core.numbers import format_number
 from wetline.core.section import AXIS, FLOOR, OPEN
 
 __all__ = ["PartsModel", "EdgesModel", "VerticesModel", "PartsTable", "EdgesTable",
@@ -81,7 +81,7 @@ class PartsModel(_Model):
 
     def _headers(self):
         sol = self._doc.solution
-        f = self._doc.units.force_label(sol.section) if sol else ""
+        f = self._doc.force_scope(sol.section).label if sol else ""
         return ("Part", f"Fx [{f}]", f"Fz [{f}]", f"Down [{f}]", "")
 
     def rowCount(self, parent=QModelIndex()):
@@ -102,18 +102,18 @@ class PartsModel(_Model):
             return None
         name, load = self._rows[index.row()]
         c = index.column()
-        section = self._doc.solution.section
-        u = self._doc.units
+        doc = self._doc
+        scope, scale = doc.force_scope(doc.solution.section), doc.force_scale
         lifted = load.down < 0
         if role == Qt.DisplayRole:
             if c == 0:
                 return name
             if c == 1:
-                return "-" if load.fx is None else format_number(u.force(section, load.fx))
+                return "-" if load.fx is None else scope.number(load.fx, scale=scale)
             if c == 2:
-                return format_number(u.force(section, load.fz))
+                return scope.number(load.fz, scale=scale)
             if c == 3:
-                return format_number(u.force(section, load.down))
+                return scope.number(load.down, scale=scale)
             if c == 4:
                 return "uplift" if lifted else ("down" if load.down > 0 else "")
         if role == Qt.TextAlignmentRole and 0 < c < 4:
@@ -139,7 +139,7 @@ class EdgesModel(_Model):
         p = u.units.label("pressure")
         if sol is None:
             return ()
-        f = u.force_label(sol.section)
+        f = self._doc.force_scope(sol.section).label
         if sol.section.is_axisymmetric:
             q = u.units.label("force_per_length")
             return ("Part", f"Length [{L}]", f"Wetted [{L}]", f"p start [{p}]",
@@ -185,13 +185,14 @@ class EdgesModel(_Model):
             return format_number(u.pressure(sol.p_start[i]))
         if c == 4:
             return format_number(u.pressure(sol.p_end[i]))
+        scope, scale = self._doc.force_scope(s), self._doc.force_scale
         if s.is_axisymmetric:
             if c == 5:
-                return format_number(u.force(s, sol.fz[i]))
+                return scope.number(sol.fz[i], scale=scale)
             hoop = sol.hoop_start[i] if c == 6 else sol.hoop_end[i]
             return format_number(u.units.to_display(hoop, "force_per_length"))
         value = (sol.fx, sol.fz, sol.resultant)[c - 5][i]
-        return format_number(u.force(s, value))
+        return scope.number(value, scale=scale)
 
 
 class VerticesModel(_Model):

@@ -13,8 +13,8 @@ from PySide6.QtWidgets import (
     QVBoxLayout,
 )
 
-from wetline.app.model.display import format_number
 from wetline.app.window.panels import ERROR_STYLE, parse_number
+from wetline.core.numbers import format_number
 from wetline.core.section import SectionError
 from wetline.core.templates import TEMPLATES
 

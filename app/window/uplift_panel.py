@@ -12,8 +12,9 @@ is solved (a level, vertex or liquid change) and each time a resistance or
 the required factor changes: the factor achieved at the current level and at
 the worst level in the fill range, each with its verdict, OK or NOT OK.
 
-Every edit is one undo command (:class:`wetline.app.model.commands.ResistanceCommand`,
-:class:`wetline.app.model.commands.RequiredFactorCommand`); bad input (letters, a
+Every edit is one undo command built by :mod:`wetline.app.model.editing`
+(:func:`~wetline.app.model.editing.set_resistance`,
+:func:`~wetline.app.model.editing.set_required_factor`); bad input (letters, a
 negative value) turns its field red with the reason in its tooltip and in red
 under the fields, and changes nothing. The field keeps what was typed until
 it is corrected or the document's value of that field changes (an undo).
@@ -37,10 +38,11 @@ from PySide6.QtWidgets import (
     QWidget,
 )
 
-from wetline.app.model.commands import RequiredFactorCommand, ResistanceCommand, resistance_unit
+from wetline.app.model import editing
+from wetline.app.render.style import MUTED, NOT_OK_COLOUR, OK_COLOUR
 from wetline.app.window.panels import parse_number
 from wetline.core.case import CaseError
-from wetline.core.report_tables import fmt
+from wetline.core.numbers import format_number
 from wetline.core.uplift import (
     DEFAULT_REQUIRED_FACTOR,
     REQUIRED_FACTOR_SOURCE,
@@ -49,11 +51,9 @@ from wetline.core.uplift import (
     worst_uplifts,
 )
 
-__all__ = ["UpliftPanel", "UpliftChecker", "OK_COLOUR", "NOT_OK_COLOUR"]
+__all__ = ["UpliftPanel", "UpliftChecker"]
 
-OK_COLOUR = "#1b7a3a"
-NOT_OK_COLOUR = "#b00020"
-MUTED = "#6b7480"
+
 INVALID_FIELD_STYLE = (f"QLineEdit {{ border: 1px solid {NOT_OK_COLOUR}; "
                        "background-color: #fdecee; }")
 FIELDS = ("self_weight", "holding_down")
@@ -65,7 +65,7 @@ def verdict_html(ok, factor, level_text=None):
     colour = OK_COLOUR if ok else NOT_OK_COLOUR
     tag = (f'<span style="background-color:{colour}; color:white; font-weight:600;">'
            f'&nbsp;{"OK" if ok else "NOT OK"}&nbsp;</span>')
-    value = "no uplift" if math.isinf(factor) else fmt(factor, 3)
+    value = "no uplift" if math.isinf(factor) else format_number(factor)
     text = f"{tag}<br>{value}"
     if level_text:
         text += f' <span style="color:{MUTED};">at {html.escape(level_text)}</span>'
@@ -251,7 +251,7 @@ class UpliftPanel(QGroupBox):
     def _write_back(self):
         doc = self._doc
         units = doc.units.units
-        q, label = resistance_unit(doc)
+        q, label = doc.units.resistance_unit(doc.section)
         scope = "total" if doc.section.is_axisymmetric else "per m of width"
         titles = ("Part", f"Self-weight\n[{label}]", f"Holding-down\n[{label}]",
                   "Now", "Worst level")
@@ -265,7 +265,7 @@ class UpliftPanel(QGroupBox):
             for field in FIELDS:
                 edit = row.edits[field]
                 value = 0.0 if r is None else getattr(r, field)
-                text = fmt(units.to_display(value, q))
+                text = format_number(units.to_display(value, q), 6)  # an input
                 row.shown[field] = text
                 if self._keeps_bad_input((part, field), value):
                     continue  # what was typed stays, red, until corrected
@@ -273,15 +273,15 @@ class UpliftPanel(QGroupBox):
                 edit.setText(text)
                 edit.blockSignals(False)
         f = doc.case.required_uplift_factor
-        self._factor_shown = fmt(f)
+        self._factor_shown = format_number(f)
         if not self._keeps_bad_input("factor", f):
             self.factor.blockSignals(True)
-            self.factor.setText(fmt(f))
+            self.factor.setText(format_number(f))
             self.factor.blockSignals(False)
         if f == DEFAULT_REQUIRED_FACTOR:
             self.source.setText(f"Required factor: {REQUIRED_FACTOR_SOURCE}.")
         else:
-            self.source.setText(f"Required factor {fmt(f)} set for this case "
+            self.source.setText(f"Required factor {format_number(f)} set for this case "
                                 f"({REQUIRED_FACTOR_SOURCE}).")
         self.default_button.setEnabled(f != DEFAULT_REQUIRED_FACTOR)
         self._show_errors()
@@ -306,7 +306,7 @@ class UpliftPanel(QGroupBox):
         self.results = self._checker.check(case, sol) if case.resistances else []
         by_part = {r.part: r for r in self.results}
         units = doc.units
-        force = units.force_label(case.section)
+        scope, scale = doc.force_scope(case.section), doc.force_scale
         lines = []
         for part, row in self._rows.items():
             r = by_part.get(part)
@@ -325,14 +325,13 @@ class UpliftPanel(QGroupBox):
             row.worst.setText(verdict_html(r.ok, r.worst_factor, level_worst))
             row.worst.setToolTip("The level in the fill range with the greatest uplift")
             lines.append(
-                f"{part}: resistance {units.fmt_force(case.section, r.resistance)}; uplift "
-                f"{units.fmt_force(case.section, r.uplift)} now, "
-                f"{units.fmt_force(case.section, r.worst_uplift)} at {level_worst} (worst); "
-                f"required {fmt(r.required_factor, 3)}")
+                f"{part}: resistance {scope.text(r.resistance)}; uplift "
+                f"{scope.text(r.uplift, scale=scale)} now, "
+                f"{scope.text(r.worst_uplift)} at {level_worst} (worst); "
+                f"required {format_number(r.required_factor)}")
         if not lines:
             lines.append("Enter a self-weight or holding-down resistance of a part to check "
-                         f"it against uplift. Forces {units.force_scope(case.section)} "
-                         f"({force}).")
+                         f"it against uplift. Forces {scope.words} ({scope.label}).")
         self.details.setText("\n".join(lines))
 
     # ------------------------------------------------------- view -> document
@@ -384,7 +383,7 @@ class UpliftPanel(QGroupBox):
             return  # unchanged (focus passing through), or typed back
         what = "Self-weight" if field == "self_weight" else "Holding-down"
         doc = self._doc
-        q, _ = resistance_unit(doc)
+        q, _ = doc.units.resistance_unit(doc.section)
         r = doc.case.resistance_map.get(part)
         current = 0.0 if r is None else getattr(r, field)
         try:
@@ -392,12 +391,10 @@ class UpliftPanel(QGroupBox):
             value = doc.units.units.from_display(parse_number(text, f"{what} of {part}"), q)
             if value < 0:
                 raise ValueError(f"{what} of {part} must be >= 0")
-            command = ResistanceCommand(doc, part, field, value)
+            self._unmark(key)  # before the edit: the document's change repaints the row
+            editing.set_resistance(doc, part, field, value)
         except ValueError as exc:
             self._mark(key, edit, str(exc), current)
-            return
-        self._unmark(key)
-        doc.undo_stack.push(command)
 
     def _on_factor_edited(self):
         if self.factor.text().strip() == self._factor_shown:
@@ -419,9 +416,7 @@ class UpliftPanel(QGroupBox):
 
     def set_required_factor(self, value):
         """Push the command that sets the required factor (if it changes)."""
-        doc = self._doc
-        if value != doc.case.required_uplift_factor:
-            doc.undo_stack.push(RequiredFactorCommand(doc, value))
+        editing.set_required_factor(self._doc, value)
 
 
 def _plain(rich):

@@ -109,10 +109,12 @@ def test_table_csv_has_units_in_the_header_and_matches_solve(capsys, sample):
     assert status == 0
     rows = list(csv.reader(io.StringIO(out)))
     header, body = rows[0], rows[1:]
-    assert header[0] == "level [m]" and "floor force [kN]" in header
+    # The chamber is 1 m wide: forces per m run.
+    assert header[0] == "level [m]" and "floor force [kN/m]" in header
     assert len(body) == 11
     case = read_section_file(path)
-    k = header.index("floor force [kN]")
+    assert case.section.width == 1.0
+    k = header.index("floor force [kN/m]")
     for r in body:
         level = float(r[0])
         ref = solve(case.section, level, case.liquid.density, case.gravity)
@@ -167,3 +169,31 @@ def test_solve_path_imports_no_qt(sample):
     assert proc.returncode == 0
     assert proc.stderr.strip() == "[]"
     assert math.isfinite(json.loads(proc.stdout)["fluid_weight"])
+
+
+@pytest.mark.parametrize("unit", ["m", "ft"])
+def test_us_units_on_a_unit_run_are_per_foot_run(capsys, tmp_path, unit, run_case):
+    # run_case (tests/conftest.py): per run the floor carries 29419.95 N/m
+    # = 2016 lbf/ft (NIST SP 811: 1 lbf/ft = 14.5939029372 N/m).
+    from wetline.core.section_file import write_section_file
+
+    path = tmp_path / f"tank_{unit}.section.json"
+    write_section_file(run_case(unit), path)
+    status, out, _ = run(capsys, "solve", str(path), "--units", "us")
+    assert status == 0
+    assert "forces in lbf/ft per ft run" in out and "per m run" not in out
+    floor = next(line for line in out.splitlines() if line.strip().startswith("floor force"))
+    assert floor.split()[2:4] == ["2016", "lbf/ft"]
+    assert "fx [lbf/ft]" in out
+    status, out, _ = run(capsys, "solve", str(path), "--units", "us", "--csv")
+    rows = list(csv.reader(io.StringIO(out)))
+    k = rows[0].index("fz [lbf/ft]")
+    fz = sum(float(r[k]) for r in rows[1:] if r[1] == "floor")
+    assert fz == pytest.approx(-29419.95 / (4.4482216152605 / 0.3048), rel=1e-12)
+    status, out, _ = run(capsys, "table", str(path), "--units", "us", "--csv", "--steps", "3")
+    header = next(csv.reader(io.StringIO(out)))
+    assert "floor force [lbf/ft]" in header and "level [ft]" in header
+    # The results record stays SI: N on the section's width.
+    status, out, _ = run(capsys, "solve", str(path), "--json")
+    width = 1.0 if unit == "m" else 0.3048
+    assert json.loads(out)["floor_force"] == pytest.approx(29419.95 * width, rel=1e-12)

@@ -93,7 +93,7 @@ def test_delete_down_to_two_vertices_is_refused_as_draft(qtbot):
 
 def test_liquid_and_units_commands_have_readable_text(doc):
     editing.set_liquid(doc, seawater(10.0, 35.0))
-    assert doc.undo_stack.undoText() == "Liquid: seawater 10.0 C, 35.0 g/kg"
+    assert doc.undo_stack.undoText() == "Liquid: seawater 10 C, 35 g/kg"
     editing.set_units(doc, DisplayChoice("us", "in"))
     assert doc.undo_stack.undoText() == "Units: US customary, in"
     doc.undo_stack.undo()
@@ -219,3 +219,55 @@ def test_set_case_during_a_preview_ends_it(doc):
     doc.flush()
     assert doc.preview is None
     assert doc.solution.section is doc.section and doc.solution.level == 1.0
+
+
+def test_uplift_inputs_are_edits_with_readable_text(doc):
+    from wetline.core.uplift import DEFAULT_REQUIRED_FACTOR
+
+    before = doc.case
+    editing.set_resistance(doc, "lid", "self_weight", 1800.0)
+    assert doc.undo_stack.undoText() == "Lid self-weight 1.8 kN/m"
+    editing.set_resistance(doc, "lid", "self_weight", 1800.0)  # unchanged: no step
+    assert doc.undo_stack.count() == 1
+    with pytest.raises(ValueError):
+        editing.set_resistance(doc, "lid", "holding_down", -1.0)
+    with pytest.raises(ValueError, match="no resistance field"):
+        editing.set_resistance(doc, "lid", "bolts", 1.0)
+    editing.set_required_factor(doc, 1.25)
+    assert doc.undo_stack.undoText() == "Required uplift factor 1.25"
+    editing.set_required_factor(doc, DEFAULT_REQUIRED_FACTOR)
+    assert doc.undo_stack.undoText() == "Required uplift factor: default"
+    assert doc.case.resistance_map["lid"].self_weight == 1800.0
+    for _ in range(3):
+        doc.undo_stack.undo()
+    assert doc.case is before
+
+
+def test_sheet_header_is_one_edit_naming_what_changed(doc):
+    from wetline.core.case import ReportInfo
+
+    assert editing.set_report_info(doc, ReportInfo(project="Inlet works", prepared_by="team"))
+    assert doc.undo_stack.undoText() == "Sheet header: project, prepared by"
+    assert not editing.set_report_info(doc, doc.case.report)  # unchanged: no step
+    assert doc.undo_stack.count() == 1
+
+
+def test_imported_outline_keeps_the_fill_it_can(doc):
+    from wetline.core.section import Section
+
+    level = doc.case.fill_level
+    tall = Section.build([[0, 0], [4, 0], [4, 9], [0, 9]], parts=["floor", "wall", "open", "wall"])
+    editing.import_section(doc, tall, "Import 4 vertices")
+    assert doc.case.fill_level == level and doc.undo_stack.undoText() == "Import 4 vertices"
+    low = Section.build([[0, 0], [4, 0], [4, 0.5], [0, 0.5]], parts=["floor", "wall", "open",
+                                                                     "wall"])
+    editing.import_section(doc, low, "Import 4 vertices")
+    assert doc.case.fill_level == low.top_level  # the old level would spill: filled to the top
+
+
+def test_drawn_outline_becomes_the_section_or_the_draft(doc):
+    assert editing.draw_outline(doc, [(0, 0), (3, 0), (3, 2), (0, 2)])
+    assert doc.section.n_edges == 4 and set(doc.section.parts) == {"wall"}
+    assert doc.undo_stack.undoText() == "Draw new outline"
+    assert not editing.draw_outline(doc, [(0, 0), (3, 0), (0, 2), (3, 2)])  # crosses itself
+    assert doc.draft is not None and "crosses" in str(doc.draft.error)

@@ -1,4 +1,4 @@
-"""Tests of wetline.app.render.scene: the headless PNG of the pressure diagram."""
+"""Tests of wetline.app.render.png: the headless PNG of the pressure diagram."""
 
 import os
 
@@ -12,14 +12,11 @@ import pytest
 from PySide6.QtGui import QColor, QImage
 
 import wetline.core.atomic_write as atomic_write
-from wetline.app.render import scene as ex
-from wetline.app.render.scene import (
-    CAUTION,
-    DEFAULT_SIZE,
-    ExportError,
-    export_png,
-    render_diagram,
-)
+from wetline.app.render import png, style, text_blocks
+from wetline.app.render.label_painter import LabelPainter
+from wetline.app.render.output import ExportError
+from wetline.app.render.png import DEFAULT_SIZE, export_png, render_diagram
+from wetline.core.results import CAUTION
 from wetline.core.section_file import read_section_file, write_section_file
 from wetline.core.templates import TEMPLATES
 
@@ -67,8 +64,8 @@ def test_every_template_exports_a_drawn_png(tmp_path, key, template_case):
     out = tmp_path / f"{key}.png"
     export_png(template_case(key), out, size=SMALL, date=DATE)
     rgb = assert_drawn(out, SMALL)
-    assert near(rgb, ex.DIAGRAM_LINE, 10).sum() > 50, "no pressure diagram"
-    assert near(rgb, ex.LOAD, 10).sum() > 20, "no resultant arrow"
+    assert near(rgb, style.DIAGRAM_LINE, 10).sum() > 50, "no pressure diagram"
+    assert near(rgb, style.LOAD, 10).sum() > 20, "no resultant arrow"
     assert list(tmp_path.iterdir()) == [out], "a temporary file was left behind"
 
 
@@ -89,13 +86,13 @@ def test_us_units(tmp_path, template_case):
 
 def test_us_units_are_labelled_in_feet_psi_and_lbf(monkeypatch, template_case):
     texts = []
-    real = ex._Placer._draw
+    real = LabelPainter.draw_label
 
     def spy(self, p, label, rect):
         texts.append(label.text)
         return real(self, p, label, rect)
 
-    monkeypatch.setattr(ex._Placer, "_draw", spy)
+    monkeypatch.setattr(LabelPainter, "draw_label", spy)
     render_diagram(template_case("open_tank"), units="us", size=SMALL)
     joined = " ".join(texts)
     assert "psi" in joined and "lbf" in joined and "ft" in joined
@@ -106,17 +103,17 @@ def test_closed_tank_above_its_roof_draws_uplift(tmp_path, monkeypatch, template
     case = template_case("closed_tank")  # default level 1.5 m above the roof
     assert case.solve().head_above_top > 0
     texts = []
-    real = ex._Placer._draw
+    real = LabelPainter.draw_label
 
     def spy(self, p, label, rect):
         texts.append(label.text)
         return real(self, p, label, rect)
 
-    monkeypatch.setattr(ex._Placer, "_draw", spy)
+    monkeypatch.setattr(LabelPainter, "draw_label", spy)
     out = tmp_path / "closed.png"
     export_png(case, out, size=SMALL)
     rgb = assert_drawn(out, SMALL)
-    assert near(rgb, ex.UPLIFT, 10).sum() > 20, "no uplift colour in the image"
+    assert near(rgb, style.UPLIFT, 10).sum() > 20, "no uplift colour in the image"
     assert any(t.startswith("roof: uplift") for t in texts), texts
     assert any("standpipe" in t for t in texts), texts
 
@@ -125,7 +122,7 @@ def test_open_tank_draws_no_uplift(template_case):
     rgb = pixels(render_diagram(template_case("open_tank"), size=SMALL))
     # The legend shows the uplift arrow, a few pixels; the drawing has none.
     h, w = rgb.shape[:2]
-    assert near(rgb[:, : int(0.5 * w)], ex.UPLIFT, 10).sum() == 0
+    assert near(rgb[:, : int(0.5 * w)], style.UPLIFT, 10).sum() == 0
 
 
 def test_axisymmetric_template(tmp_path, template_case):
@@ -166,7 +163,8 @@ def test_render_returns_an_image_of_the_size_asked(template_case):
 def test_title_block_states_the_case(monkeypatch, template_case):
     """Every fact the brief asks for reaches the painter."""
     texts = []
-    for cls in (ex._Rows, ex._Note, ex._Title, ex._Caution, ex._Heading, ex._Table):
+    for cls in (text_blocks.Rows, text_blocks.Note, text_blocks.Title, text_blocks.Caution,
+                text_blocks.Heading, text_blocks.Table):
         real = cls.draw
 
         def spy(self, p, fonts, x, y, width, _real=real):
@@ -178,7 +176,7 @@ def test_title_block_states_the_case(monkeypatch, template_case):
     render_diagram(case, size=SMALL, date=DATE)
     text = " ".join(texts)
     for expected in ("Pump sump with overhanging lid", "fresh water", "kg/m3", "IAPWS-95",
-                     "9.80665 m/s2", "2.000 m", "Liquid volume", "Liquid weight",
+                     "9.80665 m/s2", "('Level', '2 m', None)", "Liquid volume", "Liquid weight",
                      "Floor force", "Support reaction", "held down", "Max. pressure",
                      "per m run", "2026-01-02", "kPa", "kN", CAUTION, "uplift"):
         assert expected in text, expected
@@ -186,42 +184,28 @@ def test_title_block_states_the_case(monkeypatch, template_case):
 
 def test_capped_level_is_noted(monkeypatch, template_case):
     texts = []
-    real = ex._Rows.draw
+    real = text_blocks.Rows.draw
 
     def spy(self, p, fonts, x, y, width):
         texts.extend(v for _, v, _ in self.rows)
         return real(self, p, fonts, x, y, width)
 
-    monkeypatch.setattr(ex._Rows, "draw", spy)
+    monkeypatch.setattr(text_blocks.Rows, "draw", spy)
     render_diagram(template_case("open_tank"), level=10.0, size=SMALL)
-    assert "2.500 m, capped at spill level" in texts
+    assert "2.5 m, capped at spill level" in texts
 
 
 def test_date_defaults_to_today(monkeypatch, template_case):
     texts = []
-    real = ex._Rows.draw
+    real = text_blocks.Rows.draw
 
     def spy(self, p, fonts, x, y, width):
         texts.extend(v for _, v, _ in self.rows)
         return real(self, p, fonts, x, y, width)
 
-    monkeypatch.setattr(ex._Rows, "draw", spy)
+    monkeypatch.setattr(text_blocks.Rows, "draw", spy)
     render_diagram(template_case("open_tank"), size=SMALL)
     assert datetime.date.today().isoformat() in texts
-
-
-# ------------------------------------------------------------ resultants
-def test_runs_split_a_part_into_its_separate_pieces():
-    assert ex._runs(["floor", "wall", "open", "wall"]) == [
-        ("floor", [0]), ("wall", [1]), ("open", [2]), ("wall", [3])]
-    assert ex._runs(["wall", "wall", "floor", "wall"]) == [("floor", [2]), ("wall", [3, 0, 1])]
-    assert ex._runs(["wall"] * 3) == [("wall", [0, 1, 2])]
-
-
-def test_wetted_segment_is_cut_at_the_free_surface():
-    seg = ex._wetted_segment(2.0, 0.0, 2.0, 3.0, 1.5, 1000.0)
-    assert seg == pytest.approx((2.0, 0.0, 1500.0, 2.0, 1.5, 0.0))
-    assert ex._wetted_segment(0.0, 2.0, 1.0, 2.0, 1.5, 1000.0) is None
 
 
 # ---------------------------------------------------------------- errors
@@ -297,7 +281,7 @@ def test_export_command_reads_the_file_and_converts_the_level(tmp_path, monkeypa
     def fake_export(case, path, **kwargs):
         seen.update(case=case, path=path, **kwargs)
 
-    monkeypatch.setattr(ex, "export_png", fake_export)
+    monkeypatch.setattr(png, "export_png", fake_export)
     out = str(tmp_path / "out.png")
     assert main(["export", str(src), "--png", out, "--level", "1200", "--units", "us",
                  "--size", "900x700"]) == 0

@@ -12,8 +12,11 @@ import numpy as np
 import pytest
 
 from wetline.app.cli.main import main
-from wetline.app.render import scene as ex
-from wetline.app.render.svg import ExportError, export_svg, render_svg
+from wetline.app.render.output import ExportError
+from wetline.app.render.scene import DiagramScene
+from wetline.app.render.style import part_colours
+from wetline.app.render.svg import export_svg, render_svg
+from wetline.core.force_scope import force_scope
 from wetline.core.section import OPEN
 from wetline.core.units import display_units
 
@@ -24,9 +27,9 @@ DATE = datetime.date(2026, 1, 2)
 
 def outline_segments(root, case, size):
     """Two-point polylines drawn with the outline's pen (width 3 lw)."""
-    lw = ex._Scene(case, case.solve(), "si", size, DATE).lw
+    lw = DiagramScene(case, case.solve(), "si", size, DATE).line_width
     width = f"{3.0 * lw:.6g}"
-    colours = set(ex._part_colours(case.section).values())
+    colours = set(part_colours(case.section.part_names).values())
     segs = []
     for g in root.iter(SVG + "g"):
         if g.get("stroke") not in colours:
@@ -84,9 +87,9 @@ def test_title_and_text_elements_hold_the_name_and_totals(tmp_path, template_cas
     texts = [e.text or "" for e in root.iter(SVG + "text")]
     assert case.section.name in texts
     sol = case.solve()
-    du = display_units("si")
-    floor = f"{ex._fmt(du.to_display(sol.floor_force, 'force'))} kN"
-    weight = f"{ex._fmt(du.to_display(sol.fluid_weight, 'force'))} kN"
+    scope = force_scope(case.section, display_units("si"), case.length_unit)
+    floor, weight = scope.text(sol.floor_force), scope.text(sol.fluid_weight)
+    assert floor.endswith(" kN/m")  # the sump is 1 m wide: per m run
     assert floor in texts and weight in texts
     assert "2026-01-02" in texts
 

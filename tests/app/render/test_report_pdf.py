@@ -14,8 +14,9 @@ import pytest
 
 from wetline.app.render.sheet import ReportError, report_pdf_bytes, write_report
 from wetline.core.case import Case, ReportInfo
-from wetline.core.report_tables import fmt
-from wetline.core.results import ASSUMPTIONS, CAUTIONS
+from wetline.core.force_scope import force_scope
+from wetline.core.numbers import format_number
+from wetline.core.results import ASSUMPTIONS, CAUTION
 from wetline.core.section import Section
 from wetline.core.units import display_units
 from wetline.core.uplift import REQUIRED_FACTOR_SOURCE, UPLIFT_CAUTION, PartResistance
@@ -74,11 +75,12 @@ def test_totals_are_printed_as_the_tables_format_them(sheet):
     text = " ".join(texts)
     sol = case.solve()
     du = display_units("si")
+    scope = force_scope(case.section, du, case.length_unit)
     for value in (sol.fluid_weight, sol.floor_force, sol.support_reaction):
-        assert fmt(du.to_display(value, "force")) in text
-    assert fmt(du.to_display(sol.max_pressure, "pressure")) in text
-    assert fmt(sol.volume) in text
-    assert "per m run" in text
+        assert scope.number(value) in text
+    assert format_number(du.to_display(sol.max_pressure, "pressure")) in text
+    assert format_number(sol.volume) in text
+    assert "per m run" in text and "[kN/m]" in text
 
 
 def test_uplift_verdict_factor_and_its_source(sheet):
@@ -86,8 +88,8 @@ def test_uplift_verdict_factor_and_its_source(sheet):
     text = " ".join(texts)
     (r,) = case.uplift()
     assert r.verdict == "NOT OK"
-    assert f"lid: NOT OK (worst factor {fmt(r.worst_factor, 4)}" in text
-    assert fmt(r.worst_factor) in text and fmt(r.factor) in text
+    assert f"lid: NOT OK (worst factor {format_number(r.worst_factor)}" in text
+    assert format_number(r.worst_factor) in text and format_number(r.factor) in text
     assert REQUIRED_FACTOR_SOURCE in text
     assert UPLIFT_CAUTION in text
     assert "Required factor 1.111" in text
@@ -106,7 +108,7 @@ def test_inputs_method_and_cautions(sheet):
     assert "9.80665 m/s2" in text
     assert "p = ρ g (h − z)" in text
     assert "Çengel & Cimbala" in text and "Munson" in text
-    assert CAUTIONS in text
+    assert CAUTION in text
     for a in ASSUMPTIONS:
         assert a in text
     # The outline, vertex by vertex, in the display unit.
@@ -122,7 +124,7 @@ def test_per_edge_results_and_figures(sheet):
     sol = case.solve()
     for i in range(case.section.n_edges):
         if np.isfinite(sol.centre_of_pressure[i]).all():
-            assert fmt(sol.centre_of_pressure[i, 1]) in text
+            assert format_number(sol.centre_of_pressure[i, 1]) in text
 
 
 def test_fonts_are_embedded(sheet):
@@ -152,7 +154,7 @@ def test_us_units_and_a_section_wider_than_a_metre(template_case):
     case = case.with_section(case.section.replace(width=2.5))
     text = " ".join(pages_text(report_pdf_bytes(case, units="us", date=DATE))[0])
     assert "lbf" in text and "psi" in text
-    assert "for a width of 8.2021 ft" in text  # 2.5 m / 0.3048
+    assert "for a width of 8.202 ft" in text  # 2.5 m / 0.3048
     assert "per m run" not in text
 
 

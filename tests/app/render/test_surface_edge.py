@@ -21,7 +21,7 @@ from wetline.app.render.geometry import (
     run_resultants,
     wetted_edges,
 )
-from wetline.app.render.scene import render_diagram
+from wetline.app.render.png import render_diagram
 from wetline.core.case import Case
 from wetline.core.section import Section
 

@@ -12,7 +12,6 @@ from PySide6.QtCore import QTimer
 from PySide6.QtWidgets import QApplication, QPushButton
 
 from wetline.app.model import editing
-from wetline.app.model.commands import ReportInfoCommand, ResistanceCommand
 from wetline.app.model.display import DisplayChoice
 from wetline.app.window import dialogs
 from wetline.core.case import Case, ReportInfo
@@ -30,7 +29,7 @@ def sump_window(make_window, settle, sample):
     w = make_window()
     assert w.open_path(str(sample("sump_with_lid")))
     editing.set_liquid(w.doc, custom_liquid(1100.0))  # something an import must keep
-    w.doc.undo_stack.push(ResistanceCommand(w.doc, "lid", "self_weight", 1800.0))
+    editing.set_resistance(w.doc, "lid", "self_weight", 1800.0)
     settle(w)
     return w
 
@@ -70,8 +69,8 @@ def test_file_menu_has_import_export_and_header(make_window):
 def test_pdf_sheet_from_the_menu_states_the_uplift_verdict(
         sump_window, qtbot, tmp_path, monkeypatch, no_dialogs):
     w = sump_window
-    w.doc.undo_stack.push(ReportInfoCommand(
-        w.doc, ReportInfo("Inlet works upgrade", "C-0417", "design team")))
+    assert editing.set_report_info(
+        w.doc, ReportInfo("Inlet works upgrade", "C-0417", "design team"))
     out = tmp_path / "calc.pdf"
     asked = []
     monkeypatch.setattr(dialogs, "ask_export_file",
@@ -150,11 +149,14 @@ def test_edge_csv_in_the_display_units(sump_window, tmp_path, monkeypatch):
     rows = list(csv.reader(io.StringIO(out.read_text())))
     header = rows[0]
     assert header[:3] == ["edge", "part", "x start [in]"]
-    assert "p start [psi]" in header and "fz [lbf]" in header
+    # The sump is 1 m wide: forces per run, in lbf/ft (NIST SP 811: 1 lbf =
+    # 4.4482216152605 N, 1 ft = 0.3048 m).
+    assert w.doc.section.width == 1.0
+    assert "p start [psi]" in header and "fz [lbf/ft]" in header
     assert len(rows) - 1 == w.doc.section.n_edges
-    fz = sum(float(r[header.index("fz [lbf]")]) for r in rows[1:] if r[1] == "floor")
+    fz = sum(float(r[header.index("fz [lbf/ft]")]) for r in rows[1:] if r[1] == "floor")
     sol = w.doc.solution
-    assert fz == pytest.approx(sol.parts["floor"].fz / 4.4482216152605)
+    assert fz == pytest.approx(sol.parts["floor"].fz / (4.4482216152605 / 0.3048))
 
 
 def test_level_table_csv(sump_window, tmp_path, monkeypatch):
@@ -163,7 +165,7 @@ def test_level_table_csv(sump_window, tmp_path, monkeypatch):
     monkeypatch.setattr(dialogs, "ask_export_file", lambda *a: str(out))
     w.actions_by_name["export_level_csv"].trigger()
     rows = list(csv.reader(io.StringIO(out.read_text())))
-    assert rows[0][0] == "level [m]" and any("[kN]" in h for h in rows[0])
+    assert rows[0][0] == "level [m]" and any("[kN/m]" in h for h in rows[0])
     assert len(rows) == 1 + 51
     assert float(rows[-1][0]) == pytest.approx(2.8)
 

@@ -4,11 +4,11 @@ are left out."""
 
 import itertools
 
+import numpy as np
 import pytest
 
-from wetline.app.model.display import format_number
 from wetline.app.render.labels import LabelLayout, label_box
-from wetline.app.window.canvas import LABEL_MARGIN
+from wetline.app.window.canvas_labels import LABEL_MARGIN
 from wetline.core.liquids import seawater
 from wetline.core.section_file import read_section_file
 
@@ -16,7 +16,7 @@ from wetline.core.section_file import read_section_file
 def _text_rects(canvas):
     """Scene rectangles of the visible labels' text (without the margin)."""
     rects = []
-    for item in canvas._labels[:canvas._labels_used]:
+    for item in canvas.labels.items[:canvas.labels.used]:
         r = item.mapRectToScene(item.textItem.mapRectToParent(item.textItem.boundingRect()))
         rects.append((item.toPlainText(), r.adjusted(LABEL_MARGIN, LABEL_MARGIN,
                                                       -LABEL_MARGIN, -LABEL_MARGIN)))
@@ -50,10 +50,10 @@ def test_sump_lid_labels_keep_off_the_arrows(make_window, settle, sample):
     case = read_section_file(sample("sump_with_lid"))
     w = make_window(case)
     c = w.canvas
-    px, pz = c._px
+    px, pz = c.labels.px
     boxes = c.label_boxes()
     # The resultant shafts (as drawn) do not pass through any label's text.
-    for item in (c._down, c._up):
+    for item in (c.load_layer.down, c.load_layer.up):
         x, z = item.getData()
         if x is None:
             continue
@@ -66,20 +66,20 @@ def test_sump_lid_labels_keep_off_the_arrows(make_window, settle, sample):
     # The pressure under the lid (equal at both its ends and at the top of
     # the wall below) is labelled once there, not three times.
     u = w.doc.units
-    lid_p = f"{format_number(u.pressure(w.doc.solution.p_start[2]), 3)} kPa"
+    lid_p = u.fmt_pressure(w.doc.solution.p_start[2])
     assert c.shown_labels().count(lid_p) == 1
 
 
 def test_layout_skips_optional_and_moves_required_labels():
     layout = LabelLayout()
-    assert layout.place(0, 0, 100, 20, (0, 1)) == (0.0, 0.0)
-    assert layout.place(10, 0, 60, 20, (0, 1)) is None  # optional: left out
-    shift = layout.place(10, 0, 60, 20, (0, 1), required=True)
+    assert layout.place_anchored(0, 0, 100, 20, (0, 1)) == (0.0, 0.0)
+    assert layout.place_anchored(10, 0, 60, 20, (0, 1)) is None  # optional: left out
+    shift = layout.place_anchored(10, 0, 60, 20, (0, 1), required=True)
     assert shift is not None and shift != (0.0, 0.0)
     a, b = layout.boxes
     assert not (a[0] < b[2] and b[0] < a[2] and a[1] < b[3] and b[1] < a[3])
     layout.add_obstacle(200, -5, 260, 5)
-    assert layout.place(190, 0, 30, 10, (0, 0.5)) is None
+    assert layout.place_anchored(190, 0, 30, 10, (0, 0.5)) is None
 
 
 def test_label_box_follows_the_anchor():
@@ -92,8 +92,6 @@ def test_label_box_follows_the_anchor():
 def test_labels_fit_the_repaint_budget(make_window, settle):
     # Not a timing test: the layout works on a few dozen boxes, however many
     # vertices (handles are obstacles only on small outlines).
-    import numpy as np
-
     from wetline.core.case import Case
     from wetline.core.section import Section
 
@@ -102,5 +100,44 @@ def test_labels_fit_the_repaint_budget(make_window, settle):
     pts = np.vstack([pts, [[4.0, 3.5], [0.0, 3.5]]])
     parts = ["floor"] * 2999 + ["wall", "open", "wall"]
     w = make_window(Case.default(Section.build(pts, parts=parts), 3.0))
-    layout = w.canvas._layout
+    layout = w.canvas.labels.layout
     assert len(layout.obstacles) < 200 and len(layout.boxes) < 40
+
+
+def test_a_vertex_dragged_a_million_sizes_away_keeps_the_layout_bounded(make_window, settle):
+    # Issue 7 "under load": the label layout must not grow with the drawing.
+    # Not a timing test: the layout's own count of item tests and kept
+    # obstacles stays within fixed bounds.
+    from wetline.app.model import editing
+    from wetline.app.render.labels import MAX_CANDIDATES, MAX_LABELS
+
+    w = make_window()
+    size = float(np.ptp(w.doc.section.outline, axis=0).max())
+    x, z = w.doc.section.outline[3]
+    editing.move_vertex(w.doc, 3, x + 1e6 * size, z)
+    settle(w)
+    assert w.doc.section.outline[3, 0] == pytest.approx(x + 1e6 * size)
+    layout = w.canvas.labels.layout
+    requests = len(w.canvas.labels.requests)
+    assert requests < MAX_LABELS
+    assert layout.candidates_tried <= 2 * MAX_CANDIDATES * requests
+    assert layout.box_tests < 20_000
+    assert len(layout.obstacles) < 200
+
+
+def test_the_layout_engine_bounds_its_work():
+    # Lines a billion pixels long and ten thousand obstacles in one place:
+    # each placement still tests a bounded number of items.
+    from wetline.app.render.labels import MAX_PER_CELL, MAX_WIDE
+
+    layout = LabelLayout(bounds=(-1000, -1000, 1000, 1000), cell=50)
+    for k in range(300):
+        layout.add_line(-1e9, k, 1e9, k + 1e3, soft=False)  # clipped to the bounds
+    for _ in range(10_000):
+        layout.add_obstacle(0, 0, 5, 5)
+    before = layout.box_tests
+    for k in range(50):
+        layout.place([(300 + k, -900, 340 + k, -880)])
+    per_place = (layout.box_tests - before) / 50
+    assert per_place <= 2 * (MAX_WIDE + 4 * MAX_PER_CELL)
+    assert layout.place([(0, 0, 4, 4)]) is None  # the crowded cell is full

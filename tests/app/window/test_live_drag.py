@@ -8,9 +8,9 @@ from PySide6.QtCore import QEvent, QPointF, Qt
 from PySide6.QtGui import QMouseEvent
 from PySide6.QtWidgets import QApplication
 
-from wetline.app.model.display import format_number
 from wetline.core.fill import volume_below
 from wetline.core.level_table import level_table
+from wetline.core.numbers import format_number
 
 
 def _drag_to(w, index, x, z, settle):
@@ -38,13 +38,14 @@ def test_totals_tables_and_chart_show_the_dragged_outline(make_window, settle):
         volume = volume_below(dragged, before.level)
         assert sol.volume == volume
         assert w.totals.values["volume"].text().startswith(u.fmt_volume(volume))
-        assert w.totals.values["weight"].text() == u.fmt_force(dragged, sol.fluid_weight)
-        assert w.totals.values["floor"].text() == u.fmt_force(dragged, sol.floor_force)
+        scope, scale = doc.force_scope(dragged), doc.force_scale
+        assert w.totals.values["weight"].text() == scope.text(sol.fluid_weight, scale=scale)
+        assert w.totals.values["floor"].text() == scope.text(sol.floor_force, scale=scale)
         # Parts table: the floor row's downward load.
         parts = w.parts_table.model()
         row = [parts.index(r, 0).data() for r in range(parts.rowCount())].index("floor")
         assert parts.index(row, 3).data() == format_number(
-            u.force(dragged, sol.parts["floor"].down))
+            scope.to_display(sol.parts["floor"].down))
         # Edges table: the length of the stretched floor edge 0.
         edges = w.edges_table.model()
         assert edges.index(0, 1).data() == format_number(u.length(dragged.geometry.length[0]))
@@ -53,7 +54,7 @@ def test_totals_tables_and_chart_show_the_dragged_outline(make_window, settle):
                             levels=doc.level_table.levels)
         cx, cy = w.chart._curves[0].getData()
         assert cx == pytest.approx(u.length(table.levels))
-        assert cy == pytest.approx(u.force(dragged, table.fluid_weight), rel=1e-12)
+        assert cy == pytest.approx(scope.to_display(table.fluid_weight), rel=1e-12)
         assert w.chart.cursor_level == pytest.approx(sol.level)
         # Vertex table: the dragged vertex's x as the canvas shows it.
         vertices = w.vertices_table.model()
@@ -86,11 +87,11 @@ def test_invalid_drag_step_keeps_last_valid_results_and_marks_fault(make_window,
     _drag_to(w, 1, -1.0, 2.5, settle)  # crosses the far wall
     assert doc.solution is valid
     assert w.totals.values["volume"].text() == valid_text
-    assert w.canvas._fault_text.isVisible()
-    assert "crosses" in w.canvas._fault_text.toPlainText()
-    assert len(w.canvas._draft_curve.getData()[0]) == before.section.n_edges + 1
+    assert w.canvas.outline_layer.fault_text.isVisible()
+    assert "crosses" in w.canvas.outline_layer.fault_text.toPlainText()
+    assert len(w.canvas.outline_layer.draft_curve.getData()[0]) == before.section.n_edges + 1
     _drag_to(w, 1, x + 0.2, z, settle)  # valid again: fault gone, results follow
-    assert not w.canvas._fault_text.isVisible()
+    assert not w.canvas.outline_layer.fault_text.isVisible()
     assert doc.solution.section.outline[1, 0] == pytest.approx(x + 0.2)
     h.dragFinished.emit(1, x + 0.2, z)
     settle(w)
@@ -103,7 +104,7 @@ def test_real_mouse_drag_updates_totals_before_release(make_window, settle):
     vp = c.viewport()
 
     def at(x, z):
-        return c.mapFromScene(c._vb.mapViewToScene(QPointF(x, z))).toPointF()
+        return c.mapFromScene(c.getPlotItem().getViewBox().mapViewToScene(QPointF(x, z))).toPointF()
 
     def send(kind, pos, button, buttons):
         QApplication.sendEvent(vp, QMouseEvent(kind, pos, vp.mapToGlobal(pos), button,

@@ -22,9 +22,9 @@ def test_opens_every_sample(make_window, sample_path, settle):
     assert sample_path.name in w.windowTitle()
     assert not w.isWindowModified()
     assert w.totals.values["floor"].text().startswith(
-        w.doc.units.fmt_force(expected.section, ref.floor_force).split()[0])
+        w.doc.force_scope(expected.section).text(ref.floor_force).split()[0])
     # every part's resultant and the diagram are drawn
-    assert w.canvas._diagram.path().elementCount() > 0
+    assert w.canvas.load_layer.diagram.path().elementCount() > 0
 
 
 def test_drag_vertex_changes_results_and_undo_restores(make_window, settle):
@@ -37,7 +37,7 @@ def test_drag_vertex_changes_results_and_undo_restores(make_window, settle):
     for dx in np.linspace(0.05, 0.6, 8):  # live preview, nothing pushed yet
         h.dragMoved.emit(1, x + dx, z)
     assert w.doc.undo_stack.count() == 0
-    assert w.canvas._preview is not None
+    assert w.doc.preview is not None
     h.dragFinished.emit(1, x + 0.6, z)
     settle(w)
     assert w.doc.undo_stack.count() == 1
@@ -59,11 +59,12 @@ def test_drag_to_crossing_marks_fault_and_keeps_results(make_window, settle):
     h.dragFinished.emit(1, -1.0, 2.5)
     settle(w)
     assert w.doc.draft is not None
-    assert w.canvas._fault_text.isVisible()
-    assert str(w.doc.draft.error) in w.canvas._fault_text.toPlainText()
+    assert w.canvas.outline_layer.fault_text.isVisible()
+    assert str(w.doc.draft.error) in w.canvas.outline_layer.fault_text.toPlainText()
     assert w.doc.case is before and w.doc.solution is sol
     w.undo()  # drops the invalid outline
-    assert w.doc.draft is None and not w.canvas._fault_text.isVisible() or settle(w) is None
+    fault_text = w.canvas.outline_layer.fault_text
+    assert w.doc.draft is None and not fault_text.isVisible() or settle(w) is None
 
 
 def test_slider_moves_chart_cursor_and_totals(make_window, settle):
@@ -122,7 +123,7 @@ def test_edge_selection_syncs_table_and_canvas(make_window, settle):
     w = make_window()
     w.edges_table.selectRow(3)
     assert w.doc.selected_edge == 3
-    assert len(w.canvas._highlight.getData()[0]) == 2
+    assert len(w.canvas.outline_layer.highlight.getData()[0]) == 2
     w.doc.select_edge(1)
     assert w.edges_table.selectionModel().currentIndex().row() == 1
     x, z = (w.doc.section.outline[0] + w.doc.section.outline[1]) / 2
@@ -312,7 +313,7 @@ def test_hover_text_gives_depth_and_pressure(make_window):
     sol = w.doc.solution
     text = w.canvas.describe_point(1.0, sol.level - 1.0)
     p = sol.density * sol.gravity * 1.0
-    assert "depth 1.000 m" in text and w.doc.units.fmt_pressure(p) in text
+    assert "depth 1 m" in text and w.doc.units.fmt_pressure(p) in text
 
 
 def test_launch_opens_window(qtbot, monkeypatch, no_dialogs):
@@ -372,7 +373,7 @@ def test_real_mouse_drag_moves_vertex_in_one_step(make_window, settle):
     vp = c.viewport()
 
     def at(x, z):
-        return c.mapFromScene(c._vb.mapViewToScene(QPointF(x, z))).toPointF()
+        return c.mapFromScene(c.getPlotItem().getViewBox().mapViewToScene(QPointF(x, z))).toPointF()
 
     def send(kind, pos, button, buttons):
         QApplication.sendEvent(vp, QMouseEvent(kind, pos, vp.mapToGlobal(pos), button,
@@ -387,7 +388,7 @@ def test_real_mouse_drag_moves_vertex_in_one_step(make_window, settle):
     assert w.doc.undo_stack.count() == 0  # live preview only
     send(QEvent.MouseButtonRelease, p1, Qt.LeftButton, Qt.NoButton)
     settle(w)
-    pixel = max(c._vb.viewPixelSize())
+    pixel = max(c.getPlotItem().getViewBox().viewPixelSize())
     assert w.doc.section.outline[1] == pytest.approx([x + 0.5, z], abs=2 * pixel)
     assert w.doc.undo_stack.count() == 1
     assert w.doc.undo_stack.undoText() == "Move vertex 1"

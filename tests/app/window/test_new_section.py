@@ -138,7 +138,7 @@ def test_cancel_leaves_everything_as_it_was(entry, opened, answers, monkeypatch,
     if entry == "draw":
         assert draw_square(w) is False
         # the drawing is kept: Save, then finish it again
-        assert w.canvas.mode == "draw" and len(w.canvas._drawn) == 4
+        assert w.canvas.mode == "draw" and len(w.canvas.editor.drawn) == 4
     else:
         start_new(entry, w, monkeypatch, tmp_path)
     settle(w)

@@ -29,7 +29,7 @@ def ranges(monkeypatch):
     seen = []
 
     def spy(w):
-        for name, vb in (("chart", w.chart.getPlotItem().getViewBox()), ("canvas", w.canvas._vb)):
+        for name, vb in (("chart", w.chart.getPlotItem().getViewBox()), ("canvas", w.canvas.getPlotItem().getViewBox())):
             original = vb.setRange
 
             def recording(*args, _orig=original, _name=name, **kwargs):
@@ -96,7 +96,7 @@ def test_the_canvas_fitting_a_degenerate_outline(make_window, ranges, settle, po
     assert canvas
     bad = [r for r in canvas if degenerate(r[2], r[3])]
     assert not bad, bad
-    (x0, x1), (z0, z1) = w.canvas._vb.viewRange()
+    (x0, x1), (z0, z1) = w.canvas.getPlotItem().getViewBox().viewRange()
     assert x0 <= pts[:, 0].min() and pts[:, 0].max() <= x1  # the points are in view
     assert z0 <= pts[:, 1].min() and pts[:, 1].max() <= z1
 
@@ -119,7 +119,7 @@ def test_a_drawing_with_one_point_fits_the_view_around_it(make_window, ranges, s
 def test_zooming_in_stops_at_a_usable_span(make_window, settle):
     w = make_window()
     settle(w)
-    for vb in (w.canvas._vb, w.chart.getPlotItem().getViewBox()):
+    for vb in (w.canvas.getPlotItem().getViewBox(), w.chart.getPlotItem().getViewBox()):
         for _ in range(60):
             vb.scaleBy(s=(0.01, 0.01))
         (x0, x1), (y0, y1) = vb.viewRange()

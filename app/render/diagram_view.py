@@ -1,0 +1,144 @@
+"""The drawing area of the exported diagram: the section mapped onto the page.
+
+:class:`DiagramView` fits the section, its pressure diagrams, the free
+surface and the spill level into the area left by the title block (one
+scale for x and z, z up), sets the scale of the pressure ordinates (the
+largest is a fifth of the section's size), and keeps the labels of the
+area (:class:`wetline.app.render.label_painter.LabelPainter`) off the
+outline. :meth:`DiagramView.draw` paints the layers in order: the mirrored
+half, the liquid, the diagrams, the outline, the free surface, the
+resultants, the pressure values and the scales.
+"""
+
+from __future__ import annotations
+
+import numpy as np
+from PySide6.QtCore import QPointF, QRectF
+from PySide6.QtGui import QColor, QFontMetricsF
+
+from wetline.app.render import load_layers, section_layers
+from wetline.app.render.geometry import axis_edges
+from wetline.app.render.label_painter import LabelPainter
+from wetline.app.render.style import INK, LEFT, MUTED, TOP, WRAP
+from wetline.app.render.text_blocks import text_height
+
+__all__ = ["DiagramView", "ORDINATE_SHARE"]
+
+ORDINATE_SHARE = 0.2
+"""The largest pressure ordinate, as a share of the section's size."""
+
+
+class DiagramView:
+    """The drawing area of a scene, with the mapping from metres to pixels.
+
+    Attributes
+    ----------
+    pressure_scale : float
+        Drawing length of one pascal of ordinate [m/Pa] (0 without pressure).
+    px_per_m : float
+        Pixels per metre of the section.
+    labels : LabelPainter
+        The area's labels.
+    outline_px : numpy.ndarray
+        (M, 4) pixel segments of the outline's walls (not the axis).
+    """
+
+    def __init__(self, scene, area, fonts):
+        self.scene = scene
+        self.area = area
+        self.fonts = fonts
+        f = self.f = fonts.base
+        self.lw = scene.line_width
+        pad = 0.9 * f
+        self.scale_height = 3.6 * f
+        self.inner = area.adjusted(pad, pad, -pad, -pad)
+        kind = "half-section" if scene.axisymmetric else "cross-section"
+        self.caption = (f"Gauge pressure on the walls of the {kind}, drawn outward from the "
+                        f"wall; resultants point at the wall they load.")
+        self.caption_height = (1.35 * f + text_height(fonts.small, self.inner.width(),
+                                                      self.caption) + 0.3 * f)
+        s, sol = scene.section, scene.solution
+        pts = s.outline
+        size = max(float(np.ptp(pts[:, 0])), float(np.ptp(pts[:, 1])))
+        self.pressure_scale = (ORDINATE_SHARE * size / sol.max_pressure
+                               if sol.max_pressure > 0 else 0.0)
+        self.axis_extension = 0.06 * max(s.z_max - s.z_min, 1e-12)
+        self._fit(size)
+        self.labels = LabelPainter(self.inner.adjusted(0, self.caption_height, 0,
+                                                       -self.scale_height), 0.35 * f)
+        px = np.column_stack([self._ox + self.px_per_m * pts[:, 0],
+                              self._oz - self.px_per_m * pts[:, 1]])
+        segments = np.hstack([px, np.roll(px, -1, axis=0)])
+        self.outline_px = segments[~axis_edges(s)]
+        self.labels.avoid_lines(self.outline_px)
+
+    def _fit(self, size):
+        """One scale for x and z that fits everything drawn into the plot area."""
+        sc = self.scene
+        s, sol, w = sc.section, sc.solution, sc.wetted
+        k = self.pressure_scale
+        pts = s.outline
+        bx = [float(pts[:, 0].min()), float(pts[:, 0].max())]
+        bz = [s.z_min, s.z_max]
+        if sc.axisymmetric:
+            bx.append(-bx[1])
+        if w.index.size:
+            bx += [float((w.ax + w.nx * k * w.pa).min()), float((w.ax + w.nx * k * w.pa).max()),
+                   float((w.bx + w.nx * k * w.pb).min()), float((w.bx + w.nx * k * w.pb).max())]
+            bz += [float((w.az + w.nz * k * w.pa).min()), float((w.az + w.nz * k * w.pa).max()),
+                   float((w.bz + w.nz * k * w.pb).min()), float((w.bz + w.nz * k * w.pb).max())]
+        if sol.head_above_top > 0:
+            bz.append(sol.level)
+        if sol.spill_level is not None:
+            bz.append(sol.spill_level)
+        if sc.axisymmetric:  # room for the centre line past both ends
+            bz += [min(bz) - self.axis_extension, max(bz) + self.axis_extension]
+        f = self.f
+        label_w = QFontMetricsF(self.fonts.label).horizontalAdvance(
+            "0000.0 " + sc.units.label("pressure")) + f
+        inner = self.inner
+        plot = QRectF(inner.left() + label_w, inner.top() + self.caption_height + 3.0 * f,
+                      inner.width() - 2 * label_w,
+                      inner.height() - self.caption_height - self.scale_height - 4.8 * f)
+        wx = max(max(bx) - min(bx), 1e-9 * max(size, 1e-9))
+        wz = max(max(bz) - min(bz), 1e-9 * max(size, 1e-9))
+        scale = min(plot.width() / wx, plot.height() / wz)
+        self.px_per_m = scale
+        self._ox = plot.center().x() - scale * 0.5 * (max(bx) + min(bx))
+        self._oz = plot.center().y() + scale * 0.5 * (max(bz) + min(bz))
+
+    def to_px(self, x, z):
+        """The page point [px] of the section point (x, z) [m]."""
+        return QPointF(self._ox + self.px_per_m * x, self._oz - self.px_per_m * z)
+
+    def ordinate(self, x, z, nx, nz, pressure):
+        """Pixel tip of the pressure ordinate ``pressure`` [Pa] drawn from
+        the wall point (x, z) [m] along the outward normal (nx, nz)."""
+        k = self.pressure_scale * pressure
+        return self.to_px(x + nx * k, z + nz * k)
+
+    def draw(self, p):
+        """Paint the caption and every layer of the drawing."""
+        f, inner = self.f, self.inner
+        p.setFont(self.fonts.bold)
+        p.setPen(QColor(INK))
+        p.drawText(QRectF(inner.left(), inner.top(), inner.width(), 1.4 * f), LEFT | TOP,
+                   "PRESSURE DIAGRAM")
+        p.setFont(self.fonts.small)
+        p.setPen(QColor(MUTED))
+        p.drawText(QRectF(inner.left(), inner.top() + 1.35 * f, inner.width(),
+                          self.caption_height), LEFT | TOP | WRAP, self.caption)
+        p.save()
+        p.setClipRect(self.area.adjusted(0, self.caption_height + 0.9 * f, 0, 0))
+        if self.scene.axisymmetric:
+            section_layers.draw_mirror(p, self)
+        section_layers.draw_liquid(p, self)
+        load_layers.draw_diagrams(p, self)
+        section_layers.draw_outline(p, self)
+        section_layers.draw_surface(p, self)
+        load_layers.draw_resultants(p, self)
+        load_layers.draw_pressure_values(p, self)
+        section_layers.draw_scales(p, self, QRectF(inner.left(),
+                                                   inner.bottom() - self.scale_height,
+                                                   inner.width(), self.scale_height))
+        p.restore()

@@ -1,0 +1,186 @@
+"""The canvas's text labels: asked for in order of importance while the
+loads are drawn, laid out in pixels by the one layout engine
+(:class:`wetline.app.render.labels.LabelLayout`) and shown with a small pool
+of ``pyqtgraph.TextItem``.
+
+The most important are asked for first (resultants, largest first; the free
+surface and spill level; pressure values, deepest first). A label that
+would cover another, a resultant's shaft or (on small outlines) a vertex
+handle steps aside if it must show, or is left out. The layout is made again
+when the view zooms or pans, since it is in pixels. Its work per label is
+bounded: arrows and handles far off the view are clipped or dropped, so a
+vertex dragged a million sizes away costs no more than one near by.
+"""
+
+from __future__ import annotations
+
+import numpy as np
+import pyqtgraph as pg
+from PySide6.QtCore import QTimer
+from PySide6.QtGui import QFont, QFontMetricsF
+
+from wetline.app.render.labels import LabelLayout
+
+__all__ = ["CanvasLabels", "LABEL_MARGIN", "MAX_HANDLE_OBSTACLES", "SAME_VALUE_PX",
+           "SHAFT_CLEARANCE"]
+
+MAX_HANDLE_OBSTACLES = 120
+"""Up to this many vertices, labels keep off the vertex handles."""
+LABEL_MARGIN = 4.0
+"""The text item's document margin around its text [px]."""
+LABEL_FILL = pg.mkBrush(255, 255, 255, 170)
+"""Behind each label, so lines under it do not cross its text."""
+SAME_VALUE_PX = 150.0
+"""A pressure value already labelled this near [px] is not labelled again."""
+SHAFT_CLEARANCE = 4.0
+"""Labels keep this far [px] off a resultant's shaft."""
+_SIZE_CACHE = 2000
+"""Text sizes kept before the cache starts again."""
+
+
+class CanvasLabels:
+    """The labels of one view box.
+
+    Attributes
+    ----------
+    requests : list
+        The labels asked for since :meth:`clear`, in order of importance.
+    items : list of pyqtgraph.TextItem
+        The pool; the first :attr:`used` show labels.
+    layout : LabelLayout
+        The last layout (pixels, y up).
+    px : (float, float)
+        Metres per pixel in x and z at the last layout.
+    """
+
+    def __init__(self, viewbox, parent):
+        self._vb = viewbox
+        self.requests = []
+        self.items = []
+        self.used = 0
+        self.layout = LabelLayout()
+        self.px = (1e-9, 1e-9)
+        self._shafts = []
+        self._handles = np.empty((0, 2))
+        self._sizes = {}
+        self._metrics = None
+        self._timer = QTimer(parent)
+        self._timer.setSingleShot(True)
+        self._timer.setInterval(0)
+        self._timer.timeout.connect(self.lay_out)
+        viewbox.sigRangeChanged.connect(self._on_rangeChanged)
+
+    # ------------------------------------------------------- requests
+    def clear(self, outline):
+        """Start a new set of labels for a drawing of ``outline`` ((N, 2) [m],
+        whose vertex handles the labels keep off on small outlines)."""
+        self.requests = []
+        self._shafts = []
+        self._handles = outline if len(outline) <= MAX_HANDLE_OBSTACLES else np.empty((0, 2))
+
+    def keep_off_shaft(self, x0, z0, x1, z1):
+        """Keep labels off the arrow shaft (x0, z0)-(x1, z1) [m]."""
+        self._shafts.append((x0, z0, x1, z1))
+
+    def ask(self, x, z, text, colour, anchor, bold=False, optional=False, once=False):
+        """Ask for ``text`` at (x, z) [m], in order of importance: shown
+        unless (``optional``) the place is taken; a label that must show
+        steps aside instead. ``once``: not shown if the same text is already
+        shown nearby. ``anchor`` as for ``pyqtgraph.TextItem``."""
+        self.requests.append((x, z, text, colour, anchor, bold, optional, once))
+
+    def _on_rangeChanged(self, *_):
+        if self.requests:
+            self._timer.start()
+
+    # --------------------------------------------------------- layout
+    def lay_out(self):
+        """Place the labels asked for at the current zoom (pixel sizes)."""
+        self._timer.stop()
+        vb = self._vb
+        px = vb.viewPixelSize()
+        self.px = (px[0] or 1e-9, px[1] or 1e-9)
+        sx, sz = self.px
+        # The view and as much again around it: obstacles and arrows far off
+        # the view are dropped or clipped.
+        (x0, x1), (z0, z1) = vb.viewRange()
+        bx0, bx1, bz0, bz1 = x0 / sx, x1 / sx, z0 / sz, z1 / sz
+        wx, wz = bx1 - bx0, bz1 - bz0
+        self.layout = LabelLayout(bounds=(bx0 - wx, bz0 - wz, bx1 + wx, bz1 + wz))
+        for vx, vz in np.asarray(self._handles).reshape(-1, 2) / self.px:
+            self.layout.add_obstacle(vx - 5, vz - 5, vx + 5, vz + 5)
+        for a, b, c, d in self._shafts:
+            self.layout.add_line(a / sx, b / sz, c / sx, d / sz, clearance=SHAFT_CLEARANCE,
+                                 soft=False)
+        self.used = 0
+        for x, z, text, colour, anchor, bold, optional, once in self.requests:
+            if once and self.layout.seen_near(text, x / sx, z / sz, SAME_VALUE_PX):
+                continue
+            self._place(x, z, text, colour, anchor, bold, optional)
+        for item in self.items[self.used:]:
+            if item.isVisible():
+                item.hide()
+
+    def _text_size(self, text, bold):
+        """(width, height) [px] of a label's whole text item (text plus the
+        item's document margin), cached by text."""
+        key = (text, bold)
+        size = self._sizes.get(key)
+        if size is None:
+            if self._metrics is None:
+                probe = pg.TextItem()  # kept alive while its font is read
+                regular = QFont(probe.textItem.font())
+                strong = QFont(regular)
+                strong.setWeight(QFont.DemiBold)
+                self._metrics = (QFontMetricsF(regular), QFontMetricsF(strong))
+            fm = self._metrics[1 if bold else 0]
+            size = (fm.horizontalAdvance(text) + 2 * LABEL_MARGIN,
+                    fm.height() + 2 * LABEL_MARGIN)
+            if len(self._sizes) > _SIZE_CACHE:
+                self._sizes.clear()
+            self._sizes[key] = size
+        return size
+
+    def _place(self, x, z, text, colour, anchor, bold, optional):
+        width, height = self._text_size(text, bold)
+        shift = self.layout.place_anchored(x / self.px[0], z / self.px[1], width, height,
+                                           anchor, required=not optional, margin=LABEL_MARGIN,
+                                           key=text)
+        if shift is None:
+            return None
+        item = self._item()
+        key = (text, colour, bold)
+        if getattr(item, "_key", None) != key:
+            item._key = key
+            if getattr(item, "_bold", False) != bold:  # plain text and a font: no HTML
+                item._bold = bold
+                font = QFont(item.textItem.font())
+                font.setWeight(QFont.DemiBold if bold else QFont.Normal)
+                item.textItem.setFont(font)
+            item.setText(text, color=colour)
+        item.setAnchor(anchor)
+        item.setPos(x + shift[0] * self.px[0], z + shift[1] * self.px[1])
+        if not item.isVisible():
+            item.show()
+        return item
+
+    def _item(self):
+        """The next text item of the pool (made if the pool is short)."""
+        if self.used < len(self.items):
+            item = self.items[self.used]
+        else:
+            item = pg.TextItem(fill=LABEL_FILL)
+            item.setZValue(35)
+            self._vb.addItem(item)
+            self.items.append(item)
+        self.used += 1
+        return item
+
+    # ---------------------------------------------------------- reading
+    def shown(self):
+        """Text of the labels shown, in the order placed."""
+        return [item.toPlainText() for item in self.items[:self.used]]
+
+    def boxes(self):
+        """Pixel boxes (x0, y0, x1, y1, y up) of the placed labels' text."""
+        return list(self.layout.boxes)

@@ -1,0 +1,199 @@
+"""The canvas's drawing of the liquid and its loads: the liquid (and its
+mirror image on an axisymmetric section), the free surface, the spill
+level, the pressure diagrams with their arrows, and each run's resultant;
+and the labels they ask for.
+
+What is drawn comes from :mod:`wetline.app.render.geometry`, the same
+functions the exported diagram draws from. Drawing is batched (DEVELOPERS.md, "The
+desktop program"): one path for the liquid, one for all pressure diagrams, one
+``connect='pairs'`` curve for all pressure arrows and one per direction of
+the resultants.
+"""
+
+from __future__ import annotations
+
+import numpy as np
+import pyqtgraph as pg
+import shapely
+from PySide6.QtCore import Qt
+from PySide6.QtGui import QColor, QTransform
+
+from wetline.app.render.geometry import (
+    arrow_strokes,
+    carrying_edges,
+    diagram_polygons,
+    liquid_rings,
+    part_runs,
+    pressure_arrows,
+    pressure_sites,
+    run_resultants,
+    surface_spans,
+    wetted_edges,
+)
+from wetline.app.render.style import DIAGRAM_FILL, DIAGRAM_LINE, DIAGRAM_TEXT, LOAD, MUTED, SURFACE
+from wetline.app.render.style import UPLIFT as UPLIFT_COLOUR
+from wetline.app.window.canvas_items import (
+    add_item,
+    cosmetic_pen,
+    filled_path_item,
+    pairs_curve,
+    path_of,
+    rings_path,
+)
+
+__all__ = ["LoadLayer", "MAX_PRESSURE_LABELS", "MAX_RESULTANT_LABELS"]
+
+LIQUID_BRUSH = QColor(126, 178, 226, 95)
+MIRROR_LIQUID_BRUSH = QColor(126, 178, 226, 45)
+DIAGRAM_BRUSH = QColor(*DIAGRAM_FILL[:3], 80)
+MAX_PRESSURE_LABELS = 16
+"""Pressure values labelled at most."""
+MAX_RESULTANT_LABELS = 30
+"""Resultants labelled at most (the largest)."""
+
+
+class LoadLayer:
+    """The liquid's and the loads' graphics items in a view box, and their drawing."""
+
+    def __init__(self, viewbox):
+        vb = viewbox
+        self.liquid = filled_path_item(vb, LIQUID_BRUSH, -10)
+        self.mirror_liquid = filled_path_item(vb, MIRROR_LIQUID_BRUSH, -11, visible=False)
+        self.diagram = filled_path_item(vb, DIAGRAM_BRUSH, -5,
+                                        pen=cosmetic_pen(QColor(DIAGRAM_LINE), 1.0))
+        self.arrows = pairs_curve(vb, pg.mkPen(DIAGRAM_LINE, width=1), -4)
+        self.surface = add_item(vb, pg.PlotCurveItem(pen=pg.mkPen(SURFACE, width=2)), 5)
+        self.spill = add_item(vb, pg.PlotCurveItem(
+            pen=pg.mkPen(MUTED, width=1, style=Qt.DashLine)), 0)
+        self.down = pairs_curve(vb, pg.mkPen(LOAD, width=3), 30)
+        self.up = pairs_curve(vb, pg.mkPen(UPLIFT_COLOUR, width=3), 30)
+        self._polygon = self._polygon_section = None
+        self._parts_key = self._carries = self._runs = None
+
+    def polygon(self, section):
+        """The cavity of ``section`` as a shapely polygon (kept per section)."""
+        if self._polygon is None or self._polygon_section is not section:
+            self._polygon = shapely.Polygon(section.outline)
+            self._polygon_section = section
+        return self._polygon
+
+    def draw(self, solution, scale, scope, units, labels):
+        """Draw ``solution`` with pressure ``scale`` [m/Pa]; forces shown by
+        ``scope`` (:class:`wetline.core.force_scope.ForceScope`), lengths and
+        pressures in ``units``; the labels asked of ``labels``
+        (:class:`wetline.app.window.canvas_labels.CanvasLabels`)."""
+        section = solution.section
+        size = max(float(np.ptp(section.outline[:, 0])), section.z_max - section.z_min, 1e-9)
+        labels.clear(section.outline)
+        surface_labels = self._draw_liquid(solution, size, units)
+        carries, runs = self._parts_of(section)
+        w = wetted_edges(solution, carries)
+        x, z, connect = diagram_polygons(w, scale)
+        path = path_of(x, z, connect)
+        path.setFillRule(Qt.WindingFill)
+        self.diagram.setPath(path)
+        tx, tz, px, pz = pressure_arrows(w, scale)
+        self.arrows.setData(*arrow_strokes(tx, tz, px, pz, 0.02 * size))
+        self._draw_resultants(solution, w, runs, size, scope, labels)
+        for ask in surface_labels:
+            labels.ask(*ask)
+        self._ask_pressures(w, scale, section.n_edges, units, labels)
+
+    def _parts_of(self, section):
+        """The edges that carry a diagram and the runs of parts. They depend
+        on the parts only, so a dragged outline keeps them; except that on an
+        axisymmetric section a drag may move a vertex onto or off the axis."""
+        key = self._parts_key
+        if key is None or not (key is section.parts or key == section.parts):
+            self._carries = carrying_edges(section)
+            self._runs = part_runs(section)
+            self._parts_key = section.parts
+        carries = carrying_edges(section) if section.is_axisymmetric else self._carries
+        return carries, self._runs
+
+    def _draw_liquid(self, solution, size, units):
+        """The liquid below the free surface, the surface across the cavity
+        (across the whole width above a closed section's roof) and the spill
+        level; returns the labels they ask for (asked after the resultants,
+        which come first)."""
+        section = solution.section
+        h = solution.level
+        xmin, xmax = float(section.outline[:, 0].min()), float(section.outline[:, 0].max())
+        axi = section.is_axisymmetric
+        path = rings_path(liquid_rings(section, h, self.polygon(section)))
+        self.liquid.setPath(path)
+        if axi:
+            self.mirror_liquid.setPath(QTransform.fromScale(-1.0, 1.0).map(path))
+        if self.mirror_liquid.isVisible() != axi:
+            self.mirror_liquid.setVisible(axi)
+        margin = 0.04 * size
+        left_end = -xmax if axi else xmin
+        asks = []
+        if h > section.z_min:
+            spans = surface_spans(section, h)
+            if not spans:  # level above a closed section's roof: a standpipe head
+                spans = [(left_end - margin, xmax + margin)]
+            elif axi:  # across the whole vessel
+                spans += [(-b, -a) for a, b in spans]
+            sx = np.array(spans, dtype=float).ravel()
+            self.surface.setData(sx, np.full(sx.size, h), connect="pairs")
+            asks.append((float(sx.min()) - 0.5 * margin, h, f"free surface {units.fmt_length(h)}",
+                         SURFACE, (1, 0.5)))
+        else:
+            self.surface.setData([], [])
+        spill = section.spill_level
+        if spill is not None:
+            self.spill.setData([left_end - 2 * margin, xmax + 2 * margin], [spill, spill])
+            asks.append((xmax + 2 * margin, spill, "spill level", MUTED, (0, 0.5)))
+        else:
+            self.spill.setData([], [])
+        return asks
+
+    def _draw_resultants(self, solution, w, runs, size, scope, labels):
+        """One arrow per run of a part from the point where it acts, longer
+        for larger loads; labelled largest first, the arrows kept clear."""
+        res = run_resultants(solution, runs, w)
+        if not res:
+            self.down.setData([], [])
+            self.up.setData([], [])
+            return
+        mags = np.array([np.hypot(0.0 if np.isnan(fx) else fx, fz) for _, fx, fz, _, _ in res])
+        biggest = float(mags.max()) or 1.0
+        down_t, up_t, asked = [], [], []
+        for k in np.argsort(-mags, kind="stable"):  # the largest first
+            run, fx, fz, cx, cz = res[k]
+            mag = mags[k]
+            if not mag > 1e-9 * biggest:
+                continue
+            ux, uz = (0.0 if np.isnan(fx) else fx) / mag, fz / mag
+            length = size * (0.12 + 0.13 * mag / biggest)
+            uplift = fz > 1e-9 * biggest
+            tip = (cx + length * ux, cz + length * uz)
+            (up_t if uplift else down_t).append((cx, cz, *tip))
+            labels.keep_off_shaft(cx, cz, *tip)
+            if len(asked) < MAX_RESULTANT_LABELS:
+                asked.append((run.part, mag, uplift, tip, ux, uz))
+        for part, mag, uplift, tip, ux, uz in asked:
+            text = f"{part}: {scope.text(mag)}" + (" uplift" if uplift else "")
+            # The tip on the box's edge facing back along the arrow.
+            m = max(abs(ux), abs(uz))
+            labels.ask(tip[0], tip[1], text, UPLIFT_COLOUR if uplift else LOAD,
+                       (0.5 - 0.5 * ux / m, 0.5 + 0.5 * uz / m), bold=True)
+        for item, arrows in ((self.down, down_t), (self.up, up_t)):
+            if arrows:
+                a = np.array(arrows)
+                item.setData(*arrow_strokes(a[:, 0], a[:, 1], a[:, 2], a[:, 3], 0.045 * size))
+            else:
+                item.setData([], [])
+
+    @staticmethod
+    def _ask_pressures(w, scale, n_vertices, units, labels):
+        """The pressure at the places of
+        :func:`wetline.app.render.geometry.pressure_sites` (the same as the
+        exported diagram's), deepest first, where there is room."""
+        for site in pressure_sites(w, n_vertices, MAX_PRESSURE_LABELS):
+            dx, dz = site.direction
+            x, z = site.tip(scale)
+            # One value once in a neighbourhood (both ends of a lid ...).
+            labels.ask(x, z, units.fmt_pressure(site.pressure), DIAGRAM_TEXT,
+                       (0.5 - 0.5 * dx, 0.5 + 0.5 * dz), optional=True, once=True)
