@@ -29,7 +29,8 @@ def ranges(monkeypatch):
     seen = []
 
     def spy(w):
-        for name, vb in (("chart", w.chart.getPlotItem().getViewBox()), ("canvas", w.canvas.getPlotItem().getViewBox())):
+        for name, widget in (("chart", w.chart), ("canvas", w.canvas)):
+            vb = widget.getPlotItem().getViewBox()
             original = vb.setRange
 
             def recording(*args, _orig=original, _name=name, **kwargs):
