@@ -1,5 +1,5 @@
-"""Soak: thousands of random edits, slider moves, undos and redos through
-the window, with redraws. The document must stay valid throughout and
+"""Soak: thousands of random edits (extreme drags among them), slider moves,
+undos and redos through the window, with redraws. The document must stay valid throughout and
 nothing may raise; it also exercises many wrapped void Qt methods, which
 catches binding-level crashes such as PySide6 6.12's none_dealloc on
 Python 3.11 (see STACK-NOTES).
@@ -57,7 +57,11 @@ def test_soak_random_edits(make_window, settle):
         size = float(np.ptp(outline, axis=0).max())
         if op == 0:
             i = int(rng.integers(n))
-            x, z = outline[i] + rng.normal(0, 0.05 * size, 2)
+            # One nudge in twenty is an extreme drag, up to a million times the
+            # section's size (past the coordinate limit it becomes a draft):
+            # label layout and view ranges must stay bounded whatever the shape.
+            spread = 1e6 * size if rng.random() < 0.05 else 0.05 * size
+            x, z = outline[i] + rng.normal(0, spread, 2)
             editing.move_vertex(doc, i, x, z, merge_key=("nudge", i) if rng.random() < .5
                                 else None)
         elif op == 1 and n < 40:
