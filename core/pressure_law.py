@@ -608,6 +608,10 @@ def integrate_edges(section, law, caps=None):
         np.multiply(fn, geo.nz, out=fz[:n])
         np.abs(fn, out=fn)
         t = cpx[:n]
+        if horizontal.size:
+            # Uniform pressure along a horizontal wetted edge: its midpoint, even
+            # at zero pressure on the surface (the limit of a ledge just below).
+            t[horizontal[f[horizontal] > 0]] = 0.5
         cz = cpz[:n]
         np.multiply(t, geo.dz, out=cz)
         np.add(cz, geo.z0, out=cz)

@@ -368,3 +368,15 @@ def test_a_free_surface_above_the_spill_level_is_refused():
     with pytest.raises(PressureLawError, match="free surface 3.5 m is above the spill level 3 m"):
         integrate_edges(s, PressureLaw.single(1000.0, 3.5))
     assert integrate_edges(s, PressureLaw.single(1000.0, 3.0)).volume == pytest.approx(6.0)
+
+
+def test_a_floor_at_the_level_acts_at_its_midpoint_as_in_solve():
+    # An empty section's floor at the level: wetted at zero pressure; its
+    # centre of pressure is the midpoint (the limit of a floor just below the
+    # surface), as solve() gives (found by hypothesis on a nonagon at frac 0).
+    s = Section.build([[0, 0], [2, 0], [3, 1], [1, 2], [-1, 1]])
+    r = solve(s, 0.0, 500.0, G)
+    e = integrate_edges(s, PressureLaw.single(500.0, r.level, gravity=G))
+    assert e.wetted_length[0] == 2.0 and e.fz[0] == 0.0
+    np.testing.assert_array_equal(e.centre_of_pressure[0], [1.0, 0.0])
+    np.testing.assert_array_equal(e.centre_of_pressure[0], r.centre_of_pressure[0])
