@@ -24,7 +24,7 @@ from PySide6.QtWidgets import (
     QWidget,
 )
 
-from wetline.app.model import editing, recovery
+from wetline.app.model import design_file, editing, recovery
 from wetline.app.model.display import DisplayChoice
 from wetline.app.model.document import UNDO_LIMIT, Document
 from wetline.app.window import dialogs
@@ -34,10 +34,12 @@ from wetline.app.window.files import Transfer
 from wetline.app.window.panels import FillPanel, LiquidPanel, TotalsPanel, parse_number
 from wetline.app.window.tables import EdgesTable, PartsTable, VerticesPane, VerticesTable
 from wetline.app.window.uplift_panel import UpliftPanel
+from wetline.core.load_cases import LoadCaseError
 from wetline.core.numbers import format_number
 from wetline.core.results import CAUTION
 from wetline.core.section import SectionError
-from wetline.core.section_file import SectionFileError, read_section_file, write_section_file
+from wetline.core.section_file import SectionFileError
+from wetline.core.structure import StructureError
 
 __all__ = ["MainWindow"]
 
@@ -483,7 +485,7 @@ class MainWindow(QMainWindow):
             return
         try:
             editing.set_kind(self.doc, kind)
-        except SectionError as exc:
+        except (SectionError, StructureError, LoadCaseError) as exc:
             self._status(f"Cannot switch to {kind}: {exc}")
             self._on_sectionChanged()
 
@@ -551,14 +553,14 @@ class MainWindow(QMainWindow):
         if ask and not self.maybe_save():
             return False
         try:
-            case = read_section_file(path)
+            design = design_file.read(path)
         except SectionFileError as exc:
             dialogs.show_error(self, "Cannot open the file", str(exc))
             return False
         except Exception as exc:  # an unexpected reader fault must not lose work
             dialogs.show_error(self, "Cannot open the file", f"{path}: {exc}")
             return False
-        self.doc.load(case, path)
+        self.doc.load(design, path)
         self.canvas.fit_when_drawn()
         self._add_recent(path)
         self._remember_folder(path)
@@ -581,9 +583,9 @@ class MainWindow(QMainWindow):
         return self._write(path) if path else False
 
     def _write(self, path):
-        case = recovery.case_to_save(self.doc.case)
+        design = recovery.design_to_save(self.doc.design)
         try:
-            write_section_file(case, path)
+            design_file.write(design, path)
         except OSError as exc:
             dialogs.show_error(self, "Cannot save", f"{path}: {exc.strerror or exc}")
             return False
@@ -705,11 +707,11 @@ class MainWindow(QMainWindow):
         """Open a recovery copy as the document: modified, with its original
         file for Save. Once this program has its own copy the old one goes."""
         try:
-            case = recovery.read_copy(copy)
+            design = recovery.read_copy(copy)
         except SectionFileError as exc:
             dialogs.show_error(self, "Cannot restore the recovery copy", str(exc))
             return False
-        self.doc.load(case, copy.original_path, saved=False)
+        self.doc.load(design, copy.original_path, saved=False)
         self.canvas._first_fit = True
         if self.autosaver is not None and self.autosaver.write_now() is not None:
             recovery.remove_copy(self.autosaver.folder, copy.id)
