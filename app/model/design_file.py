@@ -37,7 +37,7 @@ from wetline.core import limits
 from wetline.core.atomic_write import write_atomically
 from wetline.core.case import Case
 from wetline.core.liquids import LiquidError, liquid_from_spec, liquid_to_spec
-from wetline.core.load_cases import FILL_WORDS, Design, LoadCase, LoadCaseError
+from wetline.core.load_cases import Design, LoadCase, LoadCaseError
 from wetline.core.section_file import (
     FORMAT,
     SectionFileError,
@@ -266,7 +266,8 @@ def _read_case(obj: object, index: int, scale: float) -> LoadCase:
                     f"{where}: fill must give exactly one of \"level\" and \"volume\"")
             if "level" in fill:
                 lvl = fill["level"]
-                args["fill_level"] = lvl if isinstance(lvl, str) and lvl in FILL_WORDS \
+                # a word LoadCase checks ('spill' or 'empty'), else a length
+                args["fill_level"] = lvl if isinstance(lvl, str) \
                     else _length(fill, "level", f"{where} fill", scale)
             else:
                 args["fill_volume"] = _num(fill, "volume", f"{where} fill")
