@@ -48,7 +48,8 @@ __all__ = [
     "fill_to_percent", "fill_to_word", "set_resistance", "set_required_factor",
     "set_report_info", "set_units", "set_diagram_scale", "discard_draft", "RESISTANCE_FIELDS",
     "add_case", "duplicate_case", "rename_case", "delete_case", "move_case",
-    "set_groundwater", "set_load_factor", "set_structure", "remove_structure", "set_ground",
+    "set_groundwater", "set_load_factor", "set_structure", "edit_structure",
+    "remove_structure", "set_ground",
     "walls_structure", "apply_structure_outline", "move_structure_vertex",
     "set_structure_part",
 ]
@@ -502,6 +503,39 @@ def set_structure(doc: Document, structure: Structure, ground: Ground | None,
         text = "Structure" if design.structure is None else "Change the structure"
     _push(doc, new, text)
     return True
+
+
+def edit_structure(doc: Document, walls: tuple[float, float, float] | None, *,
+                   unit_weight: float, extra_weight: float = 0.0, anchorage: float = 0.0,
+                   ground: Ground | None = None) -> bool:
+    """The Structure dialog's edit, one undo step: walls of the thicknesses
+    ``walls`` = (base, wall, roof) [m] around the cavity (None: keep the
+    structure's own, edited, outline), the material's ``unit_weight``
+    [N/m3], ``extra_weight`` and ``anchorage`` [N/m of width or N], and the
+    ``ground``. ValueError (StructureError, LoadCaseError) naming what is
+    wrong; nothing changes then.
+
+    Returns
+    -------
+    bool
+        True if an edit was made.
+    """
+    s = doc.structure
+    if walls is None and s is None:
+        raise ValueError("give the wall thicknesses: there is no structure yet")
+    if walls is not None:
+        new = walls_structure(doc, *walls, unit_weight=unit_weight, extra_weight=extra_weight,
+                              anchorage=anchorage)
+    else:
+        assert s is not None
+        new = s.replace(doc.section, unit_weight=unit_weight, extra_weight=extra_weight,
+                        anchorage=anchorage)
+    if walls is not None:
+        text = (f"Structure: walls {doc.units.fmt_length(walls[1])}, base "
+                f"{doc.units.fmt_length(walls[0])}, roof {doc.units.fmt_length(walls[2])}")
+    else:
+        text = "Change the structure"
+    return set_structure(doc, new, ground, text)
 
 
 def remove_structure(doc: Document) -> bool:

@@ -29,8 +29,10 @@ from wetline.app.model.display import DisplayChoice
 from wetline.app.model.document import UNDO_LIMIT, Document
 from wetline.app.window import dialogs
 from wetline.app.window.canvas import SectionCanvas
+from wetline.app.window.case_list import CaseListPanel
 from wetline.app.window.chart import LoadChart
 from wetline.app.window.files import Transfer
+from wetline.app.window.flotation_panel import FlotationPanel
 from wetline.app.window.panels import FillPanel, LiquidPanel, TotalsPanel, parse_number
 from wetline.app.window.tables import EdgesTable, PartsTable, VerticesPane, VerticesTable
 from wetline.app.window.uplift_panel import UpliftPanel
@@ -39,7 +41,7 @@ from wetline.core.numbers import format_number
 from wetline.core.results import CAUTION
 from wetline.core.section import SectionError
 from wetline.core.section_file import SectionFileError
-from wetline.core.structure import StructureError
+from wetline.core.structure import Ground, StructureError
 
 __all__ = ["MainWindow"]
 
@@ -93,12 +95,15 @@ class MainWindow(QMainWindow):
         scroll.setMinimumWidth(left.sizeHint().width() + 24)
         scroll.setHorizontalScrollBarPolicy(Qt.ScrollBarAlwaysOff)
         self._dock("Fill and liquid", scroll, Qt.LeftDockWidgetArea)
+        self.case_list = CaseListPanel(doc)
+        self._dock("Load cases", self.case_list, Qt.LeftDockWidgetArea)
 
         self.totals = TotalsPanel(doc)
         self.parts_table = PartsTable(doc)
         self.edges_table = EdgesTable(doc)
         self.vertices_table = VerticesTable(doc, message=self._status)
         self.uplift_panel = UpliftPanel(doc)
+        self.flotation_panel = FlotationPanel(doc)
         self.transfer = Transfer(self)
         self._build_actions()
         # The uplift check sits under the loads per part it is about.
@@ -106,8 +111,14 @@ class MainWindow(QMainWindow):
         parts_page.setChildrenCollapsible(False)
         parts_page.addWidget(self.parts_table)
         self.parts_table.setMinimumHeight(118)  # the header and three parts
+        checks = QWidget()
+        cl = QVBoxLayout(checks)
+        cl.setContentsMargins(0, 0, 0, 0)
+        cl.addWidget(self.uplift_panel)
+        cl.addWidget(self.flotation_panel)
+        cl.addStretch(1)
         uplift_scroll = QScrollArea()
-        uplift_scroll.setWidget(self.uplift_panel)
+        uplift_scroll.setWidget(checks)
         uplift_scroll.setWidgetResizable(True)
         uplift_scroll.setHorizontalScrollBarPolicy(Qt.ScrollBarAlwaysOff)
         parts_page.addWidget(uplift_scroll)
@@ -117,7 +128,7 @@ class MainWindow(QMainWindow):
         self.vertices_pane = VerticesPane(
             self.vertices_table, (a["paste_coords"], a["copy_coords"], a["import_csv"]))
         tabs = QTabWidget()
-        tabs.addTab(parts_page, "Parts and uplift")
+        tabs.addTab(parts_page, "Parts, uplift, flotation")
         tabs.addTab(self.edges_table, "Edges")
         tabs.addTab(self.vertices_pane, "Vertices")
         self.tabs = tabs
@@ -134,6 +145,8 @@ class MainWindow(QMainWindow):
                          Qt.Vertical)
         self.resizeDocks([self.findChild(QDockWidget, "Fill and liquid"),
                           self.findChild(QDockWidget, "Results")], [300, 450], Qt.Horizontal)
+        self.resizeDocks([self.findChild(QDockWidget, "Fill and liquid"),
+                          self.findChild(QDockWidget, "Load cases")], [420, 330], Qt.Vertical)
 
         self.hover = QLabel()
         self.statusBar().addWidget(self.hover, 1)
@@ -248,6 +261,13 @@ class MainWindow(QMainWindow):
                                   Qt.Key_PageDown)
         a["width"] = self._action("Set &width...", self._ask_width)
         a["rename"] = self._action("Re&name section...", self._ask_name)
+        a["structure"] = self._action(
+            "&Structure and ground...", self.edit_structure, None,
+            "Walls of a thickness around the cavity, their weight and anchorage, the ground")
+        a["envelope"] = self._action(
+            "&Envelope of all cases", self._toggle_envelope, "Ctrl+Shift+A",
+            "Show the envelope over every load case (design values) instead of this case",
+            checkable=True)
         a["plane"] = self._action("&Plane", lambda: self._set_kind("plane"), checkable=True)
         a["axi"] = self._action("&Axisymmetric", lambda: self._set_kind("axisymmetric"),
                                 checkable=True)
@@ -302,11 +322,14 @@ class MainWindow(QMainWindow):
         m.addAction(a["axi"])
         m.addAction(a["width"])
         m.addAction(a["rename"])
+        m.addSeparator()
+        m.addAction(a["structure"])
         m = mb.addMenu("F&ill")
         m.addAction(a["raise"])
         m.addAction(a["lower"])
         m = mb.addMenu("&View")
         m.addAction(a["fit"])
+        m.addAction(a["envelope"])
         um = m.addMenu("&Units")
         for act in a["units"]:
             um.addAction(act)
@@ -337,6 +360,14 @@ class MainWindow(QMainWindow):
         tb.addSeparator()
         tb.addAction(a["draw"])
         tb.addAction(a["fit"])
+        tb.addSeparator()
+        tb.addWidget(QLabel(" Show "))
+        self.view_combo = QComboBox()
+        self.view_combo.addItem("This case", "case")
+        self.view_combo.addItem("Envelope", "envelope")
+        self.view_combo.setToolTip("The diagrams, the part table and the chart of the active "
+                                   "case, or the envelope over all cases (design values)")
+        tb.addWidget(self.view_combo)
         tb.addSeparator()
         self.snap_box = QCheckBox("Snap")
         self.snap_box.setToolTip("Snap vertices to a grid")
@@ -370,6 +401,8 @@ class MainWindow(QMainWindow):
         self.snap_box.toggled.connect(self._on_snap_toggled)
         self.snap_spacing.editingFinished.connect(self._on_snap_spacing_edited)
         self.units_combo.currentIndexChanged.connect(self._on_units_combo)
+        self.view_combo.currentIndexChanged.connect(self._on_view_combo)
+        self.doc.viewModeChanged.connect(self._on_viewModeChanged)
         self.scale_auto.toggled.connect(self._on_scale_edited)
         self.scale_edit.editingFinished.connect(self._on_scale_edited)
         self.doc.diagramScaleChanged.connect(self._on_unitsChanged)
@@ -475,6 +508,50 @@ class MainWindow(QMainWindow):
         editing.set_diagram_scale(
             self.doc, scale, f"Diagram scale {format_number(v)} {u.units.label('pressure')} "
                              f"per {u.length_unit}")
+
+    def set_view_mode(self, mode):
+        """Show the active case (``"case"``) or the envelope (``"envelope"``)."""
+        self.doc.set_view_mode(mode)
+
+    def _on_view_combo(self, i):
+        self.set_view_mode(self.view_combo.itemData(i))
+
+    def _toggle_envelope(self, on):
+        self.set_view_mode("envelope" if on else "case")
+
+    def _on_viewModeChanged(self):
+        mode = self.doc.view_mode
+        self.view_combo.blockSignals(True)
+        self.view_combo.setCurrentIndex(self.view_combo.findData(mode))
+        self.view_combo.blockSignals(False)
+        self.actions_by_name["envelope"].setChecked(mode == "envelope")
+
+    def edit_structure(self):
+        """Section > Structure and ground: one undo step if anything changed."""
+        doc = self.doc
+        choice = dialogs.ask_structure(self, doc.units, doc.section, doc.structure, doc.ground)
+        if choice is None:
+            return False
+        return self.apply_structure_choice(choice)
+
+    def apply_structure_choice(self, choice):
+        """Turn the Structure dialog's answer (a
+        :class:`wetline.app.window.structure_dialog.StructureChoice`) into
+        one edit; a refusal is shown and changes nothing."""
+        doc = self.doc
+        if choice.remove:
+            return editing.remove_structure(doc)
+        try:
+            ground = None if choice.ground is None else Ground(*choice.ground)
+            changed = editing.edit_structure(
+                doc, choice.walls, unit_weight=choice.unit_weight,
+                extra_weight=choice.extra_weight, anchorage=choice.anchorage, ground=ground)
+        except ValueError as exc:  # StructureError, LoadCaseError, a value out of range
+            dialogs.show_error(self, "Structure", str(exc))
+            return False
+        if changed:
+            self.canvas.fit()
+        return changed
 
     def _toggle_draw(self, on):
         self.canvas.set_mode("draw" if on else "edit")

@@ -381,9 +381,11 @@ class FillPanel(QGroupBox):
 
 
 class TotalsPanel(QGroupBox):
-    """Volume, weight, floor force, support reaction, maximum pressure, spill level."""
+    """The active case, its level, volume, weight, floor force, support
+    reaction, maximum pressure, spill level (characteristic values)."""
 
-    ROWS = (("level", "Level"), ("volume", "Volume"), ("weight", "Liquid weight"),
+    ROWS = (("case", "Case"), ("level", "Level"), ("volume", "Volume"),
+            ("weight", "Liquid weight"),
             ("floor", "Floor force"), ("support", "Support reaction"),
             ("max_pressure", "Max. pressure"), ("spill", "Spill level"))
 
@@ -415,6 +417,10 @@ class TotalsPanel(QGroupBox):
         sec = s.section
         scope, scale = doc.force_scope(sec), doc.force_scale
         v = self.values
+        solved = doc.solved_case
+        factor = 1.0 if solved is None else solved.load_factor
+        v["case"].setText(doc.active_name + ("" if factor == 1.0
+                                             else f" (load factor {format_number(factor)})"))
         v["level"].setText(u.fmt_length(s.level))
         area = u.units.text(s.volume / sec.width, "area")
         v["volume"].setText(f"{u.fmt_volume(s.volume)}"
