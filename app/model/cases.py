@@ -76,8 +76,16 @@ def rebuild(design: Design, *, case: Case | None = None,
                                 case=c.name)
         seen.add(c.name)
     resolve = out._resolve
-    object.__setattr__(out, "_resolved",
-                       tuple(resolve(c, i) for i, c in enumerate(out.load_cases)))
+    # With the same file-level case, a case that is the same object at the
+    # same place resolves as before (a slider step changes one case).
+    kept: dict[int, ResolvedCase] = {}
+    if case is None or case is design.case:
+        kept = {id(c): r for c, r in zip(design.load_cases, design._resolved, strict=True)}
+    resolved = []
+    for i, c in enumerate(out.load_cases):
+        r = kept.get(id(c))
+        resolved.append(r if r is not None and r.index == i else resolve(c, i))
+    object.__setattr__(out, "_resolved", tuple(resolved))
     return out
 
 

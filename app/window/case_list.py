@@ -45,6 +45,9 @@ FILL_CHOICES = (("level", "Level"), ("volume", "Volume"), (SPILL, "Spill level")
 """The fill choice of a case: key and words."""
 
 _RIGHT = int(Qt.AlignRight | Qt.AlignVCenter)
+_GROUNDWATER_TEXT = QColor("#0f7f8c")
+_BOLD = QFont()
+_BOLD.setBold(True)
 
 
 class CasesModel(QAbstractTableModel):
@@ -55,7 +58,8 @@ class CasesModel(QAbstractTableModel):
     def __init__(self, document, parent=None):
         super().__init__(parent)
         self._doc = document
-        self._n = len(document.case_names)
+        self._rows = self._texts()
+        self._active = document.active_index
         self.last_error = ""
         document.casesChanged.connect(self._on_casesChanged)
         document.activeCaseChanged.connect(self._on_casesChanged)
@@ -63,7 +67,7 @@ class CasesModel(QAbstractTableModel):
         document.unitsChanged.connect(self._on_casesChanged)
 
     def rowCount(self, parent=QModelIndex()):
-        return 0 if parent.isValid() else self._n
+        return 0 if parent.isValid() else len(self._rows)
 
     def columnCount(self, parent=QModelIndex()):
         return 0 if parent.isValid() else len(self.HEADERS)
@@ -73,14 +77,37 @@ class CasesModel(QAbstractTableModel):
             return self.HEADERS[section]
         return None
 
+    def _texts(self):
+        """Each row's cells as text, and whether it has groundwater."""
+        doc = self._doc
+        units = doc.units
+        rows = []
+        for r, lc in enumerate(doc.load_cases):
+            gw = lc.groundwater
+            rows.append((lc.name, self.fill_text(r), format_number(lc.load_factor),
+                         "none" if gw is None else units.fmt_length(gw.level), gw is not None))
+        return rows
+
     def _on_casesChanged(self):
-        n = len(self._doc.case_names)
-        if n != self._n:
+        rows = self._texts()
+        active = self._doc.active_index
+        if len(rows) != len(self._rows):
             self.beginResetModel()
-            self._n = n
+            self._rows, self._active = rows, active
             self.endResetModel()
-        elif n:
-            self.dataChanged.emit(self.index(0, 0), self.index(n - 1, len(self.HEADERS) - 1))
+            return
+        # Only the rows that changed (a slider drag changes one case's fill).
+        last = len(self.HEADERS) - 1
+        spans = {}
+        for r, (a, b) in enumerate(zip(rows, self._rows, strict=True)):
+            cols = [c for c in range(last + 1) if a[c] != b[c]]
+            if cols or a[4] != b[4]:
+                spans[r] = (min(cols, default=last), last if a[4] != b[4] else max(cols))
+        if active != self._active:  # the active row is bold: all of both rows
+            spans[active] = spans[self._active] = (0, last)
+        self._rows, self._active = rows, active
+        for r, (c0, c1) in sorted(spans.items()):
+            self.dataChanged.emit(self.index(r, c0), self.index(r, c1))
 
     def flags(self, index):
         f = Qt.ItemIsEnabled | Qt.ItemIsSelectable
@@ -102,28 +129,18 @@ class CasesModel(QAbstractTableModel):
         return units.fmt_length(case.fill_level)
 
     def data(self, index, role=Qt.DisplayRole):
-        if not index.isValid() or index.row() >= len(self._doc.case_names):
+        if not index.isValid() or index.row() >= len(self._rows):
             return None
         r, c = index.row(), index.column()
-        doc = self._doc
-        lc = doc.load_cases[r]
+        row = self._rows[r]
         if role in (Qt.DisplayRole, Qt.EditRole):
-            if c == 0:
-                return lc.name
-            if c == 1:
-                return self.fill_text(r)
-            if c == 2:
-                return format_number(lc.load_factor)
-            gw = lc.groundwater
-            return "none" if gw is None else doc.units.fmt_length(gw.level)
+            return row[c]
         if role == Qt.TextAlignmentRole and c == 2:
             return _RIGHT
-        if role == Qt.FontRole and r == doc.active_index:
-            f = QFont()
-            f.setBold(True)
-            return f
-        if role == Qt.ForegroundRole and c == 3 and lc.groundwater is not None:
-            return QColor("#0f7f8c")
+        if role == Qt.FontRole and r == self._active:
+            return _BOLD
+        if role == Qt.ForegroundRole and c == 3 and row[4]:
+            return _GROUNDWATER_TEXT
         return None
 
     def setData(self, index, value, role=Qt.EditRole):
@@ -163,8 +180,10 @@ class CaseListPanel(QWidget):
         self.table.verticalHeader().setDefaultSectionSize(22)
         header = self.table.horizontalHeader()
         header.setSectionResizeMode(0, QHeaderView.Stretch)
+        # Sized to the contents when the rows change, not at every slider step
+        # (resizing to contents reads every cell of the column).
         for c in (1, 2, 3):
-            header.setSectionResizeMode(c, QHeaderView.ResizeToContents)
+            header.setSectionResizeMode(c, QHeaderView.Interactive)
         self.table.setMinimumHeight(120)
         lay.addWidget(self.table, 1)
         row = QHBoxLayout()
@@ -229,10 +248,17 @@ class CaseListPanel(QWidget):
         self.load_factor.editingFinished.connect(self._on_load_factor_edited)
         for signal in (document.casesChanged, document.activeCaseChanged,
                        document.structureChanged, document.sectionChanged,
-                       document.fillChanged, document.unitsChanged):
+                       document.unitsChanged):
             signal.connect(self._write_back)
+        document.fillChanged.connect(self._show_fill_choice)  # at every slider step: light
         self.model.modelReset.connect(self._select_active)
+        self.model.modelReset.connect(self._fit_columns)
+        self._fit_columns()
         self._write_back()
+
+    def _fit_columns(self):
+        for c in (1, 2, 3):
+            self.table.resizeColumnToContents(c)
 
     # ------------------------------------------------------- document -> view
     def _select_active(self):
@@ -240,11 +266,13 @@ class CaseListPanel(QWidget):
         sm.blockSignals(True)
         try:
             idx = self.model.index(self._doc.active_index, 0)
-            sm.setCurrentIndex(idx, QItemSelectionModel.ClearAndSelect | QItemSelectionModel.Rows)
-            self.table.scrollTo(idx)
+            if sm.currentIndex().row() != idx.row() or not sm.isRowSelected(idx.row()):
+                sm.setCurrentIndex(idx, QItemSelectionModel.ClearAndSelect
+                                   | QItemSelectionModel.Rows)
+                self.table.scrollTo(idx)
+                self.table.viewport().update()  # the selection model's signals were blocked
         finally:
             sm.blockSignals(False)
-        self.table.viewport().update()
 
     def _write_back(self, *_):
         doc = self._doc
@@ -262,11 +290,7 @@ class CaseListPanel(QWidget):
         for w in widgets:
             w.blockSignals(True)
         try:
-            if lc.fill_level in (SPILL, EMPTY):
-                key = lc.fill_level
-            else:
-                key = "volume" if doc.case.fill_volume is not None else "level"
-            self.fill.setCurrentIndex(self.fill.findData(key))
+            self._show_fill_choice()
             spill_item = self.fill.model().item(self.fill.findData(SPILL))
             spill_item.setEnabled(doc.section.spill_level is not None)
             has_structure = doc.structure is not None
@@ -289,6 +313,20 @@ class CaseListPanel(QWidget):
             for w in widgets:
                 w.blockSignals(False)
         self._show_error("")
+
+    def _show_fill_choice(self):
+        """The fill choice of the active case in the combo box."""
+        doc = self._doc
+        lc = doc.active_load_case
+        if lc.fill_level in (SPILL, EMPTY):
+            key = lc.fill_level
+        else:
+            key = "volume" if doc.case.fill_volume is not None else "level"
+        i = self.fill.findData(key)
+        if self.fill.currentIndex() != i:
+            self.fill.blockSignals(True)
+            self.fill.setCurrentIndex(i)
+            self.fill.blockSignals(False)
 
     def _default_groundwater_level(self):
         """A first groundwater level offered: the ground surface, else the

@@ -230,12 +230,14 @@ class LoadChart(pg.PlotWidget):
         if not self._dragging:
             self._dragging = True
             self._drags += 1
+            self._doc.begin_live_edit()  # the envelope waits for the release
         self.set_level_at(line.value(), ("chart cursor", self._drags))
 
     def _on_cursorReleased(self, line):
         if self._dragging:
             self._dragging = False
             self.set_level_at(line.value(), ("chart cursor", self._drags))
+            self._doc.end_live_edit()
 
     def _on_mouseClicked(self, ev):
         if ev.button() != Qt.LeftButton or ev.isAccepted():

@@ -250,6 +250,7 @@ class FillPanel(QGroupBox):
         self.mode.currentIndexChanged.connect(self._on_mode_changed)
         self.value.editingFinished.connect(self._on_value_edited)
         self.slider.sliderPressed.connect(self._on_slider_pressed)
+        self.slider.sliderReleased.connect(self._on_slider_released)
         self.slider.valueChanged.connect(self._on_slider_moved)
         document.fillChanged.connect(self._on_fillChanged)
         document.sectionChanged.connect(self._on_fillChanged)
@@ -341,6 +342,10 @@ class FillPanel(QGroupBox):
 
     def _on_slider_pressed(self):
         self._drag += 1
+        self._doc.begin_live_edit()  # the envelope over all cases waits for the release
+
+    def _on_slider_released(self):
+        self._doc.end_live_edit()
 
     def _on_slider_moved(self, value):
         key = ("slider", self._drag) if self.slider.isSliderDown() else ("slider-step",)

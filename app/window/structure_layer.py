@@ -18,6 +18,7 @@ import numpy as np
 import pyqtgraph as pg
 from PySide6.QtCore import Qt
 from PySide6.QtGui import QBrush, QColor, QPen, QTransform
+from PySide6.QtWidgets import QGraphicsItem
 
 from wetline.app.render.geometry import (
     arrow_strokes,
@@ -38,7 +39,8 @@ from wetline.app.window.canvas_items import (
 from wetline.core.hydrostatics import solve
 
 __all__ = ["StructureLayer", "STRUCTURE_INK", "GROUND_COLOUR", "GROUNDWATER_COLOUR",
-           "OUTER_DIAGRAM_LINE", "OUTER_DIAGRAM_TEXT", "MAX_OUTER_PRESSURE_LABELS"]
+           "OUTER_DIAGRAM_LINE", "OUTER_DIAGRAM_TEXT", "MAX_OUTER_PRESSURE_LABELS",
+           "MAX_SOIL_LABELS"]
 
 STRUCTURE_INK = "#4a525c"
 """The structure's outer outline and hatching."""
@@ -54,6 +56,8 @@ OUTER_DIAGRAM_TEXT = "#0b5864"
 SOIL_FILL = QColor(176, 138, 92, 55)
 MAX_OUTER_PRESSURE_LABELS = 6
 """Groundwater pressure values labelled at most."""
+MAX_SOIL_LABELS = 4
+"""Ledges whose soil weight is labelled at most (the heaviest)."""
 
 
 class StructureLayer:
@@ -75,6 +79,11 @@ class StructureLayer:
         self.soil.setBrush(QBrush(SOIL_FILL))
         self.ground = add_item(vb, pg.PlotCurveItem(pen=cosmetic_pen(GROUND_COLOUR, 2.0)), 6)
         self.ground_ticks = pairs_curve(vb, cosmetic_pen(GROUND_COLOUR, 1.0), 6)
+        for item in (self.section, self.mirror_section, self.soil, self.outline,
+                     self.mirror_outline, self.ground, self.ground_ticks):
+            # Hatching a large area costs milliseconds a paint: kept as a
+            # pixmap until the view moves or the outline changes.
+            item.setCacheMode(QGraphicsItem.DeviceCoordinateCache)
         self.groundwater = add_item(vb, pg.PlotCurveItem(
             pen=cosmetic_pen(GROUNDWATER_COLOUR, 1.6, Qt.DashLine)), 6)
         self.groundwater_mark = add_item(vb, pg.ScatterPlotItem(
@@ -87,10 +96,18 @@ class StructureLayer:
         """The groundwater's :class:`wetline.core.hydrostatics.Solution` on
         the outer outline last drawn (None in dry ground)."""
         self._water_key = None
+        self._section_key = None
+        self._soil_key = None
+        self._ground_key = None
+        self._water_drawn = None
+        self._water_edges = None
 
     # ------------------------------------------------------------ state
     def clear(self):
         """Nothing drawn (no structure)."""
+        if self._section_key is None and self._ground_key is None \
+                and self._water_drawn is None:
+            return  # nothing is drawn: a slider step of a section without structure
         for item in (self.outline, self.mirror_outline, self.ground, self.ground_ticks,
                      self.groundwater, self.arrows):
             item.setData([], [])
@@ -100,7 +117,9 @@ class StructureLayer:
         self.mirror_section.setVisible(False)
         self.mirror_outline.setVisible(False)
         self.water_solution = None
-        self._water_key = None
+        self._water_key = self._section_key = self._soil_key = None
+        self._ground_key = self._water_drawn = self._water_edges = None
+        self._section_objects = None
 
     def groundwater_solution(self, design, loads):
         """The groundwater's loads on the outer outline as a Solution (kept
@@ -135,29 +154,36 @@ class StructureLayer:
             loads = None  # results of another outline: drawn once they are solved
         axi = cavity.is_axisymmetric
         outer = np.asarray(s.outline)
-        path = rings_path([outer, np.asarray(cavity.outline)])
-        path.setFillRule(Qt.OddEvenFill)
-        self.section.setPath(path)
-        ring = np.vstack([outer, outer[:1]])
-        self.outline.setData(ring[:, 0], ring[:, 1])
-        if axi:
-            flip = QTransform.fromScale(-1.0, 1.0)
-            self.mirror_section.setPath(flip.map(path))
-            self.mirror_outline.setData(-ring[:, 0], ring[:, 1])
-        for item in (self.mirror_section, self.mirror_outline):
-            if item.isVisible() != axi:
-                item.setVisible(axi)
+        if self._section_key != (id(s), id(cavity)) or self._section_key is None:
+            # The same structure and cavity (a slider drag): nothing to draw again.
+            self._section_key = (id(s), id(cavity))
+            self._section_objects = (s, cavity)  # keeps the ids meaningful
+            path = rings_path([outer, np.asarray(cavity.outline)])
+            path.setFillRule(Qt.OddEvenFill)
+            self.section.setPath(path)
+            ring = np.vstack([outer, outer[:1]])
+            self.outline.setData(ring[:, 0], ring[:, 1])
+            if axi:
+                flip = QTransform.fromScale(-1.0, 1.0)
+                self.mirror_section.setPath(flip.map(path))
+                self.mirror_outline.setData(-ring[:, 0], ring[:, 1])
+            for item in (self.mirror_section, self.mirror_outline):
+                if item.isVisible() != axi:
+                    item.setVisible(axi)
         x0, x1 = span
         size = max(x1 - x0, float(np.ptp(outer[:, 1])), 1e-9)
         ground = design.ground
         if ground is not None:
             g = ground.level
-            self.ground.setData([x0, x1], [g, g])
-            ticks = np.linspace(x0, x1, 25)
-            d = 0.018 * size
-            tx = np.column_stack([ticks, ticks - d]).ravel()
-            tz = np.column_stack([np.full(ticks.size, g), np.full(ticks.size, g - d)]).ravel()
-            self.ground_ticks.setData(tx, tz)
+            if self._ground_key != (x0, x1, g, size):
+                self._ground_key = (x0, x1, g, size)
+                self.ground.setData([x0, x1], [g, g])
+                ticks = np.linspace(x0, x1, 25)
+                d = 0.018 * size
+                tx = np.column_stack([ticks, ticks - d]).ravel()
+                tz = np.column_stack([np.full(ticks.size, g),
+                                      np.full(ticks.size, g - d)]).ravel()
+                self.ground_ticks.setData(tx, tz)
             # Just left of the structure, above the line (the view's corners
             # hold the legend and the spill level's label).
             sx0 = float(outer[:, 0].min())
@@ -165,34 +191,43 @@ class StructureLayer:
                 sx0 = min(sx0, -float(outer[:, 0].max()))
             labels.ask(sx0 - 0.03 * size, g, f"ground {units.fmt_length(g)}", GROUND_COLOUR,
                        (1, 1))
-            blocks = soil_blocks(design.exterior.soil_segments, g)
-            self.soil.setPath(rings_path(blocks))
-        else:
+            key = (id(s), id(cavity), g)
+            if self._soil_key != key:
+                self._soil_key = key
+                self.soil.setPath(rings_path(_soil_rings(design, g)))
+        elif self._ground_key is not None:
             self.ground.setData([], [])
             self.ground_ticks.setData([], [])
             self.soil.setPath(path_of([], [], []))
+            self._soil_key = self._ground_key = None
         water = self.groundwater_solution(design, loads)
         if water is not None:
             zw = loads.groundwater.level
-            self.groundwater.setData([x0, x1], [zw, zw])
-            self.groundwater_mark.setData([x1 - 0.04 * size], [zw + 0.012 * size])
+            key = (id(water), scale, x0, x1, size)
+            if self._water_drawn != key:  # the same water at the same scale: as drawn
+                self._water_drawn = key
+                self.groundwater.setData([x0, x1], [zw, zw])
+                self.groundwater_mark.setData([x1 - 0.04 * size], [zw + 0.012 * size])
+                w = wetted_edges(water)
+                self._water_edges = w
+                x, z, connect = diagram_polygons(w, scale)
+                p = path_of(x, z, connect)
+                p.setFillRule(Qt.WindingFill)
+                self.diagram.setPath(p)
+                tx, tz, px, pz = pressure_arrows(w, scale, count=40)
+                # Arrows point at the wall: the water pushes on the structure.
+                self.arrows.setData(*arrow_strokes(px, pz, tx, tz, 0.02 * size))
+            w = self._water_edges
             # Just right of the structure, under the line.
             labels.ask(float(outer[:, 0].max()) + 0.03 * size, zw,
                        f"groundwater {units.fmt_length(zw)}", GROUNDWATER_COLOUR, (0, 0))
-            w = wetted_edges(water)
-            x, z, connect = diagram_polygons(w, scale)
-            p = path_of(x, z, connect)
-            p.setFillRule(Qt.WindingFill)
-            self.diagram.setPath(p)
-            tx, tz, px, pz = pressure_arrows(w, scale, count=40)
-            # Arrows point at the wall: the water pushes on the structure.
-            self.arrows.setData(*arrow_strokes(px, pz, tx, tz, 0.02 * size))
             for site in pressure_sites(w, water.section.n_edges, MAX_OUTER_PRESSURE_LABELS):
                 dx, dz = site.direction
                 sx, sz = site.tip(scale)
                 labels.ask(sx, sz, units.fmt_pressure(site.pressure), OUTER_DIAGRAM_TEXT,
                            (0.5 - 0.5 * dx, 0.5 + 0.5 * dz), optional=True, once=True)
-        else:
+        elif self._water_drawn is not None:
+            self._water_drawn = None
             self.groundwater.setData([], [])
             self.groundwater_mark.setData([], [])
             self.diagram.setPath(path_of([], [], []))
@@ -202,17 +237,52 @@ class StructureLayer:
 
     @staticmethod
     def _ask_soil(design, loads, scope, labels):
-        """One label per outer edge carrying soil: its weight, in the middle
-        of the soil standing on it (stepping aside where that is taken)."""
+        """The soil's weight on each ledge (a run of consecutive outer edges
+        carrying soil), in the middle of the soil standing on it: the
+        largest stepping aside where its place is taken, the next few
+        (:data:`MAX_SOIL_LABELS` in all) only where there is room."""
         fz = loads.soil_fz
+        carrying = fz < 0
+        if not carrying.any():
+            return
         g = design.ground.level
         outline = design.structure.outline
         n = len(outline)
-        for e in np.flatnonzero(fz < 0):
-            a, b = outline[e], outline[(e + 1) % n]
+        idx = np.flatnonzero(carrying)
+        # Runs of consecutive edges (wrapping past the last edge).
+        breaks = np.flatnonzero(np.diff(idx) != 1) + 1
+        runs = np.split(idx, breaks)
+        if len(runs) > 1 and runs[0][0] == 0 and runs[-1][-1] == n - 1:
+            runs = [np.concatenate([runs[-1], runs[0]])] + runs[1:-1]
+        weights = [float(-fz[r].sum()) for r in runs]
+        order = np.argsort(weights)[::-1][:MAX_SOIL_LABELS]
+        for rank, k in enumerate(order):
+            r = runs[k]
+            a, b = outline[r[0]], outline[(r[-1] + 1) % n]
             xm = 0.5 * (a[0] + b[0])
-            zt = 0.5 * (min(a[1], g) + g)
-            labels.ask(xm, zt, f"soil {scope.text(-fz[e])}", GROUND_COLOUR, (0.5, 0.5))
+            zt = 0.5 * (min(max(a[1], b[1]), g) + g)
+            labels.ask(xm, zt, f"soil {scope.text(weights[k])}", GROUND_COLOUR, (0.5, 0.5),
+                       optional=rank > 0)
+
+
+def _soil_rings(design, ground_level):
+    """Rings of the soil standing on the structure's ledges up to the ground,
+    the structure itself cut out (a ledge under an overhang is drawn only
+    where the soil would be)."""
+    import shapely
+
+    blocks = soil_blocks(design.exterior.soil_segments, ground_level)
+    if not blocks:
+        return []
+    soil = shapely.union_all(shapely.polygons(blocks))
+    soil = shapely.difference(soil, shapely.Polygon(design.structure.outline))
+    rings = []
+    for poly in shapely.get_parts(soil):
+        if poly.geom_type != "Polygon" or poly.is_empty:
+            continue
+        for ring in [poly.exterior, *poly.interiors]:
+            rings.append(shapely.get_coordinates(ring))
+    return rings
 
 
 def _same_key(a, b):
