@@ -20,7 +20,8 @@ cooperating pieces:
   out by the one layout engine with bounded work;
 - :class:`wetline.app.window.canvas_editing.OutlineEditor` and
   :class:`wetline.app.window.vertex_handles.VertexHandles`: what the mouse
-  and keys do to the outline (every edit through
+  and keys do to the outline, and a drag does to the structure's outline
+  (its own square handles; every edit through
   :mod:`wetline.app.model.editing`).
 """
 
@@ -76,6 +77,14 @@ class SectionCanvas(pg.PlotWidget):
         self.editor = OutlineEditor(self, document)
         self.handles = VertexHandles(self.editor.pick_vertex)
         vb.addItem(self.handles)
+        # The structure's vertices: square, grey, under the cavity's handles.
+        self.structure_handles = VertexHandles(self.editor.pick_structure_vertex)
+        self.structure_handles.setSymbol("s")
+        self.structure_handles.setSize(8)
+        self.structure_handles.setBrush(pg.mkBrush("#d5dae0"))
+        self.structure_handles.setPen(pg.mkPen("#4a525c", width=1.2))
+        self.structure_handles.setZValue(39)
+        vb.addItem(self.structure_handles)
         self._redraw_timer = QTimer(self)
         self._redraw_timer.setSingleShot(True)
         self._redraw_timer.setInterval(0)
@@ -107,6 +116,8 @@ class SectionCanvas(pg.PlotWidget):
         self.handles.dragStarted.connect(self.editor.on_drag_started)
         self.handles.dragMoved.connect(self.editor.on_drag_moved)
         self.handles.dragFinished.connect(self.editor.on_drag_finished)
+        self.structure_handles.dragMoved.connect(self.editor.on_structure_drag_moved)
+        self.structure_handles.dragFinished.connect(self.editor.on_structure_drag_finished)
         self.scene().sigMouseMoved.connect(self._on_mouseMoved)
         self.scene().sigMouseClicked.connect(self._on_mouseClicked)
 
@@ -206,7 +217,7 @@ class SectionCanvas(pg.PlotWidget):
         self._draw_selection()
 
     def _on_structureChanged(self):
-        self.schedule()
+        self.schedule(outline=True)
 
     def _on_envelopeReady(self, _envelope):
         if self._doc.view_mode == "envelope":
@@ -229,6 +240,13 @@ class SectionCanvas(pg.PlotWidget):
             else:
                 self.handles.setData(pos=np.empty((0, 2)))
                 self.handles.hide()
+            structure = self._doc.working_structure_outline()
+            if structure is not None and len(structure[0]) <= MAX_HANDLES:
+                self.structure_handles.set_positions(structure[0])
+                self.structure_handles.show()
+            else:
+                self.structure_handles.setData(pos=np.empty((0, 2)))
+                self.structure_handles.hide()
             self.outline_layer.draw_fault(self._doc.fault())
             self._draw_selection()
         solution = self._solution

@@ -78,6 +78,8 @@ class FlotationPanel(QGroupBox):
         lay.addWidget(self._grid_host)
         document.solved.connect(self._on_solved)
         document.envelopeReady.connect(self._on_envelopeReady)
+        document.casesChanged.connect(self._on_envelopeReady)  # now waiting: say so
+        document.sectionChanged.connect(self._on_envelopeReady)
         document.structureChanged.connect(self._on_changed)
         document.unitsChanged.connect(self._on_changed)
         document.upliftInputsChanged.connect(self._on_changed)
@@ -100,7 +102,7 @@ class FlotationPanel(QGroupBox):
     def _on_solved(self, _solution):
         self._update_case()
 
-    def _on_envelopeReady(self, _envelope):
+    def _on_envelopeReady(self, *_):
         self._update_envelope()
 
     def _on_changed(self, *_):

@@ -89,6 +89,8 @@ class StructureLayer:
         self.groundwater_mark = add_item(vb, pg.ScatterPlotItem(
             size=11, symbol="t", pen=pg.mkPen(GROUNDWATER_COLOUR, width=1.2),
             brush=pg.mkBrush(255, 255, 255, 230)), 7)
+        self.drag = add_item(vb, pg.PlotCurveItem(
+            pen=cosmetic_pen(STRUCTURE_INK, 1.4, Qt.DashLine)), 21)
         self.diagram = filled_path_item(vb, OUTER_DIAGRAM_FILL, -6,
                                         pen=cosmetic_pen(OUTER_DIAGRAM_LINE, 1.0))
         self.arrows = pairs_curve(vb, pg.mkPen(OUTER_DIAGRAM_LINE, width=1), -4)
@@ -120,6 +122,14 @@ class StructureLayer:
         self._water_key = self._section_key = self._soil_key = None
         self._ground_key = self._water_drawn = self._water_edges = None
         self._section_objects = None
+
+    def show_drag(self, outline):
+        """The structure's outline being dragged ((N, 2) [m]) dashed, or none."""
+        if outline is None:
+            self.drag.setData([], [])
+            return
+        ring = np.vstack([outline, outline[:1]])
+        self.drag.setData(ring[:, 0], ring[:, 1])
 
     def groundwater_solution(self, design, loads):
         """The groundwater's loads on the outer outline as a Solution (kept

@@ -359,3 +359,64 @@ def test_a_screenshot_of_the_wet_well_keeps_its_labels_apart(well, settle, tmp_p
             assert "groundwater 4 m" in labels and "ground 4 m" in labels
         if mode == "envelope":
             assert labels[0] == "envelope of 4 cases (design values)"
+
+
+def test_the_envelope_waits_for_the_slider_and_follows_its_release(well, settle):
+    doc = well.doc
+    well.set_view_mode("envelope")
+    doc.select_case(0)
+    settle(well)
+    slider = well.fill_panel.slider
+    old = doc.envelope
+    slider.setSliderDown(True)
+    slider.sliderPressed.emit()
+    for v in (300, 500, 700):
+        slider.setValue(v)
+        settle(well)
+    assert doc.envelope is old and not doc.envelope_current
+    assert "updates on release" in well.flotation_panel.text("lowest")
+    slider.setSliderDown(False)
+    slider.sliderReleased.emit()
+    settle(well)
+    assert doc.envelope_current and doc.envelope is not old
+    assert "updates on release" not in well.flotation_panel.text("lowest")
+    assert doc.undo_stack.count() == 1  # one drag, one step
+
+
+def test_a_restored_recovery_copy_keeps_the_cases(make_window, buried_wet_well, tmp_path,
+                                                  settle):
+    from wetline.app.model import recovery
+    from wetline.app.model.cases import same_design
+
+    design = buried_wet_well()
+    recovery.write_copy(tmp_path, "old", design, "well", "/jobs/well.section.json")
+    (copy,) = recovery.list_copies(tmp_path)
+    w = make_window(recovery_folder=tmp_path / "mine")
+    assert w.restore_recovery(copy)
+    settle(w)
+    assert same_design(w.doc.design, design) and w.doc.is_modified
+    assert _case_rows(w) == list(design.names)
+
+
+def test_dragging_a_structure_vertex_on_the_canvas(well, settle):
+    doc = well.doc
+    handles = well.canvas.structure_handles
+    assert handles.isVisible() and len(handles.data) == doc.structure.n_edges
+    x, z = doc.structure.outline[1]
+    assert well.canvas.editor.pick_structure_vertex(x, z) == 1
+    handles.dragStarted.emit(1)
+    handles.dragMoved.emit(1, 3.45, -0.4)
+    dragged = well.canvas.structure_layer.drag
+    assert dragged.xData is not None and 3.45 in dragged.xData  # shown dashed
+    assert doc.undo_stack.count() == 0  # not an edit yet
+    handles.dragFinished.emit(1, 3.5, -0.4)
+    settle(well)
+    assert doc.structure.outline[1].tolist() == [3.5, -0.4]
+    assert doc.undo_stack.undoText() == "Move structure vertex 1"
+    assert len(dragged.xData) == 0
+    # Into the cavity: refused, marked, nothing changes.
+    before = doc.design
+    handles.dragFinished.emit(1, 1.5, 1.0)
+    settle(well)
+    assert doc.design is before and doc.draft.target == "structure"
+    assert well.canvas.outline_layer.fault_text.isVisible()
