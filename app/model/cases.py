@@ -35,9 +35,10 @@ from wetline.core.load_cases import (
     SolvedCase,
     envelope,
 )
-from wetline.core.structure import ExteriorGeometry, exterior_loads
+from wetline.core.structure import ExteriorGeometry, exterior_geometry, exterior_loads
 
-__all__ = ["same_design", "rebuild", "new_case_name", "CaseSolver"]
+__all__ = ["same_design", "rebuild", "forget_derived", "restore_derived", "new_case_name",
+           "CaseSolver"]
 
 
 def same_design(a: Design | None, b: Design | None) -> bool:
@@ -59,6 +60,7 @@ def rebuild(design: Design, *, case: Case | None = None,
     When the new case keeps the section object and the design has a
     structure, its exterior geometry is reused instead of computed again.
     """
+    restore_derived(design)
     new_case = design.case if case is None else case
     new_cases = design.cases if cases is None else tuple(cases)
     if design.structure is None or new_case.section is not design.section:
@@ -87,6 +89,25 @@ def rebuild(design: Design, *, case: Case | None = None,
         resolved.append(r if r is not None and r.index == i else resolve(c, i))
     object.__setattr__(out, "_resolved", tuple(resolved))
     return out
+
+
+def forget_derived(design: Design) -> None:
+    """Drop ``design``'s exterior geometry (the structure's soil and base
+    pieces, some hundred kB at 2,000 vertices): it lives on only in the undo
+    history. :func:`restore_derived` makes it again when it comes back, with
+    the same values. (For the lead: core's ``Design.forget_derived``, as
+    ``Section.forget_derived``.)"""
+    if design.structure is not None and design.exterior is not None:
+        object.__setattr__(design, "_exterior", None)
+
+
+def restore_derived(design: Design) -> Design:
+    """``design`` with its exterior geometry (made again if it was
+    forgotten: the structure was checked when the design was made)."""
+    if design.structure is not None and design.exterior is None:
+        object.__setattr__(design, "_exterior", exterior_geometry(
+            design.structure, design.section, checked=True))
+    return design
 
 
 def new_case_name(names: Iterable[str]) -> str:

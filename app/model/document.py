@@ -63,7 +63,7 @@ from wetline.core.load_cases import Design, Envelope, LoadCase, LoadCaseError, S
 from wetline.core.section import Section, SectionError
 from wetline.core.structure import Ground, Structure, StructureError
 
-from .cases import CaseSolver, same_design
+from .cases import CaseSolver, forget_derived, restore_derived, same_design
 from .display import DisplayChoice
 
 __all__ = ["Document", "Draft", "Preview", "fill_range", "preview_steps", "outline_fault",
@@ -519,13 +519,14 @@ class Document(QObject):
         old, old_case, old_active = self._design, self._case, self._active
         active = min(max(int(active), 0), len(design.names) - 1)
         case = _active_case(design, active)
+        restore_derived(design)
         self._design, self._active, self._case = design, active, case
         if old.section is not design.section:
             # The old section lives on only in the undo history: keep it light.
             old.section.forget_derived()
-        if old.exterior is not None and old.exterior is not design.exterior \
-                and old.exterior.outer is not getattr(design.exterior, "outer", None):
-            old.exterior.outer.forget_derived()
+        if old is not design and old.exterior is not None \
+                and old.exterior is not design.exterior:
+            forget_derived(old)
         section_changed = old.section is not design.section and old.section != design.section
         liquid_changed = (old_case.liquid != case.liquid or old_case.gravity != case.gravity)
         fill_changed = (old_case.fill_level != case.fill_level

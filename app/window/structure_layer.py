@@ -201,9 +201,12 @@ class StructureLayer:
                 sx0 = min(sx0, -float(outer[:, 0].max()))
             labels.ask(sx0 - 0.03 * size, g, f"ground {units.fmt_length(g)}", GROUND_COLOUR,
                        (1, 1))
-            key = (id(s), id(cavity), g)
-            if self._soil_key != key:
-                self._soil_key = key
+            segments = design.exterior.soil_segments
+            key = self._soil_key
+            if key is None or key[0] is not s or key[1] != g \
+                    or not np.array_equal(key[2], segments):
+                # (A dragged cavity vertex leaves the soil as it was.)
+                self._soil_key = (s, g, segments)
                 self.soil.setPath(rings_path(_soil_rings(design, g)))
         elif self._ground_key is not None:
             self.ground.setData([], [])

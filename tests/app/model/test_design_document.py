@@ -334,3 +334,18 @@ def test_rebuild_keeps_the_structures_geometry_and_equals_a_fresh_design(buried_
         rebuild(design, cases=cases + [LoadCase("half")])
     with pytest.raises(LoadCaseError, match="spill"):
         rebuild(design, cases=[LoadCase("x", groundwater=Groundwater(5.0))])
+
+
+def test_designs_left_in_the_history_drop_their_exterior_geometry(doc):
+    first = doc.design
+    x, z = doc.section.outline[1]
+    assert editing.move_vertex(doc, 1, x + 0.05, z)
+    doc.flush()
+    assert first.exterior is None  # kept light while it waits in the history
+    assert doc.design.exterior is not None
+    doc.undo_stack.undo()
+    doc.flush()
+    assert doc.design is first and first.exterior is not None  # made again on its return
+    ref = envelope(first.solve_all())
+    assert doc.envelope.flotation == ref.flotation
+    np.testing.assert_array_equal(doc.envelope.edge_max_pressure, ref.edge_max_pressure)
