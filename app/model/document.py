@@ -106,7 +106,7 @@ def outline_fault(exc: ValueError) -> SectionError:
 def as_design(value: Design | Case) -> Design:
     """``value`` as a :class:`Design` (a bare case is a design of one case)."""
     if isinstance(value, Design):
-        return value
+        return restore_derived(value)  # (one left in another document's history)
     if isinstance(value, Case):
         return Design(value)
     raise TypeError("a Document holds a core.load_cases.Design (or a core.case.Case)")

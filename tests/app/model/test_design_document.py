@@ -349,3 +349,18 @@ def test_designs_left_in_the_history_drop_their_exterior_geometry(doc):
     ref = envelope(first.solve_all())
     assert doc.envelope.flotation == ref.flotation
     np.testing.assert_array_equal(doc.envelope.edge_max_pressure, ref.edge_max_pressure)
+
+
+def test_a_design_from_another_documents_history_opens_whole(qtbot, buried_wet_well):
+    design = buried_wet_well()
+    first = Document(design)
+    assert editing.move_vertex(first, 1, 3.05, 0.0)
+    assert design.exterior is None  # in first's history
+    second = Document(design)
+    second.flush()
+    assert second.design.exterior is not None
+    assert second.envelope.flotation == envelope(design.solve_all()).flotation
+    third = Document(buried_wet_well(cases=False))
+    third.load(first.undo_stack.command(0)._old)
+    third.flush()
+    assert third.design.exterior is not None
