@@ -116,6 +116,8 @@ def test_fill_choice_groundwater_and_load_factor_of_the_active_case(well, settle
 @pytest.mark.parametrize("index", range(4))
 def test_choosing_a_case_drives_every_view(well, settle, index):
     doc = well.doc
+    editing.set_resistance(doc, "roof", "self_weight", 7500.0)  # the file level's
+    settle(well)
     well.case_list.table.selectRow(index)
     settle(well)
     assert doc.active_index == index
@@ -147,6 +149,11 @@ def test_choosing_a_case_drives_every_view(well, settle, index):
     assert fp.text("resistance") == scope.text(f.resistance)
     assert fp.text("self_weight") == scope.text(ref.structure.self_weight)
     assert fp.text("soil") == scope.text(ref.structure.soil_weight)
+    # uplift panel: the uplift check of the case's own solution
+    results = {r.part: r for r in well.uplift_panel.results}
+    for r in ref.resolved.case.uplift(sol):
+        assert results[r.part].factor == r.factor
+        assert results[r.part].uplift == r.uplift
     # canvas: the groundwater's diagram only where the case has groundwater
     water = well.canvas.structure_layer.water_solution
     assert (water is not None) == (ref.resolved.groundwater is not None)
