@@ -1,7 +1,7 @@
 """Undo commands: the three kinds of document state an edit changes.
 
 Each command keeps the state before and after (immutable
-:class:`wetline.core.case.Case` values, a
+:class:`wetline.core.load_cases.Design` values with the active case, a
 :class:`wetline.app.model.display.DisplayChoice`, a diagram scale), so undo
 returns the document exactly. Commands given the same ``merge_key`` one after
 another merge into one undo step: the nudges of one vertex, the steps of one
@@ -16,85 +16,97 @@ from typing import TYPE_CHECKING
 
 from PySide6.QtGui import QUndoCommand
 
-from wetline.core.case import Case
+from wetline.core.load_cases import Design
 
+from .cases import same_design
 from .display import DisplayChoice
 
 if TYPE_CHECKING:
     from .document import Document
 
-__all__ = ["CaseCommand", "NewSectionCommand", "UnitsCommand", "DiagramScaleCommand"]
+__all__ = ["DesignCommand", "CaseCommand", "NewSectionCommand", "UnitsCommand",
+           "DiagramScaleCommand"]
 
 _CASE_ID = 1001
 _SCALE_ID = 1002
 
 
-class CaseCommand(QUndoCommand):
-    """Replace the document's case.
+class DesignCommand(QUndoCommand):
+    """Replace the document's design (and which case is active).
 
     Parameters
     ----------
     document : wetline.app.model.document.Document
-    case : wetline.core.case.Case
-        The case after the edit.
+    design : wetline.core.load_cases.Design
+        The design after the edit.
     text : str
         What the edit did, for the Edit menu ("Move vertex 3").
     merge_key : hashable or None
         Consecutive commands with the same key merge into one step.
+    active : int or None
+        The case active after the edit (default: the one active before);
+        undo makes the one active before active again.
     """
 
-    def __init__(self, document: Document, case: Case, text: str,
-                 merge_key: Hashable | None = None) -> None:
+    def __init__(self, document: Document, design: Design, text: str,
+                 merge_key: Hashable | None = None, active: int | None = None) -> None:
         super().__init__(text)
         self._doc = document
-        self._old: Case = document.case
-        self._new: Case = case
+        self._old: Design = document.design
+        self._old_active = document.active_index
+        self._new: Design = design
+        self._new_active = document.active_index if active is None else int(active)
         self._key = merge_key
 
     def id(self) -> int:
         return -1 if self._key is None else _CASE_ID
 
     def mergeWith(self, other: QUndoCommand) -> bool:
-        if not isinstance(other, CaseCommand) or self._key is None or other._key != self._key:
+        if not isinstance(other, DesignCommand) or self._key is None or other._key != self._key:
             return False
         self._new = other._new
+        self._new_active = other._new_active
         self.setText(other.text())
-        if self._new == self._old:
+        if same_design(self._new, self._old) and self._new_active == self._old_active:
             self.setObsolete(True)
         return True
 
     def redo(self) -> None:
-        self._doc.set_case(self._new)
+        self._doc.set_design(self._new, self._new_active)
 
     def undo(self) -> None:
-        self._doc.set_case(self._old)
+        self._doc.set_design(self._old, self._old_active)
 
 
-class NewSectionCommand(CaseCommand):
+CaseCommand = DesignCommand
+"""The name of old for :class:`DesignCommand` (a design of one case)."""
+
+
+class NewSectionCommand(DesignCommand):
     """Start a new, untitled section (a template, a drawn outline, an
     import): the document leaves its file, so Save asks for a name and never
-    overwrites the file the old section came from. Undo returns the old case
-    with its file and saved state.
+    overwrites the file the old section came from. Undo returns the old
+    design with its file and saved state.
 
     Parameters
     ----------
     document : wetline.app.model.document.Document
-    case : wetline.core.case.Case
-        The new section's case.
+    design : wetline.core.load_cases.Design
+        The new section's design.
     text : str
         What started it ("New section: Open tank").
     """
 
-    def __init__(self, document: Document, case: Case, text: str) -> None:
-        super().__init__(document, case, text)
+    def __init__(self, document: Document, design: Design, text: str) -> None:
+        super().__init__(document, design, text, active=0)
         self._old_file = document.file_state
 
     def redo(self) -> None:
         self._doc.set_file_state(None, None)
-        self._doc.set_case(self._new)
+        self._doc.set_design(self._new, self._new_active)
 
     def undo(self) -> None:
-        self._doc.set_case(self._old)
+        self._doc.set_design(self._old, self._old_active)
         self._doc.set_file_state(*self._old_file)
 
 

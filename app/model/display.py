@@ -19,7 +19,13 @@ import numpy as np
 
 from wetline.core.force_scope import ForceScope, force_scope, resistance_quantity
 from wetline.core.section import Section
-from wetline.core.units import SI_LENGTH_UNITS, US_LENGTH_UNITS, DisplayUnits, display_units
+from wetline.core.units import (
+    SI_LENGTH_UNITS,
+    US_LENGTH_UNITS,
+    DisplayUnits,
+    display_units,
+    pint_factor,
+)
 
 __all__ = ["DisplayChoice", "LENGTH_UNITS_OF"]
 
@@ -94,6 +100,19 @@ class DisplayChoice:
         q = resistance_quantity(section)
         return q, self.units.label(q)
 
+    @property
+    def unit_weight_label(self) -> str:
+        """Label of unit weights (of concrete, of soil): kN/m3 or lbf/ft3."""
+        return _UNIT_WEIGHTS[self.system][0]
+
+    def unit_weight(self, n_m3: Value) -> Value:
+        """A unit weight [N/m3] in the display system's unit."""
+        return n_m3 / _unit_weight_factor(self.system)
+
+    def unit_weight_si(self, value: Value) -> Value:
+        """A unit weight typed in the display system's unit, in N/m3."""
+        return value * _unit_weight_factor(self.system)
+
     # -------------------------------------------------------- formatting
     def fmt_length(self, metres: float) -> str:
         return self.units.text(metres, "length")
@@ -106,6 +125,20 @@ class DisplayChoice:
 
     def fmt_density(self, kg_m3: float) -> str:
         return self.units.text(kg_m3, "density")
+
+
+_UNIT_WEIGHTS = {"si": ("kN/m3", "kN/m**3"), "us": ("lbf/ft3", "lbf/ft**3")}
+"""Display label and pint expression of unit weights in each system."""
+_UNIT_WEIGHT_FACTORS: dict[str, float] = {}
+
+
+def _unit_weight_factor(system: str) -> float:
+    """N/m3 in one display unit of unit weight (pint, rounded as every
+    display factor is)."""
+    f = _UNIT_WEIGHT_FACTORS.get(system)
+    if f is None:
+        f = _UNIT_WEIGHT_FACTORS[system] = pint_factor(_UNIT_WEIGHTS[system][1], "N/m**3")
+    return f
 
 
 _CACHE: dict[tuple[str, str], DisplayUnits] = {}

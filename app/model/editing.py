@@ -1,16 +1,26 @@
 """User edits of a document, as undo commands: every edit is built here.
 
-The views (panels, tables, canvas, chart, main window, file import) call
-these functions; each builds the new case with core and pushes one
-:class:`wetline.app.model.commands.CaseCommand` with readable text (or a
-units or diagram-scale command). Outline edits that core refuses (crossing
-edges, too few vertices) become the document's
-:class:`wetline.app.model.document.Draft` instead, so nothing typed, drawn
-or dragged is lost and the last valid case stays in force.
+The views (panels, tables, canvas, chart, case list, main window, file
+import) call these functions; each builds the new design with core and
+pushes one :class:`wetline.app.model.commands.DesignCommand` with readable
+text (or a units or diagram-scale command).
+
+Where an edit lands: the fill, the liquid and gravity are the active load
+case's (its overrides) when the design has cases, else the file-level
+values; the outline, parts, kind, width, uplift inputs and sheet header are
+the file level's; groundwater and the load factor are a case's only (a
+design without cases gains its one case, named as before, the first time
+one is set). Outline edits that core refuses (crossing edges, too few
+vertices, a cavity the structure no longer holds, a fill word the new
+outline cannot take) become the document's
+:class:`wetline.app.model.document.Draft` instead, marked with the fault,
+so nothing typed, drawn or dragged is lost and the last valid design stays
+in force. The same holds for the structure's outline.
 """
 
 from __future__ import annotations
 
+import dataclasses
 from collections.abc import Hashable, Sequence
 
 import numpy as np
@@ -19,30 +29,53 @@ from numpy.typing import ArrayLike
 from wetline.core.case import Case, ReportInfo
 from wetline.core.fill import FillError, capacity
 from wetline.core.liquids import Liquid
+from wetline.core.load_cases import EMPTY, SPILL, Design, LoadCase, LoadCaseError
 from wetline.core.numbers import format_number
 from wetline.core.section import Section, SectionError
+from wetline.core.structure import Ground, Groundwater, Structure, StructureError
 from wetline.core.uplift import DEFAULT_REQUIRED_FACTOR, PartResistance
 
-from .commands import CaseCommand, DiagramScaleCommand, NewSectionCommand, UnitsCommand
+from .cases import new_case_name, rebuild
+from .commands import DesignCommand, DiagramScaleCommand, NewSectionCommand, UnitsCommand
 from .display import DisplayChoice
-from .document import Document, Draft, fill_range
+from .document import STRUCTURE, Document, Draft, fill_range, outline_fault
 from .gravity import format_gravity, gravity_label
 
 __all__ = [
     "apply_outline", "move_vertex", "insert_vertex", "delete_vertex", "set_edge_part",
     "draw_outline", "replace_section", "start_new_section", "import_section", "set_kind",
     "set_width", "rename", "set_liquid", "set_gravity", "fill_to_level", "fill_to_volume",
-    "fill_to_percent", "set_resistance", "set_required_factor", "set_report_info", "set_units",
-    "set_diagram_scale", "discard_draft", "RESISTANCE_FIELDS",
+    "fill_to_percent", "fill_to_word", "set_resistance", "set_required_factor",
+    "set_report_info", "set_units", "set_diagram_scale", "discard_draft", "RESISTANCE_FIELDS",
+    "add_case", "duplicate_case", "rename_case", "delete_case", "move_case",
+    "set_groundwater", "set_load_factor", "set_structure", "edit_structure",
+    "remove_structure", "set_ground",
+    "walls_structure", "apply_structure_outline", "move_structure_vertex",
+    "set_structure_part",
 ]
 
 RESISTANCE_FIELDS = {"self_weight": "self-weight", "holding_down": "holding-down"}
 """The fields of a part's resistance against uplift, and their words."""
 
 
+def _push(doc: Document, design: Design, text: str, merge_key: Hashable | None = None,
+          active: int | None = None) -> None:
+    doc.undo_stack.push(DesignCommand(doc, design, text, merge_key, active))
+
+
+def _file_edit(doc: Document, case: Case, text: str,
+               merge_key: Hashable | None = None) -> None:
+    """Push ``case`` as the new file-level case (LoadCaseError if a case
+    cannot take it)."""
+    _push(doc, rebuild(doc.design, case=case), text, merge_key)
+
+
+# ------------------------------------------------------------- outline
 def apply_outline(doc: Document, outline: ArrayLike, parts: Sequence[str], text: str,
                   merge_key: Hashable | None = None) -> bool:
-    """Make ``outline`` / ``parts`` the section, or the draft if invalid.
+    """Make ``outline`` / ``parts`` the section, or the draft if invalid
+    (core refuses it, the structure does not hold it, or a case cannot
+    take it).
 
     Returns
     -------
@@ -52,15 +85,17 @@ def apply_outline(doc: Document, outline: ArrayLike, parts: Sequence[str], text:
     """
     outline = np.array(outline, dtype=np.float64)
     parts = tuple(parts)
+    design = doc.design
     try:
         section = doc.section.replace(outline=outline, parts=parts)
-    except SectionError as exc:
-        doc.set_draft(Draft(outline, parts, exc))
+        if section == doc.section:
+            doc.set_draft(None)
+            return True
+        new = design.with_case(design.case.with_section(section))
+    except (SectionError, StructureError, LoadCaseError) as exc:
+        doc.set_draft(Draft(outline, parts, outline_fault(exc)))
         return False
-    if section == doc.section:
-        doc.set_draft(None)
-        return True
-    doc.undo_stack.push(CaseCommand(doc, doc.case.with_section(section), text, merge_key))
+    _push(doc, new, text, merge_key)
     return True
 
 
@@ -133,19 +168,22 @@ def draw_outline(doc: Document, points: ArrayLike, part: str = "wall",
 def replace_section(doc: Document, section: Section, level: float | None = None,
                     text: str = "New section") -> None:
     """A whole new section (template, drawn outline), optionally refilled:
-    an untitled document (see :func:`start_new_section`). The liquid,
-    gravity and uplift inputs carry over."""
+    an untitled document (see :func:`start_new_section`). The active case's
+    liquid and gravity and the uplift inputs carry over."""
     case = doc.case.with_section(section)
     if level is not None:
         case = case.with_level(level)
     start_new_section(doc, case, text)
 
 
-def start_new_section(doc: Document, case: Case, text: str = "New section") -> None:
+def start_new_section(doc: Document, case: Case | Design, text: str = "New section") -> None:
     """Make ``case`` the document's, as a new untitled section: one undo
     step that leaves the file (:class:`wetline.app.model.commands.NewSectionCommand`).
-    The caller asks about unsaved changes first."""
-    doc.undo_stack.push(NewSectionCommand(doc, case, text))
+    A case becomes a design of that one case: the structure, the ground and
+    the load cases of the old section do not carry over (they were made for
+    its cavity). The caller asks about unsaved changes first."""
+    design = case if isinstance(case, Design) else Design(case)
+    doc.undo_stack.push(NewSectionCommand(doc, design, text))
 
 
 def import_section(doc: Document, section: Section, text: str, new: bool = False) -> None:
@@ -154,35 +192,72 @@ def import_section(doc: Document, section: Section, text: str, new: bool = False
     fill if the new section can take it (else filled to its top level).
 
     ``new``: as a new untitled section (File > Import, see
-    :func:`start_new_section`), else as an edit of the open one (a paste)."""
-    case = doc.case.with_section(section)
-    if case.fill_level is not None:
-        lo, hi = fill_range(section)
-        if not lo <= case.fill_level <= hi:
-            case = case.with_level(section.top_level)
+    :func:`start_new_section`), else as an edit of the open one (a paste:
+    the structure and cases stay, and must still hold the new outline,
+    else it is the draft, marked)."""
     if new:
+        case = doc.case.with_section(section)
+        if case.fill_level is not None:
+            lo, hi = fill_range(section)
+            if not lo <= case.fill_level <= hi:
+                case = case.with_level(section.top_level)
         start_new_section(doc, case, text)
-    else:
-        doc.undo_stack.push(CaseCommand(doc, case, text))
+        return
+    base = doc.design.case.with_section(section)
+    if base.fill_level is not None:
+        lo, hi = fill_range(section)
+        if not lo <= base.fill_level <= hi:
+            base = base.with_level(section.top_level)
+    try:
+        design = doc.design.with_case(base)
+    except (StructureError, LoadCaseError) as exc:
+        doc.set_draft(Draft(section.outline, tuple(section.parts), outline_fault(exc)))
+        return
+    _push(doc, design, text)
+
+
+def _section_edit(doc: Document, section: Section, text: str) -> None:
+    """The file-level case with ``section`` (kind, width, name changes);
+    StructureError or LoadCaseError if the structure or a case refuses it."""
+    design = doc.design
+    _push(doc, design.with_case(design.case.with_section(section)), text)
 
 
 def set_kind(doc: Document, kind: str) -> None:
     """Switch plane / axisymmetric (may be refused: x < 0 ...)."""
     section = doc.section.replace(kind=kind)
     doc.set_draft(None)
-    doc.undo_stack.push(CaseCommand(doc, doc.case.with_section(section),
-                                    f"Section: {kind}"))
+    _section_edit(doc, section, f"Section: {kind}")
 
 
 def set_width(doc: Document, width_m: float) -> None:
     section = doc.section.replace(width=float(width_m))
-    doc.undo_stack.push(CaseCommand(doc, doc.case.with_section(section),
-                                    f"Width {doc.units.fmt_length(width_m)}"))
+    _section_edit(doc, section, f"Width {doc.units.fmt_length(width_m)}")
 
 
 def rename(doc: Document, name: str) -> None:
     section = doc.section.replace(name=str(name))
-    doc.undo_stack.push(CaseCommand(doc, doc.case.with_section(section), f"Rename to {name}"))
+    _section_edit(doc, section, f"Rename to {name}")
+
+
+# ------------------------------------------------- active case: fill, liquid
+def _in_case(doc: Document, text: str) -> str:
+    return f"{text} ({doc.active_name})" if doc.design.cases else text
+
+
+def _case_edit(doc: Document, text: str, merge_key: Hashable | None,
+               file_case: Case, **overrides: object) -> None:
+    """Edit the active case: its overrides (``overrides``, a field left
+    equal to the file level's is cleared) with cases, else the file-level
+    case ``file_case``."""
+    design = doc.design
+    if not design.cases:
+        _file_edit(doc, file_case, text, merge_key)
+        return
+    i = doc.active_index
+    cases = list(design.cases)
+    cases[i] = dataclasses.replace(cases[i], **overrides)  # type: ignore[arg-type]
+    _push(doc, rebuild(design, cases=cases), _in_case(doc, text), merge_key)
 
 
 def _liquid_text(liquid: Liquid) -> str:
@@ -197,37 +272,44 @@ def _liquid_text(liquid: Liquid) -> str:
 
 
 def set_liquid(doc: Document, liquid: Liquid) -> None:
+    """The active case's liquid (the file's without cases)."""
     if liquid == doc.case.liquid:
         return
-    doc.undo_stack.push(CaseCommand(doc, doc.case.with_liquid(liquid), _liquid_text(liquid)))
+    base = doc.design.case
+    _case_edit(doc, _liquid_text(liquid), None, base.with_liquid(liquid),
+               liquid=None if liquid == base.liquid else liquid)
 
 
 def set_gravity(doc: Document, gravity: float) -> None:
-    """Set gravity [m/s2]; the undo text gives it in the display system's
-    unit ("Gravity 32.174 ft/s2")."""
+    """Set the active case's gravity [m/s2]; the undo text gives it in the
+    display system's unit ("Gravity 32.174 ft/s2")."""
     gravity = float(gravity)
     if not (np.isfinite(gravity) and gravity > 0):
         raise ValueError(f"gravity must be a positive number, not {format_number(gravity)}")
     if gravity == doc.case.gravity:
         return
     u = doc.units
-    doc.undo_stack.push(CaseCommand(doc, doc.case.with_gravity(gravity),
-                                    f"Gravity {format_gravity(u, gravity)} {gravity_label(u)}"))
+    base = doc.design.case
+    _case_edit(doc, f"Gravity {format_gravity(u, gravity)} {gravity_label(u)}", None,
+               base.with_gravity(gravity), gravity=None if gravity == base.gravity else gravity)
 
 
 def fill_to_level(doc: Document, level: float, merge_key: Hashable | None = None) -> None:
-    """Fill to ``level`` [m]; a slider drag passes one key for all its steps."""
+    """Fill the active case to ``level`` [m]; a slider drag passes one key
+    for all its steps."""
     level = float(level)
     if not np.isfinite(level):
         raise ValueError("the level must be a number")
-    if doc.case.fill_level == level:
+    case = doc.case
+    if case.fill_level == level and doc.active_load_case.fill_level not in (SPILL, EMPTY):
         return
-    doc.undo_stack.push(CaseCommand(doc, doc.case.with_level(level),
-                                    f"Fill to {doc.units.fmt_length(level)}", merge_key))
+    _case_edit(doc, f"Fill to {doc.units.fmt_length(level)}", merge_key,
+               doc.design.case.with_level(level), fill_level=level, fill_volume=None)
 
 
 def fill_to_volume(doc: Document, volume: float, merge_key: Hashable | None = None) -> None:
-    """Fill with ``volume`` [m3]; FillError if the section cannot hold it."""
+    """Fill the active case with ``volume`` [m3]; FillError if the section
+    cannot hold it."""
     volume = float(volume)
     if not np.isfinite(volume) or volume < 0:
         raise FillError("the volume must be a number >= 0")
@@ -237,8 +319,8 @@ def fill_to_volume(doc: Document, volume: float, merge_key: Hashable | None = No
                         f"({doc.units.fmt_volume(cap)})")
     if doc.case.fill_volume == volume:
         return
-    doc.undo_stack.push(CaseCommand(doc, doc.case.with_volume(volume),
-                                    f"Fill with {doc.units.fmt_volume(volume)}", merge_key))
+    _case_edit(doc, f"Fill with {doc.units.fmt_volume(volume)}", merge_key,
+               doc.design.case.with_volume(volume), fill_level=None, fill_volume=volume)
 
 
 def fill_to_percent(doc: Document, percent: float,
@@ -250,6 +332,303 @@ def fill_to_percent(doc: Document, percent: float,
     fill_to_volume(doc, capacity(doc.section) * percent / 100.0, merge_key)
 
 
+def fill_to_word(doc: Document, word: str) -> None:
+    """Fill the active case to ``"spill"`` (the spill level; open sections
+    only) or ``"empty"``. With cases the case keeps the word (it follows the
+    outline); without, the file's fill becomes that level."""
+    section = doc.section
+    if word == SPILL:
+        if section.spill_level is None:
+            raise ValueError("'spill' needs an open section (one with an 'open' edge)")
+        level, text = section.spill_level, "Fill to the spill level"
+    elif word == EMPTY:
+        level, text = section.z_min, "Empty"
+    else:
+        raise ValueError(f"a fill word is 'spill' or 'empty', not {word!r}")
+    if doc.design.cases:
+        if doc.active_load_case.fill_level == word:
+            return
+    elif doc.case.fill_level == level:
+        return
+    _case_edit(doc, text, None, doc.design.case.with_level(level), fill_level=word,
+               fill_volume=None)
+
+
+# --------------------------------------------------- groundwater, load factor
+def _with_one_case(doc: Document) -> tuple[Design, list[LoadCase]]:
+    """The design's cases as a list; a design without cases gets its one
+    default case, made explicit (same name, file-level values)."""
+    design = doc.design
+    return design, list(design.cases or design.load_cases)
+
+
+def set_groundwater(doc: Document, groundwater: Groundwater | None) -> None:
+    """The active case's groundwater (None: dry ground). Needs a structure;
+    LoadCaseError if the case cannot take it (above an open section's spill
+    level ...)."""
+    if groundwater is not None and doc.structure is None:
+        raise LoadCaseError("groundwater needs a structure: add one with Section > Structure")
+    design, cases = _with_one_case(doc)
+    i = doc.active_index
+    if cases[i].groundwater == groundwater:
+        return
+    cases[i] = dataclasses.replace(cases[i], groundwater=groundwater)
+    if groundwater is None:
+        text = f"Dry ground ({cases[i].name})"
+    else:
+        text = (f"Groundwater at {doc.units.fmt_length(groundwater.level)}, "
+                f"{doc.units.fmt_density(groundwater.density)} ({cases[i].name})")
+    _push(doc, rebuild(design, cases=cases), text)
+
+
+def set_load_factor(doc: Document, factor: float) -> None:
+    """The active case's load factor (> 0; LoadCaseError otherwise)."""
+    design, cases = _with_one_case(doc)
+    i = doc.active_index
+    factor = float(factor)
+    if cases[i].load_factor == factor:
+        return
+    cases[i] = dataclasses.replace(cases[i], load_factor=factor)
+    _push(doc, rebuild(design, cases=cases),
+          f"Load factor {format_number(factor)} ({cases[i].name})")
+
+
+# ------------------------------------------------------------ the case list
+def add_case(doc: Document) -> None:
+    """A new case named "case N", a copy of the active one, at the end of
+    the list; it becomes active."""
+    design, cases = _with_one_case(doc)
+    name = new_case_name(c.name for c in cases)
+    cases.append(dataclasses.replace(cases[doc.active_index], name=name))
+    _push(doc, rebuild(design, cases=cases), f"Add case {name}", active=len(cases) - 1)
+
+
+def duplicate_case(doc: Document, index: int) -> None:
+    """A copy of case ``index`` right after it ("<name> copy"); it becomes active."""
+    design, cases = _with_one_case(doc)
+    taken = {c.name for c in cases}
+    name = f"{cases[index].name} copy"
+    k = 2
+    while name in taken:
+        name = f"{cases[index].name} copy {k}"
+        k += 1
+    cases.insert(index + 1, dataclasses.replace(cases[index], name=name))
+    _push(doc, rebuild(design, cases=cases), f"Duplicate case {cases[index].name}",
+          active=index + 1)
+
+
+def rename_case(doc: Document, index: int, name: str) -> bool:
+    """Rename case ``index`` (LoadCaseError for an empty or taken name).
+
+    Returns
+    -------
+    bool
+        True if an edit was made.
+    """
+    name = str(name).strip()
+    design, cases = _with_one_case(doc)
+    old = cases[index].name
+    if name == old:
+        return False
+    cases[index] = dataclasses.replace(cases[index], name=name)
+    _push(doc, rebuild(design, cases=cases), f"Rename case {old} to {name}")
+    return True
+
+
+def delete_case(doc: Document, index: int) -> None:
+    """Delete case ``index``; the last case is never deleted (ValueError)."""
+    design = doc.design
+    cases = list(design.cases)
+    if len(cases) <= 1:
+        raise ValueError("the last load case cannot be deleted: a design has at least one")
+    name = cases.pop(index).name
+    active = doc.active_index
+    if active > index or active == len(cases):
+        active -= 1
+    _push(doc, rebuild(design, cases=cases), f"Delete case {name}", active=active)
+
+
+def move_case(doc: Document, index: int, step: int) -> bool:
+    """Move case ``index`` up (``step`` -1) or down (+1) the list; the
+    active case stays active.
+
+    Returns
+    -------
+    bool
+        True if it moved (not past either end).
+    """
+    design = doc.design
+    cases = list(design.cases)
+    to = index + int(step)
+    if not cases or not (0 <= index < len(cases) and 0 <= to < len(cases)) or to == index:
+        return False
+    cases.insert(to, cases.pop(index))
+    names = [c.name for c in design.cases]
+    active_name = names[doc.active_index]
+    active = [c.name for c in cases].index(active_name)
+    _push(doc, rebuild(design, cases=cases),
+          f"Move case {names[index]} {'up' if step < 0 else 'down'}", active=active)
+    return True
+
+
+# ------------------------------------------------------ structure and ground
+def walls_structure(doc: Document, base: float, wall: float, roof: float, *,
+                    unit_weight: float, extra_weight: float = 0.0,
+                    anchorage: float = 0.0) -> Structure:
+    """A structure of walls of the given thicknesses [m] around the cavity
+    (:func:`wetline.core.structure.walls_of_thickness`), not yet an edit;
+    ValueError or StructureError naming what is wrong."""
+    from wetline.core.structure import walls_of_thickness
+
+    outline = walls_of_thickness(doc.section, base, wall, roof)
+    return Structure.build(outline, cavity=doc.section, unit_weight=unit_weight,
+                           extra_weight=extra_weight, anchorage=anchorage)
+
+
+def set_structure(doc: Document, structure: Structure, ground: Ground | None,
+                  text: str | None = None) -> bool:
+    """Make ``structure`` (checked against the cavity) and ``ground`` the
+    design's; one undo step. LoadCaseError if a case cannot take them.
+
+    Returns
+    -------
+    bool
+        True if an edit was made.
+    """
+    design = doc.design
+    if design.structure == structure and design.ground == ground:
+        return False
+    new = Design(design.case, structure=structure, ground=ground, cases=design.cases)
+    if text is None:
+        text = "Structure" if design.structure is None else "Change the structure"
+    _push(doc, new, text)
+    return True
+
+
+def edit_structure(doc: Document, walls: tuple[float, float, float] | None, *,
+                   unit_weight: float, extra_weight: float = 0.0, anchorage: float = 0.0,
+                   ground: Ground | None = None) -> bool:
+    """The Structure dialog's edit, one undo step: walls of the thicknesses
+    ``walls`` = (base, wall, roof) [m] around the cavity (None: keep the
+    structure's own, edited, outline), the material's ``unit_weight``
+    [N/m3], ``extra_weight`` and ``anchorage`` [N/m of width or N], and the
+    ``ground``. ValueError (StructureError, LoadCaseError) naming what is
+    wrong; nothing changes then.
+
+    Returns
+    -------
+    bool
+        True if an edit was made.
+    """
+    s = doc.structure
+    if walls is None and s is None:
+        raise ValueError("give the wall thicknesses: there is no structure yet")
+    if walls is not None:
+        new = walls_structure(doc, *walls, unit_weight=unit_weight, extra_weight=extra_weight,
+                              anchorage=anchorage)
+    else:
+        assert s is not None
+        new = s.replace(doc.section, unit_weight=unit_weight, extra_weight=extra_weight,
+                        anchorage=anchorage)
+    if walls is not None:
+        text = (f"Structure: walls {doc.units.fmt_length(walls[1])}, base "
+                f"{doc.units.fmt_length(walls[0])}, roof {doc.units.fmt_length(walls[2])}")
+    else:
+        text = "Change the structure"
+    return set_structure(doc, new, ground, text)
+
+
+def remove_structure(doc: Document) -> bool:
+    """Remove the structure and the ground; every case's groundwater goes
+    with them (it acts on the structure). One undo step.
+
+    Returns
+    -------
+    bool
+        True if there was a structure.
+    """
+    design = doc.design
+    if design.structure is None:
+        return False
+    wet = [c for c in design.cases if c.groundwater is not None]
+    cases = [dataclasses.replace(c, groundwater=None) for c in design.cases]
+    text = "Remove the structure"
+    if wet:
+        text += f" (and the groundwater of {len(wet)} case{'s' if len(wet) > 1 else ''})"
+    _push(doc, Design(design.case, cases=tuple(cases)), text)
+    return True
+
+
+def set_ground(doc: Document, ground: Ground | None) -> None:
+    """The ground around the structure (None: no soil); needs a structure."""
+    design = doc.design
+    if ground == design.ground:
+        return
+    if ground is not None and design.structure is None:
+        raise LoadCaseError("ground needs a structure: add one with Section > Structure")
+    text = "No ground" if ground is None else \
+        f"Ground at {doc.units.fmt_length(ground.level)}"
+    _push(doc, design.with_ground(ground), text)
+
+
+def apply_structure_outline(doc: Document, outline: ArrayLike, parts: Sequence[str],
+                            text: str) -> bool:
+    """Make ``outline`` / ``parts`` the structure's outer outline, or the
+    structure draft (marked with the fault) if core refuses it: crossing
+    itself, crossing the cavity, not containing it.
+
+    Returns
+    -------
+    bool
+        True if it was valid.
+    """
+    s = doc.structure
+    if s is None:
+        raise ValueError("there is no structure to edit")
+    outline = np.array(outline, dtype=np.float64)
+    parts = tuple(parts)
+    try:
+        new = s.replace(doc.section, outline=outline, parts=parts)
+        if new == s:
+            doc.set_draft(None)
+            return True
+        design = Design(doc.design.case, structure=new, ground=doc.ground,
+                        cases=doc.design.cases)
+    except (StructureError, LoadCaseError) as exc:
+        doc.set_draft(Draft(outline, parts, outline_fault(exc), STRUCTURE))
+        return False
+    _push(doc, design, text)
+    return True
+
+
+def move_structure_vertex(doc: Document, index: int, x: float, z: float) -> bool:
+    """Move the structure's vertex ``index`` to (x, z) [m]."""
+    working = doc.working_structure_outline()
+    if working is None:
+        raise ValueError("there is no structure to edit")
+    outline = np.array(working[0])
+    outline[index] = (x, z)
+    return apply_structure_outline(doc, outline, working[1],
+                                   f"Move structure vertex {index}")
+
+
+def set_structure_part(doc: Document, edge: int, name: str) -> bool:
+    """Give the structure's ``edge`` the part ``name``."""
+    name = str(name).strip()
+    if not name:
+        raise ValueError("a part name cannot be empty")
+    working = doc.working_structure_outline()
+    if working is None:
+        raise ValueError("there is no structure to edit")
+    outline, parts = working
+    if parts[edge] == name:
+        return True
+    parts = parts[:edge] + (name,) + parts[edge + 1:]
+    return apply_structure_outline(doc, outline, parts,
+                                   f"Set part of structure edge {edge} to {name}")
+
+
+# ------------------------------------------------- file level: uplift, sheet
 def _title(part: str) -> str:
     return part[:1].upper() + part[1:]
 
@@ -262,7 +641,7 @@ def set_resistance(doc: Document, part: str, field: str, value: float) -> None:
     checked (and not saved)."""
     if field not in RESISTANCE_FIELDS:
         raise ValueError(f"no resistance field {field!r}")
-    case = doc.case
+    case = doc.design.case
     old = case.resistance_map.get(part, PartResistance())
     values = {"self_weight": old.self_weight, "holding_down": old.holding_down}
     values[field] = float(value)
@@ -272,20 +651,19 @@ def set_resistance(doc: Document, part: str, field: str, value: float) -> None:
         return
     q, label = doc.units.resistance_unit(case.section)
     shown = format_number(doc.units.units.to_display(float(value), q))
-    doc.undo_stack.push(CaseCommand(doc, new_case,
-                                    f"{_title(part)} {RESISTANCE_FIELDS[field]} {shown} {label}"))
+    _file_edit(doc, new_case, f"{_title(part)} {RESISTANCE_FIELDS[field]} {shown} {label}")
 
 
 def set_required_factor(doc: Document, factor: float) -> None:
-    """Set the required factor against uplift ("Required uplift factor
-    1.25"); CaseError if it is not positive."""
+    """Set the required factor against uplift and flotation ("Required
+    uplift factor 1.25"); CaseError if it is not positive."""
     factor = float(factor)
-    if factor == doc.case.required_uplift_factor:
+    if factor == doc.design.case.required_uplift_factor:
         return
-    case = doc.case.with_required_uplift_factor(factor)  # CaseError if <= 0
+    case = doc.design.case.with_required_uplift_factor(factor)  # CaseError if <= 0
     text = ("Required uplift factor: default" if factor == DEFAULT_REQUIRED_FACTOR
             else f"Required uplift factor {format_number(factor)}")
-    doc.undo_stack.push(CaseCommand(doc, case, text))
+    _file_edit(doc, case, text)
 
 
 _REPORT_WORDS = (("project", "project"), ("job_reference", "job reference"),
@@ -301,12 +679,11 @@ def set_report_info(doc: Document, report: ReportInfo) -> bool:
     bool
         True if an edit was made.
     """
-    old = doc.case.report
+    old = doc.design.case.report
     changed = [words for key, words in _REPORT_WORDS if getattr(old, key) != getattr(report, key)]
     if not changed:
         return False
-    doc.undo_stack.push(CaseCommand(doc, doc.case.with_report(report),
-                                    "Sheet header: " + ", ".join(changed)))
+    _file_edit(doc, doc.design.case.with_report(report), "Sheet header: " + ", ".join(changed))
     return True
 
 
@@ -322,3 +699,4 @@ def set_diagram_scale(doc: Document, scale: float | None, text: str = "Diagram s
 
 def discard_draft(doc: Document) -> None:
     doc.set_draft(None)
+

@@ -9,7 +9,9 @@ clean save, or a close or an open that discards the changes, removes it.
 A copy is three files named by one id:
 
 ``<id>.section.json``
-    the document's case, an ordinary section file (it opens like any other);
+    the document's design (its load cases, structure and ground with it),
+    an ordinary section file written through the document's one file seam
+    (:mod:`wetline.app.model.design_file`), so it opens like any other;
 ``<id>.recovery.json``
     what the copy is: ``{"format": "wetline-recovery", "version": 1,
     "name": ..., "saved_at": ISO 8601 time, "original_path": str or null}``;
@@ -41,12 +43,15 @@ from PySide6.QtCore import QLockFile, QObject, QStandardPaths, QTimer, Signal
 
 from wetline.core.atomic_write import write_atomically
 from wetline.core.case import Case
-from wetline.core.section_file import dumps_case, read_section_file
+from wetline.core.load_cases import Design
+
+from . import design_file
 
 if TYPE_CHECKING:
     from .document import Document
 
-__all__ = ["RecoveryCopy", "Autosaver", "default_folder", "case_to_save", "write_copy",
+__all__ = ["RecoveryCopy", "Autosaver", "default_folder", "case_to_save", "design_to_save",
+           "write_copy",
            "list_copies", "remove_copy", "read_copy", "DEFAULT_INTERVAL_S", "FIRST_DELAY_S",
            "SECTION_SUFFIX", "SIDECAR_SUFFIX", "LOCK_SUFFIX"]
 
@@ -117,11 +122,20 @@ def case_to_save(case: Case) -> Case:
     return case
 
 
+def design_to_save(design: Design | Case) -> Design:
+    """``design`` as a section file holds it (see :func:`case_to_save`); a
+    bare case is a design of one case."""
+    if isinstance(design, Case):
+        return Design(case_to_save(design))
+    case = case_to_save(design.case)
+    return design if case is design.case else design.with_case(case)
+
+
 def _now() -> datetime:
     return datetime.now(UTC)
 
 
-def write_copy(folder: str | os.PathLike[str], copy_id: str, case: Case, name: str,
+def write_copy(folder: str | os.PathLike[str], copy_id: str, case: Design | Case, name: str,
                original_path: str | None = None,
                saved_at: datetime | None = None) -> RecoveryCopy:
     """Write (or replace) the recovery copy ``copy_id`` of ``case``.
@@ -131,7 +145,8 @@ def write_copy(folder: str | os.PathLike[str], copy_id: str, case: Case, name: s
     folder : str or os.PathLike
         The recovery folder; made if missing.
     copy_id : str
-    case : wetline.core.case.Case
+    case : wetline.core.load_cases.Design or wetline.core.case.Case
+        The document's design (every case, the structure, the ground).
     name : str
         The document's name, shown when the copy is offered.
     original_path : str or None
@@ -152,7 +167,7 @@ def write_copy(folder: str | os.PathLike[str], copy_id: str, case: Case, name: s
     folder.mkdir(parents=True, exist_ok=True)
     saved_at = saved_at or _now()
     section_path = folder / (copy_id + SECTION_SUFFIX)
-    write_atomically(section_path, dumps_case(case_to_save(case)))
+    write_atomically(section_path, design_file.dumps(design_to_save(case)))
     copy = RecoveryCopy(copy_id, str(name), saved_at,
                         None if original_path is None else str(original_path), section_path)
     sidecar = {"format": FORMAT, "version": VERSION, "name": copy.name,
@@ -226,15 +241,15 @@ def list_copies(folder: str | os.PathLike[str]) -> list[RecoveryCopy]:
     return copies
 
 
-def read_copy(copy: RecoveryCopy) -> Case:
-    """The case held by a :class:`RecoveryCopy`.
+def read_copy(copy: RecoveryCopy) -> Design:
+    """The design held by a :class:`RecoveryCopy`.
 
     Raises
     ------
     wetline.core.section_file.SectionFileError
         The copy cannot be read (the message names the file and the fault).
     """
-    return read_section_file(copy.section_path)
+    return design_file.read(copy.section_path)
 
 
 class Autosaver(QObject):
@@ -288,6 +303,7 @@ class Autosaver(QObject):
         self._timer.timeout.connect(self._on_timeout)
         for signal in (document.sectionChanged, document.liquidChanged, document.fillChanged,
                        document.upliftInputsChanged, document.reportChanged,
+                       document.casesChanged, document.structureChanged,
                        document.pathChanged):
             signal.connect(self._on_changed)
         document.modifiedChanged.connect(self._on_changed)
@@ -341,7 +357,7 @@ class Autosaver(QObject):
         self._last_write = time.monotonic()
         self._on_disk = True
         try:
-            copy = write_copy(self.folder, self.id, doc.case, doc.display_name, doc.path)
+            copy = write_copy(self.folder, self.id, doc.design, doc.display_name, doc.path)
         except (OSError, ValueError) as exc:
             self.failed.emit(f"Recovery copy not written: {exc}")
             self._schedule()

@@ -22,7 +22,8 @@ from wetline.core.section import AXIS, OPEN
 __all__ = ["CORNER_COS", "is_corner", "WettedEdges", "wetted_edges", "auto_scale",
            "diagram_polygons", "chain_starts", "carrying_edges", "axis_edges",
            "pressure_arrows", "arrow_strokes", "PartRun", "part_runs", "run_resultants",
-           "surface_spans", "liquid_rings", "PressureSite", "pressure_sites"]
+           "surface_spans", "liquid_rings", "PressureSite", "pressure_sites",
+           "envelope_wetted_edges", "soil_blocks"]
 
 
 CORNER_COS = math.cos(math.radians(10.0))
@@ -429,3 +430,67 @@ def pressure_sites(w, n_vertices, limit=16):
         sites.append(PressureSite(float(px[starts[g]]), float(pz[starts[g]]), float(at[g]),
                                   tuple((float(w.nx[k]), float(w.nz[k])) for k in ks)))
     return sites
+
+
+def envelope_wetted_edges(solutions, factors, carries=None):
+    """The envelope diagram of several solutions of one section: per wetted
+    edge, the largest design pressure over the cases at each end.
+
+    Each case's pressure along an edge is ``rho g (h - z)+`` times its load
+    factor; the wetted part of an edge grows with the level, so the ends are
+    those of the highest case's wetted part, and the pressure at each end is
+    the largest of ``factor * rho * g * (h - z)+`` over the cases there (the
+    envelope is exact at the ends; between them the straight line drawn is
+    never below it, a maximum of linear functions being convex).
+    ``max(pa, pb)`` of each edge is
+    :attr:`wetline.core.load_cases.Envelope.edge_max_pressure`.
+
+    Parameters
+    ----------
+    solutions : sequence of wetline.core.hydrostatics.Solution
+        Of one section, one per case.
+    factors : sequence of float
+        The cases' load factors [].
+    carries : numpy.ndarray, optional
+        :func:`carrying_edges` of the section.
+
+    Returns
+    -------
+    WettedEdges
+        Design pressures [Pa].
+    """
+    if not solutions:
+        raise ValueError("the envelope needs at least one solution")
+    top = max(range(len(solutions)), key=lambda k: solutions[k].level)
+    w = wetted_edges(solutions[top], carries)
+    pa = np.zeros_like(w.pa)
+    pb = np.zeros_like(w.pb)
+    for sol, factor in zip(solutions, factors, strict=True):
+        rg = float(factor) * sol.density * sol.gravity
+        np.maximum(pa, rg * np.maximum(sol.level - w.az, 0.0), out=pa)
+        np.maximum(pb, rg * np.maximum(sol.level - w.bz, 0.0), out=pb)
+    return WettedEdges(w.index, w.ax, w.az, w.bx, w.bz, pa, pb, w.nx, w.nz)
+
+
+def soil_blocks(segments, ground_level):
+    """The soil standing on upward-facing outer edges: one polygon per piece
+    ``[x0, z0, x1, z1]`` [m] (the pieces of
+    :attr:`wetline.core.structure.ExteriorGeometry.soil_segments`), from the
+    piece up to the ground surface, the part of the piece above the ground
+    left out. Returns a list of (N, 2) arrays [m]."""
+    blocks = []
+    g = float(ground_level)
+    for x0, z0, x1, z1 in np.asarray(segments, dtype=float).reshape(-1, 4):
+        if z0 >= g and z1 >= g:
+            continue
+        if (z0 - g) * (z1 - g) < 0:  # cut where it rises through the ground
+            t = (g - z0) / (z1 - z0)
+            xg = x0 + t * (x1 - x0)
+            if z0 > g:
+                x0, z0 = xg, g
+            else:
+                x1, z1 = xg, g
+        if x1 == x0:
+            continue
+        blocks.append(np.array([[x0, z0], [x1, z1], [x1, g], [x0, g]]))
+    return blocks

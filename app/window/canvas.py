@@ -13,11 +13,15 @@ cooperating pieces:
   surface, the spill level, the pressure diagrams and the resultants, from
   the same geometry functions as the exported diagram
   (:mod:`wetline.app.render.geometry`);
+- :class:`wetline.app.window.structure_layer.StructureLayer`: the structure
+  around the cavity (hatched), the ground and groundwater lines, the soil on
+  its ledges and the groundwater's pressure diagram outside it;
 - :class:`wetline.app.window.canvas_labels.CanvasLabels`: the labels, laid
   out by the one layout engine with bounded work;
 - :class:`wetline.app.window.canvas_editing.OutlineEditor` and
   :class:`wetline.app.window.vertex_handles.VertexHandles`: what the mouse
-  and keys do to the outline (every edit through
+  and keys do to the outline, and a drag does to the structure's outline
+  (its own square handles; every edit through
   :mod:`wetline.app.model.editing`).
 """
 
@@ -34,6 +38,7 @@ from wetline.app.window.canvas_labels import CanvasLabels
 from wetline.app.window.grid import LightGrid
 from wetline.app.window.load_layer import LoadLayer
 from wetline.app.window.outline_layer import OutlineLayer
+from wetline.app.window.structure_layer import StructureLayer
 from wetline.app.window.vertex_handles import MAX_HANDLES, VertexHandles
 from wetline.app.window.view_range import smallest_span, usable_range
 
@@ -65,11 +70,21 @@ class SectionCanvas(pg.PlotWidget):
         self._set_up_view()
         vb = self.getPlotItem().getViewBox()
         self.load_layer = LoadLayer(vb)
+        self.structure_layer = StructureLayer(vb)
         self.outline_layer = OutlineLayer(self.getPlotItem())
         self.labels = CanvasLabels(vb, self)
+        self.labels.view_obstacles = self._legend_box
         self.editor = OutlineEditor(self, document)
         self.handles = VertexHandles(self.editor.pick_vertex)
         vb.addItem(self.handles)
+        # The structure's vertices: square, grey, under the cavity's handles.
+        self.structure_handles = VertexHandles(self.editor.pick_structure_vertex)
+        self.structure_handles.setSymbol("s")
+        self.structure_handles.setSize(8)
+        self.structure_handles.setBrush(pg.mkBrush("#d5dae0"))
+        self.structure_handles.setPen(pg.mkPen("#4a525c", width=1.2))
+        self.structure_handles.setZValue(39)
+        vb.addItem(self.structure_handles)
         self._redraw_timer = QTimer(self)
         self._redraw_timer.setSingleShot(True)
         self._redraw_timer.setInterval(0)
@@ -95,9 +110,14 @@ class SectionCanvas(pg.PlotWidget):
         document.unitsChanged.connect(self._on_unitsChanged)
         document.diagramScaleChanged.connect(self._on_diagramScaleChanged)
         document.selectionChanged.connect(self._on_selectionChanged)
+        document.structureChanged.connect(self._on_structureChanged)
+        document.envelopeReady.connect(self._on_envelopeReady)
+        document.viewModeChanged.connect(self._on_viewModeChanged)
         self.handles.dragStarted.connect(self.editor.on_drag_started)
         self.handles.dragMoved.connect(self.editor.on_drag_moved)
         self.handles.dragFinished.connect(self.editor.on_drag_finished)
+        self.structure_handles.dragMoved.connect(self.editor.on_structure_drag_moved)
+        self.structure_handles.dragFinished.connect(self.editor.on_structure_drag_finished)
         self.scene().sigMouseMoved.connect(self._on_mouseMoved)
         self.scene().sigMouseClicked.connect(self._on_mouseClicked)
 
@@ -125,12 +145,19 @@ class SectionCanvas(pg.PlotWidget):
     def fit(self):
         """Show the whole section with its diagrams and resultants."""
         outline, _ = self._doc.working_outline()
+        structure = self._doc.working_structure_outline()
+        if structure is not None:
+            outline = np.vstack([outline, structure[0]])
         x0, z0 = outline.min(axis=0)
         x1, z1 = outline.max(axis=0)
+        ground = self._doc.ground
+        if ground is not None:
+            z0, z1 = min(z0, ground.level), max(z1, ground.level)
         if self._doc.section.is_axisymmetric:
             x0 = min(x0, -x1)
         layer = self.load_layer
-        for item in (layer.diagram, layer.down, layer.up):
+        outer = self.structure_layer
+        for item in (layer.diagram, layer.down, layer.up, outer.diagram):
             r = item.mapRectToView(item.boundingRect()) if hasattr(item, "mapRectToView") \
                 else item.boundingRect()
             if r.width() > 0 or r.height() > 0:
@@ -189,6 +216,16 @@ class SectionCanvas(pg.PlotWidget):
     def _on_selectionChanged(self):
         self._draw_selection()
 
+    def _on_structureChanged(self):
+        self.schedule(outline=True)
+
+    def _on_envelopeReady(self, _envelope):
+        if self._doc.view_mode == "envelope":
+            self.schedule()
+
+    def _on_viewModeChanged(self):
+        self.schedule()
+
     # --------------------------------------------------------- drawing
     def redraw(self):
         """Draw everything pending now."""
@@ -203,20 +240,69 @@ class SectionCanvas(pg.PlotWidget):
             else:
                 self.handles.setData(pos=np.empty((0, 2)))
                 self.handles.hide()
+            structure = self._doc.working_structure_outline()
+            if structure is not None and len(structure[0]) <= MAX_HANDLES:
+                self.structure_handles.set_positions(structure[0])
+                self.structure_handles.show()
+            else:
+                self.structure_handles.setData(pos=np.empty((0, 2)))
+                self.structure_handles.hide()
             self.outline_layer.draw_fault(self._doc.fault())
             self._draw_selection()
         solution = self._solution
         if solution is not None:
             doc = self._doc
+            design = doc.shown_design
+            if design.section is not solution.section:
+                design = doc.design  # results of the last valid outline (a fault shown)
+            solved = doc.solved_case
+            loads = solved.structure if solved is not None and \
+                solved.solution is solution else None
+            cases = doc.envelope_cases
+            envelope = (doc.view_mode == "envelope" and bool(cases)
+                        and cases[0].solution.section is solution.section)
+            if envelope:
+                loads = None  # outside loads belong to one case: none in the envelope
             scale = doc.diagram_scale
             if scale is None:
-                scale = auto_scale(solution.section, solution.max_pressure)
-            self.load_layer.draw(solution, scale, doc.force_scope(solution.section), doc.units,
-                                 self.labels)
+                pmax = solution.max_pressure
+                if envelope:
+                    pmax = float(doc.envelope.edge_max_pressure.max(initial=0.0))
+                pmax = max(pmax, self.structure_layer.max_pressure(design, loads))
+                shape = solution.section if design.structure is None \
+                    else design.structure.section(design.section)
+                scale = auto_scale(shape, pmax)
+            scope = doc.force_scope(solution.section)
+            if envelope:
+                self.load_layer.draw_envelope(cases, scale, doc.units, self.labels)
+            else:
+                self.load_layer.draw(solution, scale, scope, doc.units, self.labels)
+            self.structure_layer.draw(design, loads, scale, scope, doc.units, self.labels,
+                                      self._line_span(design))
             self.labels.lay_out()
             if self._first_fit:
                 self._first_fit = False
                 self.fit()
+
+    def _legend_box(self):
+        """The part legend's box in view coordinates [m] (labels keep off it)."""
+        legend = self.outline_layer.legend
+        if legend is None or not legend.isVisible():
+            return ()
+        vb = self.getPlotItem().getViewBox()
+        r = vb.mapSceneToView(legend.sceneBoundingRect()).boundingRect()
+        return ((r.left(), r.top(), r.right(), r.bottom()),)
+
+    @staticmethod
+    def _line_span(design):
+        """(x0, x1) [m] the ground and groundwater lines run across: the
+        structure (both halves of an axisymmetric one) and a margin."""
+        pts = design.section.outline if design.structure is None else design.structure.outline
+        x0, x1 = float(pts[:, 0].min()), float(pts[:, 0].max())
+        if design.section.is_axisymmetric:
+            x0 = min(x0, -x1)
+        margin = 0.25 * max(x1 - x0, float(np.ptp(pts[:, 1])), 1e-9)
+        return x0 - margin, x1 + margin
 
     def _draw_selection(self):
         outline, _ = self._doc.working_outline()

@@ -2,6 +2,8 @@
 
 Mode "edit": drag a vertex (the document previews the dragged outline, so
 the totals, tables and chart follow it live; one undo step on release),
+drag a structure vertex (its square handle; the outline shown dashed, the
+results on release, one undo step),
 click to select a vertex or an edge, double-click an edge to insert a vertex
 there, Delete removes the selected vertex, arrow keys nudge it by the snap
 spacing (or a hundredth of the section), right-click an edge to set its
@@ -64,6 +66,17 @@ class OutlineEditor:
         i = int(np.argmin(d2))
         return i if d2[i] <= (tolerance_px * self._pixel()) ** 2 else None
 
+    def pick_structure_vertex(self, x, z, tolerance_px=8):
+        """Index of the structure's vertex within ``tolerance_px`` pixels of
+        (x, z), or None (no structure, or too many vertices for handles)."""
+        working = self._doc.working_structure_outline()
+        if working is None or len(working[0]) > MAX_HANDLES:
+            return None
+        outline = working[0]
+        d2 = (outline[:, 0] - x) ** 2 + (outline[:, 1] - z) ** 2
+        i = int(np.argmin(d2))
+        return i if d2[i] <= (tolerance_px * self._pixel()) ** 2 else None
+
     # ----------------------------------------------------- vertex drags
     def on_drag_started(self, index):
         self._doc.select_vertex(index)
@@ -83,6 +96,26 @@ class OutlineEditor:
         if not editing.move_vertex(self._doc, index, x, z):
             self._canvas.message.emit(f"Invalid outline: {self._doc.draft.error} "
                                       "(results keep the last valid outline)")
+        self._canvas.schedule(outline=True)
+
+    def on_structure_drag_moved(self, index, x, z):
+        """A structure vertex being dragged: its outline shown dashed (the
+        results follow on release, one undo step)."""
+        working = self._doc.working_structure_outline()
+        if working is None:
+            return
+        outline = np.array(working[0])
+        outline[index] = self._canvas.snap(x, z)
+        self._canvas.structure_layer.show_drag(outline)
+
+    def on_structure_drag_finished(self, index, x, z):
+        self._canvas.structure_layer.show_drag(None)
+        if self._doc.working_structure_outline() is None:
+            return
+        x, z = self._canvas.snap(x, z)
+        if not editing.move_structure_vertex(self._doc, index, x, z):
+            self._canvas.message.emit(f"Invalid structure outline: {self._doc.draft.error} "
+                                      "(results keep the last valid structure)")
         self._canvas.schedule(outline=True)
 
     def nudge_selected(self, dx, dz):

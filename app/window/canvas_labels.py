@@ -62,6 +62,9 @@ class CanvasLabels:
         self.px = (1e-9, 1e-9)
         self._shafts = []
         self._handles = np.empty((0, 2))
+        self.view_obstacles = lambda: ()
+        """Boxes (x0, z0, x1, z1) [m] labels keep off whatever is drawn: the
+        legend over the view (set by the canvas)."""
         self._sizes = {}
         self._metrics = None
         self._timer = QTimer(parent)
@@ -109,6 +112,8 @@ class CanvasLabels:
         self.layout = LabelLayout(bounds=(bx0 - wx, bz0 - wz, bx1 + wx, bz1 + wz))
         for vx, vz in np.asarray(self._handles).reshape(-1, 2) / self.px:
             self.layout.add_obstacle(vx - 5, vz - 5, vx + 5, vz + 5)
+        for a, b, c, d in self.view_obstacles():
+            self.layout.add_obstacle(a / sx, b / sz, c / sx, d / sz)
         for a, b, c, d in self._shafts:
             self.layout.add_line(a / sx, b / sz, c / sx, d / sz, clearance=SHAFT_CLEARANCE,
                                  soft=False)

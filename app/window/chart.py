@@ -7,6 +7,11 @@ liquid changed, or a dragged outline was previewed) or the units change; a
 slider step only moves the cursor. The cursor is also an input: dragging it
 (one undo step per drag, like the slider) or clicking in the chart sets the
 fill level.
+
+In the envelope view the chart still shows the active case's curves, and
+marks on them each part's envelope values (design values): its largest
+downward load and largest uplift over all cases, at the governing case's
+level, named.
 """
 
 from __future__ import annotations
@@ -16,7 +21,7 @@ from PySide6.QtCore import Qt
 
 from wetline.app.model import editing
 from wetline.app.model.document import fill_range
-from wetline.app.render.style import LEVEL_MARK, LEVEL_SERIES, part_colours
+from wetline.app.render.style import FLOOR_COLOUR, LEVEL_MARK, LEVEL_SERIES, part_colours
 from wetline.app.window.grid import LightGrid
 from wetline.app.window.view_range import smallest_span, usable_range
 from wetline.core.section import FLOOR
@@ -24,6 +29,8 @@ from wetline.core.section import FLOOR
 __all__ = ["LoadChart"]
 
 CURSOR_COLOUR = LEVEL_MARK
+FLOOR_FORCE_COLOUR = FLOOR_COLOUR
+"""The floor force curve's colour (the floor part's envelope marks)."""
 
 
 class LoadChart(pg.PlotWidget):
@@ -59,9 +66,17 @@ class LoadChart(pg.PlotWidget):
         self.cursor.sigPositionChangeFinished.connect(self._on_cursorReleased)
         self.scene().sigMouseClicked.connect(self._on_mouseClicked)
         plot.getViewBox().sigRangeChanged.connect(self._place_cursor_label)
+        self.marks = pg.ScatterPlotItem(size=11, symbol="d", pen=pg.mkPen("#1d2530", width=1))
+        self.marks.setZValue(20)
+        plot.addItem(self.marks, ignoreBounds=True)
+        self._mark_labels = []
+        self.mark_texts = []
+        """The envelope marks' texts, in order (empty in the case view)."""
         document.levelTableReady.connect(self._on_levelTableReady)
         document.solved.connect(self._on_solved)
         document.unitsChanged.connect(self._on_unitsChanged)
+        document.envelopeReady.connect(self._on_envelopeReady)
+        document.viewModeChanged.connect(self._on_envelopeReady)
 
     @property
     def cursor_level(self):
@@ -74,6 +89,56 @@ class LoadChart(pg.PlotWidget):
             self._on_levelTableReady(self._doc.level_table)
         if self._doc.solution is not None:
             self._on_solved(self._doc.solution)
+        self._on_envelopeReady()
+
+    def _on_envelopeReady(self, *_):
+        """Mark each part's envelope values (envelope view), or clear the marks."""
+        doc = self._doc
+        env = doc.envelope
+        plot = self.getPlotItem()
+        for item in self._mark_labels:
+            plot.removeItem(item)
+        self._mark_labels = []
+        self.mark_texts = []
+        if doc.view_mode != "envelope" or env is None or not doc.envelope_cases:
+            self.marks.setData([], [])
+            return
+        section = doc.section
+        u = doc.units
+        scope = doc.force_scope(section)
+        levels = {s.name: s.solution.level for s in doc.envelope_cases}
+        colours = part_colours(list(section.part_names))
+        spots = []
+        for name, p in env.parts.items():
+            colour = FLOOR_FORCE_COLOUR if name == FLOOR else colours.get(name, "#1d2530")
+            for value, case, words in ((p.max_down, p.max_down_case, "max down"),
+                                       (-p.max_up, p.max_up_case, "max uplift")):
+                if case is None:
+                    continue
+                x = float(u.length(levels[case]))
+                y = float(scope.to_display(value))
+                spots.append({"pos": (x, y), "brush": pg.mkBrush(colour)})
+                text = f"{name} {words} {scope.number(abs(value))} ({case})"
+                (vx0, vx1), (vy0, vy1) = plot.getViewBox().viewRange()
+                # The text on the side with room (the view grows to the marks below).
+                right = x > 0.5 * (vx0 + vx1)
+                high = y > 0.5 * (vy0 + vy1)
+                label = pg.TextItem(text, color=colour,
+                                    anchor=(1 if right else 0, 0 if high else 1))
+                label.setPos(x, y)
+                plot.addItem(label, ignoreBounds=True)
+                self._mark_labels.append(label)
+                self.mark_texts.append(text)
+        self.marks.setData(spots)
+        if spots:  # design values may stand above the characteristic curves
+            vb = plot.getViewBox()
+            (_, _), (y0, y1) = vb.viewRange()
+            ys = [sp["pos"][1] for sp in spots]
+            lo, hi = min(min(ys), y0), max(max(ys), y1)
+            if lo < y0 or hi > y1:
+                pad = 0.08 * (hi - lo)
+                vb.setYRange(lo - (pad if lo < y0 else 0.0), hi + (pad if hi > y1 else 0.0),
+                             padding=0)
 
     def _on_levelTableReady(self, table):
         plot = self.getPlotItem()
@@ -165,12 +230,14 @@ class LoadChart(pg.PlotWidget):
         if not self._dragging:
             self._dragging = True
             self._drags += 1
+            self._doc.begin_live_edit()  # the envelope waits for the release
         self.set_level_at(line.value(), ("chart cursor", self._drags))
 
     def _on_cursorReleased(self, line):
         if self._dragging:
             self._dragging = False
             self.set_level_at(line.value(), ("chart cursor", self._drags))
+            self._doc.end_live_edit()
 
     def _on_mouseClicked(self, ev):
         if ev.button() != Qt.LeftButton or ev.isAccepted():

@@ -19,7 +19,7 @@ from PySide6.QtWidgets import QApplication, QFileDialog, QMessageBox, QProgressD
 __all__ = ["show_error", "ask_save_changes", "ask_open_path", "ask_save_path",
            "ask_export_path", "ask_template", "show_about", "show_warning",
            "ask_export_file", "ask_import_file", "ask_dxf_outline", "ask_report_info",
-           "ask_recovery", "ask_preferences", "make_progress"]
+           "ask_recovery", "ask_preferences", "ask_structure", "make_progress"]
 
 SECTION_FILTER = "Section files (*.section.json);;JSON files (*.json);;All files (*)"
 
@@ -202,6 +202,18 @@ def ask_preferences(parent, values):
     dlg = PreferencesDialog(values, parent)
     if dlg.exec():
         return dlg.values()
+    return None
+
+
+@_modal
+def ask_structure(parent, units, section, structure, ground):
+    """Section > Structure: a
+    :class:`wetline.app.window.structure_dialog.StructureChoice` or None."""
+    from wetline.app.window.structure_dialog import StructureDialog
+
+    dlg = StructureDialog(units, section, structure, ground, parent)
+    if dlg.exec():
+        return dlg.choice
     return None
 
 

@@ -22,6 +22,7 @@ from wetline.app.render.geometry import (
     arrow_strokes,
     carrying_edges,
     diagram_polygons,
+    envelope_wetted_edges,
     liquid_rings,
     part_runs,
     pressure_arrows,
@@ -68,6 +69,8 @@ class LoadLayer:
         self.down = pairs_curve(vb, pg.mkPen(LOAD, width=3), 30)
         self.up = pairs_curve(vb, pg.mkPen(UPLIFT_COLOUR, width=3), 30)
         self._polygon = self._polygon_section = None
+        self.envelope_edges = None
+        """The WettedEdges of the envelope diagram last drawn (None in case view)."""
         self._parts_key = self._carries = self._runs = None
 
     def polygon(self, section):
@@ -83,6 +86,7 @@ class LoadLayer:
         pressures in ``units``; the labels asked of ``labels``
         (:class:`wetline.app.window.canvas_labels.CanvasLabels`)."""
         section = solution.section
+        self.envelope_edges = None
         size = max(float(np.ptp(section.outline[:, 0])), section.z_max - section.z_min, 1e-9)
         labels.clear(section.outline)
         surface_labels = self._draw_liquid(solution, size, units)
@@ -97,6 +101,47 @@ class LoadLayer:
         self._draw_resultants(solution, w, runs, size, scope, labels)
         for ask in surface_labels:
             labels.ask(*ask)
+        self._ask_pressures(w, scale, section.n_edges, units, labels)
+
+    def draw_envelope(self, solved, scale, units, labels):
+        """Draw the envelope of the solved cases ``solved``
+        (:class:`wetline.core.load_cases.SolvedCase`, one section): each
+        edge's largest design pressure
+        (:func:`wetline.app.render.geometry.envelope_wetted_edges`), with
+        its values; no liquid, free surface or resultants (they belong to
+        one case), the spill level kept."""
+        section = solved[0].solution.section
+        size = max(float(np.ptp(section.outline[:, 0])), section.z_max - section.z_min, 1e-9)
+        labels.clear(section.outline)
+        for item in (self.liquid, self.mirror_liquid):
+            item.setPath(rings_path([]))
+        self.surface.setData([], [])
+        self.down.setData([], [])
+        self.up.setData([], [])
+        spill = section.spill_level
+        xmax = float(section.outline[:, 0].max())
+        left = -xmax if section.is_axisymmetric else float(section.outline[:, 0].min())
+        margin = 0.04 * size
+        if spill is not None:
+            self.spill.setData([left - 2 * margin, xmax + 2 * margin], [spill, spill])
+        else:
+            self.spill.setData([], [])
+        carries, _ = self._parts_of(section)
+        w = envelope_wetted_edges([s.solution for s in solved], [s.load_factor for s in solved],
+                                  carries)
+        self.envelope_edges = w
+        x, z, connect = diagram_polygons(w, scale)
+        path = path_of(x, z, connect)
+        path.setFillRule(Qt.WindingFill)
+        self.diagram.setPath(path)
+        tx, tz, px, pz = pressure_arrows(w, scale)
+        self.arrows.setData(*arrow_strokes(tx, tz, px, pz, 0.02 * size))
+        z_top = float(section.outline[:, 1].max())
+        labels.ask(left, z_top + 2 * margin,
+                   f"envelope of {len(solved)} cases (design values)",
+                   DIAGRAM_TEXT, (0, 0), bold=True)
+        if spill is not None:
+            labels.ask(xmax + 2 * margin, spill, "spill level", MUTED, (0, 0.5))
         self._ask_pressures(w, scale, section.n_edges, units, labels)
 
     def _parts_of(self, section):

@@ -24,20 +24,24 @@ from PySide6.QtWidgets import (
     QWidget,
 )
 
-from wetline.app.model import editing, recovery
+from wetline.app.model import design_file, editing, recovery
 from wetline.app.model.display import DisplayChoice
 from wetline.app.model.document import UNDO_LIMIT, Document
 from wetline.app.window import dialogs
 from wetline.app.window.canvas import SectionCanvas
+from wetline.app.window.case_list import CaseListPanel
 from wetline.app.window.chart import LoadChart
 from wetline.app.window.files import Transfer
+from wetline.app.window.flotation_panel import FlotationPanel
 from wetline.app.window.panels import FillPanel, LiquidPanel, TotalsPanel, parse_number
 from wetline.app.window.tables import EdgesTable, PartsTable, VerticesPane, VerticesTable
 from wetline.app.window.uplift_panel import UpliftPanel
+from wetline.core.load_cases import LoadCaseError
 from wetline.core.numbers import format_number
 from wetline.core.results import CAUTION
 from wetline.core.section import SectionError
-from wetline.core.section_file import SectionFileError, read_section_file, write_section_file
+from wetline.core.section_file import SectionFileError
+from wetline.core.structure import Ground, StructureError
 
 __all__ = ["MainWindow"]
 
@@ -91,12 +95,15 @@ class MainWindow(QMainWindow):
         scroll.setMinimumWidth(left.sizeHint().width() + 24)
         scroll.setHorizontalScrollBarPolicy(Qt.ScrollBarAlwaysOff)
         self._dock("Fill and liquid", scroll, Qt.LeftDockWidgetArea)
+        self.case_list = CaseListPanel(doc)
+        self._dock("Load cases", self.case_list, Qt.LeftDockWidgetArea)
 
         self.totals = TotalsPanel(doc)
         self.parts_table = PartsTable(doc)
         self.edges_table = EdgesTable(doc)
         self.vertices_table = VerticesTable(doc, message=self._status)
         self.uplift_panel = UpliftPanel(doc)
+        self.flotation_panel = FlotationPanel(doc)
         self.transfer = Transfer(self)
         self._build_actions()
         # The uplift check sits under the loads per part it is about.
@@ -104,8 +111,14 @@ class MainWindow(QMainWindow):
         parts_page.setChildrenCollapsible(False)
         parts_page.addWidget(self.parts_table)
         self.parts_table.setMinimumHeight(118)  # the header and three parts
+        checks = QWidget()
+        cl = QVBoxLayout(checks)
+        cl.setContentsMargins(0, 0, 0, 0)
+        cl.addWidget(self.uplift_panel)
+        cl.addWidget(self.flotation_panel)
+        cl.addStretch(1)
         uplift_scroll = QScrollArea()
-        uplift_scroll.setWidget(self.uplift_panel)
+        uplift_scroll.setWidget(checks)
         uplift_scroll.setWidgetResizable(True)
         uplift_scroll.setHorizontalScrollBarPolicy(Qt.ScrollBarAlwaysOff)
         parts_page.addWidget(uplift_scroll)
@@ -115,7 +128,7 @@ class MainWindow(QMainWindow):
         self.vertices_pane = VerticesPane(
             self.vertices_table, (a["paste_coords"], a["copy_coords"], a["import_csv"]))
         tabs = QTabWidget()
-        tabs.addTab(parts_page, "Parts and uplift")
+        tabs.addTab(parts_page, "Parts, uplift, flotation")
         tabs.addTab(self.edges_table, "Edges")
         tabs.addTab(self.vertices_pane, "Vertices")
         self.tabs = tabs
@@ -132,6 +145,8 @@ class MainWindow(QMainWindow):
                          Qt.Vertical)
         self.resizeDocks([self.findChild(QDockWidget, "Fill and liquid"),
                           self.findChild(QDockWidget, "Results")], [300, 450], Qt.Horizontal)
+        self.resizeDocks([self.findChild(QDockWidget, "Fill and liquid"),
+                          self.findChild(QDockWidget, "Load cases")], [420, 330], Qt.Vertical)
 
         self.hover = QLabel()
         self.statusBar().addWidget(self.hover, 1)
@@ -246,6 +261,13 @@ class MainWindow(QMainWindow):
                                   Qt.Key_PageDown)
         a["width"] = self._action("Set &width...", self._ask_width)
         a["rename"] = self._action("Re&name section...", self._ask_name)
+        a["structure"] = self._action(
+            "&Structure and ground...", self.edit_structure, None,
+            "Walls of a thickness around the cavity, their weight and anchorage, the ground")
+        a["envelope"] = self._action(
+            "&Envelope of all cases", self._toggle_envelope, "Ctrl+Shift+A",
+            "Show the envelope over every load case (design values) instead of this case",
+            checkable=True)
         a["plane"] = self._action("&Plane", lambda: self._set_kind("plane"), checkable=True)
         a["axi"] = self._action("&Axisymmetric", lambda: self._set_kind("axisymmetric"),
                                 checkable=True)
@@ -300,11 +322,14 @@ class MainWindow(QMainWindow):
         m.addAction(a["axi"])
         m.addAction(a["width"])
         m.addAction(a["rename"])
+        m.addSeparator()
+        m.addAction(a["structure"])
         m = mb.addMenu("F&ill")
         m.addAction(a["raise"])
         m.addAction(a["lower"])
         m = mb.addMenu("&View")
         m.addAction(a["fit"])
+        m.addAction(a["envelope"])
         um = m.addMenu("&Units")
         for act in a["units"]:
             um.addAction(act)
@@ -335,6 +360,14 @@ class MainWindow(QMainWindow):
         tb.addSeparator()
         tb.addAction(a["draw"])
         tb.addAction(a["fit"])
+        tb.addSeparator()
+        tb.addWidget(QLabel(" Show "))
+        self.view_combo = QComboBox()
+        self.view_combo.addItem("This case", "case")
+        self.view_combo.addItem("Envelope", "envelope")
+        self.view_combo.setToolTip("The diagrams, the part table and the chart of the active "
+                                   "case, or the envelope over all cases (design values)")
+        tb.addWidget(self.view_combo)
         tb.addSeparator()
         self.snap_box = QCheckBox("Snap")
         self.snap_box.setToolTip("Snap vertices to a grid")
@@ -368,6 +401,8 @@ class MainWindow(QMainWindow):
         self.snap_box.toggled.connect(self._on_snap_toggled)
         self.snap_spacing.editingFinished.connect(self._on_snap_spacing_edited)
         self.units_combo.currentIndexChanged.connect(self._on_units_combo)
+        self.view_combo.currentIndexChanged.connect(self._on_view_combo)
+        self.doc.viewModeChanged.connect(self._on_viewModeChanged)
         self.scale_auto.toggled.connect(self._on_scale_edited)
         self.scale_edit.editingFinished.connect(self._on_scale_edited)
         self.doc.diagramScaleChanged.connect(self._on_unitsChanged)
@@ -474,6 +509,50 @@ class MainWindow(QMainWindow):
             self.doc, scale, f"Diagram scale {format_number(v)} {u.units.label('pressure')} "
                              f"per {u.length_unit}")
 
+    def set_view_mode(self, mode):
+        """Show the active case (``"case"``) or the envelope (``"envelope"``)."""
+        self.doc.set_view_mode(mode)
+
+    def _on_view_combo(self, i):
+        self.set_view_mode(self.view_combo.itemData(i))
+
+    def _toggle_envelope(self, on):
+        self.set_view_mode("envelope" if on else "case")
+
+    def _on_viewModeChanged(self):
+        mode = self.doc.view_mode
+        self.view_combo.blockSignals(True)
+        self.view_combo.setCurrentIndex(self.view_combo.findData(mode))
+        self.view_combo.blockSignals(False)
+        self.actions_by_name["envelope"].setChecked(mode == "envelope")
+
+    def edit_structure(self):
+        """Section > Structure and ground: one undo step if anything changed."""
+        doc = self.doc
+        choice = dialogs.ask_structure(self, doc.units, doc.section, doc.structure, doc.ground)
+        if choice is None:
+            return False
+        return self.apply_structure_choice(choice)
+
+    def apply_structure_choice(self, choice):
+        """Turn the Structure dialog's answer (a
+        :class:`wetline.app.window.structure_dialog.StructureChoice`) into
+        one edit; a refusal is shown and changes nothing."""
+        doc = self.doc
+        if choice.remove:
+            return editing.remove_structure(doc)
+        try:
+            ground = None if choice.ground is None else Ground(*choice.ground)
+            changed = editing.edit_structure(
+                doc, choice.walls, unit_weight=choice.unit_weight,
+                extra_weight=choice.extra_weight, anchorage=choice.anchorage, ground=ground)
+        except ValueError as exc:  # StructureError, LoadCaseError, a value out of range
+            dialogs.show_error(self, "Structure", str(exc))
+            return False
+        if changed:
+            self.canvas.fit()
+        return changed
+
     def _toggle_draw(self, on):
         self.canvas.set_mode("draw" if on else "edit")
         self.canvas.setFocus()
@@ -483,7 +562,7 @@ class MainWindow(QMainWindow):
             return
         try:
             editing.set_kind(self.doc, kind)
-        except SectionError as exc:
+        except (SectionError, StructureError, LoadCaseError) as exc:
             self._status(f"Cannot switch to {kind}: {exc}")
             self._on_sectionChanged()
 
@@ -551,14 +630,14 @@ class MainWindow(QMainWindow):
         if ask and not self.maybe_save():
             return False
         try:
-            case = read_section_file(path)
+            design = design_file.read(path)
         except SectionFileError as exc:
             dialogs.show_error(self, "Cannot open the file", str(exc))
             return False
         except Exception as exc:  # an unexpected reader fault must not lose work
             dialogs.show_error(self, "Cannot open the file", f"{path}: {exc}")
             return False
-        self.doc.load(case, path)
+        self.doc.load(design, path)
         self.canvas.fit_when_drawn()
         self._add_recent(path)
         self._remember_folder(path)
@@ -581,9 +660,9 @@ class MainWindow(QMainWindow):
         return self._write(path) if path else False
 
     def _write(self, path):
-        case = recovery.case_to_save(self.doc.case)
+        design = recovery.design_to_save(self.doc.design)
         try:
-            write_section_file(case, path)
+            design_file.write(design, path)
         except OSError as exc:
             dialogs.show_error(self, "Cannot save", f"{path}: {exc.strerror or exc}")
             return False
@@ -705,11 +784,11 @@ class MainWindow(QMainWindow):
         """Open a recovery copy as the document: modified, with its original
         file for Save. Once this program has its own copy the old one goes."""
         try:
-            case = recovery.read_copy(copy)
+            design = recovery.read_copy(copy)
         except SectionFileError as exc:
             dialogs.show_error(self, "Cannot restore the recovery copy", str(exc))
             return False
-        self.doc.load(case, copy.original_path, saved=False)
+        self.doc.load(design, copy.original_path, saved=False)
         self.canvas._first_fit = True
         if self.autosaver is not None and self.autosaver.write_now() is not None:
             recovery.remove_copy(self.autosaver.folder, copy.id)

@@ -56,6 +56,11 @@ class OutlineLayer:
             pen=pg.mkPen("#1a1a1a", width=1.5, style=Qt.DashLine)), 45)
 
     @property
+    def legend(self):
+        """The part legend over the view (pyqtgraph's LegendItem)."""
+        return self._legend
+
+    @property
     def mirrored(self):
         """True if the mirrored half of an axisymmetric section is drawn."""
         return self.mirror.isVisible()

@@ -250,6 +250,7 @@ class FillPanel(QGroupBox):
         self.mode.currentIndexChanged.connect(self._on_mode_changed)
         self.value.editingFinished.connect(self._on_value_edited)
         self.slider.sliderPressed.connect(self._on_slider_pressed)
+        self.slider.sliderReleased.connect(self._on_slider_released)
         self.slider.valueChanged.connect(self._on_slider_moved)
         document.fillChanged.connect(self._on_fillChanged)
         document.sectionChanged.connect(self._on_fillChanged)
@@ -341,6 +342,10 @@ class FillPanel(QGroupBox):
 
     def _on_slider_pressed(self):
         self._drag += 1
+        self._doc.begin_live_edit()  # the envelope over all cases waits for the release
+
+    def _on_slider_released(self):
+        self._doc.end_live_edit()
 
     def _on_slider_moved(self, value):
         key = ("slider", self._drag) if self.slider.isSliderDown() else ("slider-step",)
@@ -381,9 +386,11 @@ class FillPanel(QGroupBox):
 
 
 class TotalsPanel(QGroupBox):
-    """Volume, weight, floor force, support reaction, maximum pressure, spill level."""
+    """The active case, its level, volume, weight, floor force, support
+    reaction, maximum pressure, spill level (characteristic values)."""
 
-    ROWS = (("level", "Level"), ("volume", "Volume"), ("weight", "Liquid weight"),
+    ROWS = (("case", "Case"), ("level", "Level"), ("volume", "Volume"),
+            ("weight", "Liquid weight"),
             ("floor", "Floor force"), ("support", "Support reaction"),
             ("max_pressure", "Max. pressure"), ("spill", "Spill level"))
 
@@ -415,6 +422,10 @@ class TotalsPanel(QGroupBox):
         sec = s.section
         scope, scale = doc.force_scope(sec), doc.force_scale
         v = self.values
+        solved = doc.solved_case
+        factor = 1.0 if solved is None else solved.load_factor
+        v["case"].setText(doc.active_name + ("" if factor == 1.0
+                                             else f" (load factor {format_number(factor)})"))
         v["level"].setText(u.fmt_length(s.level))
         area = u.units.text(s.volume / sec.width, "area")
         v["volume"].setText(f"{u.fmt_volume(s.volume)}"

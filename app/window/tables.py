@@ -1,4 +1,5 @@
-"""Tables: loads per part, loads per edge, and the editable vertex table.
+"""Tables: loads per part, loads per edge, and the editable vertex table
+(of the cavity, or of the structure around it).
 
 Item models over the document's arrays (``QAbstractTableModel``), so a
 slider step only tells the views that the data changed and they ask for the
@@ -23,9 +24,11 @@ from PySide6.QtWidgets import (
 )
 
 from wetline.app.model import editing
+from wetline.app.model.document import CAVITY, STRUCTURE
 from wetline.app.window.panels import parse_number
 from wetline.core.numbers import format_number
 from wetline.core.section import AXIS, FLOOR, OPEN
+from wetline.core.structure import OUTER_WALL
 
 __all__ = ["PartsModel", "EdgesModel", "VerticesModel", "PartsTable", "EdgesTable",
            "VerticesTable", "VerticesPane"]
@@ -71,40 +74,90 @@ class _Model(QAbstractTableModel):
 
 
 class PartsModel(_Model):
-    """Per part: horizontal, vertical and downward load, and its direction."""
+    """Per part: horizontal, vertical and downward load, and its direction;
+    with a load factor other than 1 the design downward load beside it. In
+    the envelope view: each part's largest downward load and largest uplift
+    over all cases (design values) with the case giving each."""
 
     def __init__(self, document, parent=None):
         super().__init__(document, parent)
         self._rows = []
+        self._shape = None
         document.solved.connect(self._on_solved)
         document.unitsChanged.connect(self._on_unitsChanged)
+        document.envelopeReady.connect(self._on_envelopeReady)
+        document.viewModeChanged.connect(self._on_viewModeChanged)
+
+    @property
+    def envelope(self):
+        """True while the rows are the envelope's."""
+        return self._doc.view_mode == "envelope" and self._doc.envelope is not None
+
+    def _factor(self):
+        solved = self._doc.solved_case
+        return 1.0 if solved is None else solved.load_factor
 
     def _headers(self):
         sol = self._doc.solution
         f = self._doc.force_scope(sol.section).label if sol else ""
+        if self.envelope:
+            return ("Part", f"Max down [{f}]", "Case", f"Max uplift [{f}]", "Case")
+        if self._factor() != 1.0:
+            return ("Part", f"Fx [{f}]", f"Fz [{f}]", f"Down [{f}]",
+                    f"Design down [{f}]", "")
         return ("Part", f"Fx [{f}]", f"Fz [{f}]", f"Down [{f}]", "")
 
     def rowCount(self, parent=QModelIndex()):
         return 0 if parent.isValid() else len(self._rows)
 
-    def _on_solved(self, solution):
-        rows = list(solution.parts.items())
-        if len(rows) != len(self._rows):
+    def _set_rows(self, rows):
+        shape = (len(rows), self.envelope, len(self._headers()))
+        if shape != self._shape:
             self.beginResetModel()
             self._rows = rows
+            self._shape = shape
             self.endResetModel()
         else:
             self._rows = rows
             self.refresh()
 
+    def _on_solved(self, solution):
+        if not self.envelope:
+            self._set_rows(list(solution.parts.items()))
+
+    def _on_envelopeReady(self, env):
+        if self.envelope:
+            self._set_rows(list(env.parts.items()))
+
+    def _on_viewModeChanged(self):
+        if self.envelope:
+            self._set_rows(list(self._doc.envelope.parts.items()))
+        elif self._doc.solution is not None:
+            self._set_rows(list(self._doc.solution.parts.items()))
+
     def data(self, index, role=Qt.DisplayRole):
-        if not index.isValid():
+        if not index.isValid() or index.row() >= len(self._rows):
             return None
         name, load = self._rows[index.row()]
         c = index.column()
         doc = self._doc
-        scope, scale = doc.force_scope(doc.solution.section), doc.force_scale
+        scope = doc.force_scope(doc.solution.section)
+        if self.envelope and hasattr(load, "max_down"):
+            if role == Qt.DisplayRole:
+                return (name, scope.number(load.max_down), load.max_down_case or "-",
+                        scope.number(load.max_up), load.max_up_case or "-")[c]
+            if role == Qt.TextAlignmentRole and c in (1, 3):
+                return _RIGHT
+            if role == Qt.ForegroundRole and c in (3, 4) and load.max_up > 0:
+                return UPLIFT_TEXT
+            return None
+        if not hasattr(load, "down"):
+            return None
+        scale = doc.force_scale
+        factor = self._factor()
+        design = factor != 1.0
         lifted = load.down < 0
+        last = 5 if design else 4
         if role == Qt.DisplayRole:
             if c == 0:
                 return name
@@ -114,11 +167,13 @@ class PartsModel(_Model):
                 return scope.number(load.fz, scale=scale)
             if c == 3:
                 return scope.number(load.down, scale=scale)
-            if c == 4:
+            if c == 4 and design:
+                return scope.number(factor * load.down, scale=factor * scale)
+            if c == last:
                 return "uplift" if lifted else ("down" if load.down > 0 else "")
-        if role == Qt.TextAlignmentRole and 0 < c < 4:
+        if role == Qt.TextAlignmentRole and 0 < c < last:
             return _RIGHT
-        if role == Qt.ForegroundRole and lifted and c in (3, 4):
+        if role == Qt.ForegroundRole and lifted and c >= 3:
             return UPLIFT_TEXT
         return None
 
@@ -131,6 +186,24 @@ class EdgesModel(_Model):
         self._n = 0
         document.solved.connect(self._on_solved)
         document.unitsChanged.connect(self._on_unitsChanged)
+        document.envelopeReady.connect(self._on_envelopeReady)
+        document.viewModeChanged.connect(self._on_viewModeChanged)
+
+    @property
+    def envelope(self):
+        """True while the rows are the envelope's (same section as shown)."""
+        doc = self._doc
+        env, sol = doc.envelope, doc.solution
+        return (doc.view_mode == "envelope" and env is not None and sol is not None
+                and env.edge_max_pressure.size == sol.section.n_edges)
+
+    def _on_envelopeReady(self, _env):
+        if self._doc.view_mode == "envelope" and self._doc.solution is not None:
+            self._on_solved(self._doc.solution)
+
+    def _on_viewModeChanged(self):
+        if self._doc.solution is not None:
+            self._on_solved(self._doc.solution)
 
     def _headers(self):
         sol = self._doc.solution
@@ -139,6 +212,8 @@ class EdgesModel(_Model):
         p = u.units.label("pressure")
         if sol is None:
             return ()
+        if self.envelope:
+            return ("Part", f"Length [{L}]", f"Max design pressure [{p}]", "Case")
         f = self._doc.force_scope(sol.section).label
         if sol.section.is_axisymmetric:
             q = u.units.label("force_per_length")
@@ -152,10 +227,11 @@ class EdgesModel(_Model):
 
     def _on_solved(self, solution):
         n = solution.section.n_edges
-        if n != self._n or getattr(self, "_axi", None) != solution.section.is_axisymmetric:
+        shape = (solution.section.is_axisymmetric, self.envelope)
+        if n != self._n or getattr(self, "_shape", None) != shape:
             self.beginResetModel()
             self._n = n
-            self._axi = solution.section.is_axisymmetric
+            self._shape = shape
             self.endResetModel()
         else:
             self.refresh()
@@ -177,6 +253,11 @@ class EdgesModel(_Model):
         s = sol.section
         if c == 0:
             return s.parts[i]
+        if self.envelope:
+            if c == 1:
+                return format_number(u.length(s.geometry.length[i]))
+            pressure, case = self._doc.envelope.edge(i)
+            return format_number(u.pressure(pressure)) if c == 2 else (case or "-")
         if c == 1:
             return format_number(u.length(s.geometry.length[i]))
         if c == 2:
@@ -197,16 +278,40 @@ class EdgesModel(_Model):
 
 class VerticesModel(_Model):
     """Vertex coordinates in the display length unit, and the part of the
-    edge leaving each vertex; all editable (each edit one undo step)."""
+    edge leaving each vertex; all editable (each edit one undo step). Shows
+    the cavity's outline, or the structure's (:meth:`set_target`)."""
 
     def __init__(self, document, parent=None):
         super().__init__(document, parent)
+        self.target = CAVITY
         self._n = len(document.working_outline()[0])
         self.last_error = ""
         document.sectionChanged.connect(self._on_outlineChanged)
         document.draftChanged.connect(self._on_outlineChanged)
         document.previewChanged.connect(self._on_outlineChanged)  # live during a drag
+        document.structureChanged.connect(self._on_structureChanged)
         document.unitsChanged.connect(self._on_unitsChanged)
+
+    def set_target(self, target):
+        """Show and edit the cavity's outline (``"cavity"``) or the
+        structure's (``"structure"``, if there is one)."""
+        if target not in (CAVITY, STRUCTURE):
+            raise ValueError(target)
+        if target == STRUCTURE and self._doc.structure is None:
+            target = CAVITY
+        if target != self.target:
+            self.beginResetModel()
+            self.target = target
+            self._n = len(self.outline()[0])
+            self.endResetModel()
+
+    def outline(self):
+        """(outline [m], parts) shown: the cavity's or the structure's being edited."""
+        if self.target == STRUCTURE:
+            working = self._doc.working_structure_outline()
+            if working is not None:
+                return working
+        return self._doc.working_outline()
 
     def _headers(self):
         L = self._doc.units.length_unit
@@ -215,8 +320,13 @@ class VerticesModel(_Model):
     def rowCount(self, parent=QModelIndex()):
         return 0 if parent.isValid() else self._n
 
+    def _on_structureChanged(self):
+        if self._doc.structure is None and self.target == STRUCTURE:
+            self.set_target(CAVITY)
+        self._on_outlineChanged()
+
     def _on_outlineChanged(self):
-        n = len(self._doc.working_outline()[0])
+        n = len(self.outline()[0])
         if n != self._n:
             self.beginResetModel()
             self._n = n
@@ -230,7 +340,7 @@ class VerticesModel(_Model):
     def data(self, index, role=Qt.DisplayRole):
         if not index.isValid():
             return None
-        outline, parts = self._doc.working_outline()
+        outline, parts = self.outline()
         i, c = index.row(), index.column()
         if i >= len(outline):
             return None
@@ -242,7 +352,7 @@ class VerticesModel(_Model):
         if role == Qt.TextAlignmentRole and c < 2:
             return _RIGHT
         draft = self._doc.draft
-        if role == Qt.BackgroundRole and draft is not None and (
+        if role == Qt.BackgroundRole and draft is not None and draft.target == self.target and (
                 i in draft.error.vertices or (c == 2 and i in draft.error.edges)):
             return QColor("#ffd6d6")
         return None
@@ -252,23 +362,27 @@ class VerticesModel(_Model):
             return False
         i, c = index.row(), index.column()
         doc = self._doc
+        structure = self.target == STRUCTURE
         try:
             if c < 2:
                 v = doc.units.length_si(parse_number(str(value), ("x", "z")[c]))
-                outline, _ = doc.working_outline()
+                outline, _ = self.outline()
                 x, z = outline[i]
                 if c == 0:
                     x = v
                 else:
                     z = v
-                ok = editing.move_vertex(doc, i, x, z)
+                move = editing.move_structure_vertex if structure else editing.move_vertex
+                ok = move(doc, i, x, z)
             else:
-                ok = editing.set_edge_part(doc, i, str(value))
+                set_part = editing.set_structure_part if structure else editing.set_edge_part
+                ok = set_part(doc, i, str(value))
         except ValueError as exc:
             self.last_error = str(exc)
             self.errorRaised(self.last_error)
             return False
-        self.last_error = "" if ok else f"Invalid outline: {doc.draft.error}"
+        what = "structure outline" if structure else "outline"
+        self.last_error = "" if ok else f"Invalid {what}: {doc.draft.error}"
         if not ok:
             self.errorRaised(self.last_error)
         return True
@@ -289,8 +403,14 @@ class PartDelegate(QStyledItemDelegate):
             return super().createEditor(parent, option, index)
         combo = QComboBox(parent)
         combo.setEditable(True)
-        _, parts = self._doc.working_outline()
-        combo.addItems(list(dict.fromkeys(("wall", FLOOR, OPEN, "lid", AXIS) + tuple(parts))))
+        model = index.model()
+        if getattr(model, "target", CAVITY) == STRUCTURE:
+            _, parts = model.outline()
+            offered = (OUTER_WALL, "base", "outer roof")
+        else:
+            _, parts = self._doc.working_outline()
+            offered = ("wall", FLOOR, OPEN, "lid", AXIS)
+        combo.addItems(list(dict.fromkeys(offered + tuple(parts))))
         return combo
 
     def setEditorData(self, editor, index):
@@ -315,8 +435,12 @@ class _SelectionSync:
         self.selectionModel().currentRowChanged.connect(self._on_currentRowChanged)
         document.selectionChanged.connect(self._on_selectionChanged)
 
+    selection_sync = True
+    """False while the rows are not the document's edges or vertices (the
+    structure's outline in the vertex table)."""
+
     def _on_currentRowChanged(self, current, _previous):
-        if not current.isValid():
+        if not current.isValid() or not self.selection_sync:
             return
         if self._kind == "edge":
             self._doc.select_edge(current.row())
@@ -324,6 +448,8 @@ class _SelectionSync:
             self._doc.select_vertex(current.row())
 
     def _on_selectionChanged(self):
+        if not self.selection_sync:
+            return
         row = self._doc.selected_edge if self._kind == "edge" else self._doc.selected_vertex
         sm = self.selectionModel()
         sm.blockSignals(True)
@@ -393,6 +519,11 @@ class VerticesPane(QWidget):
         lay.setSpacing(2)
         row = QHBoxLayout()
         row.setContentsMargins(2, 2, 2, 0)
+        self.target = QComboBox()
+        self.target.addItem("Cavity", CAVITY)
+        self.target.addItem("Structure", STRUCTURE)
+        self.target.setToolTip("Edit the cavity's outline or the structure's outer outline")
+        row.addWidget(self.target)
         self.buttons = []
         for action in actions:
             button = QToolButton()
@@ -403,3 +534,28 @@ class VerticesPane(QWidget):
         row.addStretch(1)
         lay.addLayout(row)
         lay.addWidget(table, 1)
+        self.target.currentIndexChanged.connect(self._on_target_chosen)
+        doc = table.model()._doc
+        self._doc = doc
+        doc.structureChanged.connect(self._on_structureChanged)
+        self._on_structureChanged()
+
+    def set_target(self, target):
+        """Show the cavity's (``"cavity"``) or the structure's outline."""
+        self.target.setCurrentIndex(self.target.findData(target))
+
+    def _on_target_chosen(self, index):
+        target = self.target.itemData(index)
+        model = self.table.model()
+        model.set_target(target)
+        # The coordinate list actions are the cavity's.
+        for button in self.buttons:
+            button.setEnabled(model.target == CAVITY)
+        self.table.selection_sync = model.target == CAVITY
+
+    def _on_structureChanged(self):
+        has = self._doc.structure is not None
+        item = self.target.model().item(self.target.findData(STRUCTURE))
+        item.setEnabled(has)
+        if not has and self.target.currentData() == STRUCTURE:
+            self.set_target(CAVITY)

@@ -29,7 +29,7 @@ def test_write_list_read_remove(tmp_path, template_case):
     assert found == copy
     assert "sump.section.json" in found.describe()
     assert "/jobs/sump.section.json" in found.describe()
-    assert recovery.read_copy(found) == case
+    assert recovery.read_copy(found).case == case
     recovery.remove_copy(folder, "a1")
     assert recovery.list_copies(folder) == []
     assert list(folder.iterdir()) == []
@@ -53,7 +53,7 @@ def test_a_copy_without_a_readable_sidecar_is_still_offered(tmp_path, template_c
     copy.sidecar_path.write_text("{not json")
     (found,) = recovery.list_copies(folder)
     assert found.id == "x" and found.original_path is None
-    assert recovery.read_copy(found) == template_case()
+    assert recovery.read_copy(found).case == template_case()
     copy.sidecar_path.unlink()
     assert [c.id for c in recovery.list_copies(folder)] == ["x"]
 
@@ -74,7 +74,7 @@ def test_resistances_of_parts_not_in_the_outline_are_not_written(tmp_path, templ
     case = template_case().with_resistance("lid", PartResistance(self_weight=1000.0))
     case = case.with_resistance("gone", PartResistance(self_weight=5.0))
     copy = recovery.write_copy(tmp_path, "r", case, "a", None)
-    read = recovery.read_copy(copy)
+    read = recovery.read_copy(copy).case
     assert read.resistance_map == {"lid": PartResistance(self_weight=1000.0)}
     assert recovery.case_to_save(case) == read
 
@@ -93,7 +93,7 @@ def test_autosaver_writes_soon_after_the_first_edit_and_cleans_up(doc, tmp_path,
         editing.fill_to_level(doc, 1.0)
     copy = got.args[0]
     assert copy is saver.copy and not saver.pending
-    assert recovery.read_copy(copy) == doc.case
+    assert recovery.read_copy(copy).case == doc.case
     assert copy.original_path == "/jobs/sump.section.json"
     assert copy.name == "sump.section.json"
     # This program holds the copy: another start would not offer it.

@@ -1,5 +1,5 @@
 """The undo history is bounded (1,000 steps unless set otherwise) and each
-step is light: a command keeps the Case values before and after, never
+step is light: a command keeps the Design values before and after, never
 results, and the sections it keeps drop their derived arrays."""
 
 import tracemalloc
@@ -8,9 +8,10 @@ import numpy as np
 import pytest
 
 from wetline.app.model import editing
-from wetline.app.model.commands import CaseCommand
+from wetline.app.model.commands import DesignCommand
 from wetline.app.model.document import UNDO_LIMIT, Document
 from wetline.core.case import Case
+from wetline.core.load_cases import Design
 from wetline.core.section import Section
 
 
@@ -48,16 +49,17 @@ def test_a_new_limit_applies_now_if_empty_else_from_the_next_load(doc, template_
         doc.set_undo_limit(0)
 
 
-def test_commands_keep_case_values_only(doc):
+def test_commands_keep_design_values_only(doc):
     editing.fill_to_level(doc, 1.0)
     x, z = doc.section.outline[1]
     editing.move_vertex(doc, 1, x + 0.1, z)
     doc.flush()
     for i in range(doc.undo_stack.count()):
         cmd = doc.undo_stack.command(i)
-        assert isinstance(cmd, CaseCommand)
+        assert isinstance(cmd, DesignCommand)
         kept = {k: v for k, v in vars(cmd).items() if k not in ("_doc", "_key")}
-        assert all(isinstance(v, Case) for v in kept.values()), kept
+        # the designs before and after, and which case was active: never results
+        assert all(isinstance(v, (Design, int)) for v in kept.values()), kept
 
 
 def test_sections_left_in_the_history_drop_their_derived_arrays(doc):

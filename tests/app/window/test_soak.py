@@ -106,9 +106,9 @@ def test_soak_random_edits(make_window, settle):
     print(f"soak: {per_action / 1e3:.2f} kB per action from {first} to {last}")
     assert doc.undo_stack.count() <= doc.undo_limit == 1000
     assert per_action < GROWTH_PER_ACTION
-    # undo everything kept: back to the case before the oldest step exactly
+    # undo everything kept: back to the design before the oldest step exactly
     first = doc.undo_stack.command(0)
     while doc.undo_stack.canUndo():
         doc.undo_stack.undo()
     settle(w)
-    assert first is None or doc.case is first._old
+    assert first is None or doc.design is first._old
