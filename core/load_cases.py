@@ -63,6 +63,7 @@ from .structure import (
 from .uplift import UpliftResult, uplift_check
 
 __all__ = [
+    "CaseView",
     "EMPTY",
     "FILL_WORDS",
     "MAX_LOAD_FACTOR",
@@ -446,6 +447,16 @@ class ResolvedCase:
             sol = replace(sol, warnings=tuple(w for w in sol.warnings if "is empty" not in w))
         return sol
 
+    def as_case(self, note: str = "") -> CaseView:
+        """This case as a :class:`CaseView` (a Case whose ``solve`` gives
+        this case's solution); ``note`` is added to its warnings."""
+        c = self.case
+        return CaseView(section=c.section, liquid=c.liquid, gravity=c.gravity,
+                        fill_level=c.fill_level, fill_volume=c.fill_volume,
+                        length_unit=c.length_unit, resistances=c.resistances,
+                        required_uplift_factor=c.required_uplift_factor, report=c.report,
+                        resolved=self, note=note)
+
     def uplift(self, solution: Solution | None = None) -> list[UpliftResult]:
         """The uplift check of the parts with a resistance entered (the
         file's ``uplift``), under this case's pressure law; with trapped
@@ -492,6 +503,38 @@ class ResolvedCase:
             if mode == TRAPPED else None
         return solve_law(c.section, law, requested_level=float(level), pockets=state,
                          warnings=warnings)
+
+
+@dataclass(frozen=True, eq=False)
+class CaseView(Case):
+    """The file-level :class:`~wetline.core.case.Case` seen through one load
+    case: its liquid (the bottom layer's), gravity and fill, and ``solve``
+    giving that case's own solution (layers, gas, trapped pockets), for code
+    that takes a Case (the drawings and the calculation sheet).
+
+    Build it with :meth:`ResolvedCase.as_case`.
+
+    Attributes
+    ----------
+    resolved : ResolvedCase or None
+    note : str
+        A sentence added to every solution's warnings (e.g. what a drawing
+        of this case leaves out); empty for none.
+    """
+
+    resolved: ResolvedCase | None = None
+    note: str = ""
+
+    def solve(self, level: float | None = None) -> Solution:
+        """The load case's loads at its fill, or at ``level`` [m] (the
+        layers below the top one where they are)."""
+        r = self.resolved
+        if r is None:
+            return super().solve(level)
+        sol = r.solve() if level is None else r.solve_at(level)
+        if self.note:
+            sol = replace(sol, warnings=tuple(sol.warnings) + (self.note,))
+        return sol
 
 
 @dataclass(frozen=True, eq=False)
@@ -1045,17 +1088,19 @@ def envelope_record(env: Envelope) -> dict:
 
 def case_record(solved: SolvedCase) -> dict:
     """The record of one solved case: the results record of
-    :func:`wetline.core.results.results_record` plus ``case``,
+    :func:`wetline.core.results.results_record` with its ``case``,
     ``load_factor`` and ``structure`` (the object of
-    :func:`wetline.core.structure.structure_record`, or null)."""
-    from .results import results_record
+    :func:`wetline.core.structure.structure_record`, or null), the
+    structure's warnings after the liquid's."""
+    from .results import building_records, results_record
 
-    rec = results_record(solved.resolved.case, solved.solution)
-    rec["case"] = solved.name
-    rec["load_factor"] = _num(solved.load_factor)
-    if solved.structure is not None:
-        rec["warnings"] = list(rec["warnings"]) + list(solved.structure.warnings)
-    rec["structure"] = None if solved.structure is None else structure_record(solved.structure)
+    loads = solved.structure
+    with building_records():
+        outside = None if loads is None else structure_record(loads)
+    rec = results_record(solved.resolved.case, solved.solution, name=solved.name,
+                         load_factor=solved.load_factor, structure=outside)
+    if loads is not None:
+        rec["warnings"] = list(rec["warnings"]) + list(loads.warnings)
     return rec
 
 
@@ -1074,7 +1119,10 @@ def cases_record(design: Design, solved: Iterable[SolvedCase] | None = None) -> 
         ``{"format": "wetline-cases", "version": 1, "cases": [record, ...],
         "envelope": {...}}`` (see :func:`case_record`, :func:`envelope_record`).
     """
+    from .results import building_records
+
     solved = design.solve_all() if solved is None else tuple(solved)
-    return {"format": CASES_FORMAT, "version": CASES_VERSION,
-            "cases": [case_record(s) for s in solved],
-            "envelope": envelope_record(envelope(solved))}
+    with building_records():
+        return {"format": CASES_FORMAT, "version": CASES_VERSION,
+                "cases": [case_record(s) for s in solved],
+                "envelope": envelope_record(envelope(solved))}
