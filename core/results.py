@@ -126,7 +126,7 @@ EARTH_PRESSURE_ASSUMPTION = (
 
 def _nums(a: npt.NDArray[np.float64]) -> list[float | None]:
     """Plain floats of an array, None for NaN, 0.0 for -0.0 (no per-element float())."""
-    values = (np.asarray(a, dtype=np.float64) + 0.0).tolist()
+    values: list[float | None] = (np.asarray(a, dtype=np.float64) + 0.0).tolist()
     if np.isnan(a).any():
         return [None if v != v else v for v in values]
     return values
@@ -134,7 +134,7 @@ def _nums(a: npt.NDArray[np.float64]) -> list[float | None]:
 
 def _points(a: npt.NDArray[np.float64]) -> list[list[float] | None]:
     """[x, z] pairs of an (N, 2) array, None for a row that is not finite."""
-    rows = (np.asarray(a, dtype=np.float64) + 0.0).tolist()
+    rows: list[list[float] | None] = (np.asarray(a, dtype=np.float64) + 0.0).tolist()
     bad = ~np.isfinite(a).all(axis=1)
     if bad.any():
         for i in np.flatnonzero(bad).tolist():

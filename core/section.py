@@ -220,7 +220,7 @@ class Section:
         args.update(changes)
         return Section.build(**args)
 
-    def forget_derived(self):
+    def forget_derived(self) -> None:
         """Drop the cached per-edge arrays (:attr:`geometry`, :attr:`volume_curve`,
         :attr:`pocket_tree`);
         they are computed again when next needed, with the same values.

@@ -39,10 +39,10 @@ import math
 import os
 import re
 import stat
-from collections.abc import Collection, Iterable
+from collections.abc import Callable, Collection, Iterable
 from decimal import Decimal, localcontext
 from pathlib import Path
-from typing import Any
+from typing import Any, TypeVar
 
 import numpy as np
 
@@ -84,6 +84,8 @@ __all__ = [
     "write_design",
     "write_section_file",
 ]
+
+_T = TypeVar("_T")
 
 FORMAT = "wetline-section"
 VERSION = 3
@@ -1108,7 +1110,7 @@ def read_design(path: str | os.PathLike[str]) -> Design:
     return _read_path(path, loads_design)
 
 
-def _read_path(path: str | os.PathLike[str], parse: Any) -> Any:
+def _read_path(path: str | os.PathLike[str], parse: Callable[..., _T]) -> _T:
     path = Path(path)
     try:
         raw = _read_capped(path)

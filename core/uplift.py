@@ -31,7 +31,7 @@ from __future__ import annotations
 import math
 from collections.abc import Iterable, Mapping
 from dataclasses import dataclass
-from typing import TYPE_CHECKING
+from typing import TYPE_CHECKING, Any
 
 import numpy as np
 import numpy.typing as npt
@@ -321,6 +321,7 @@ def _part_downs_at(solution: Solution, level: float, trapped: bool) -> dict[str,
     from .hydrostatics import solve_law
     from .pockets import trap_air
 
+    assert solution.law is not None  # every Solution of solve() and solve_law() has one
     law = solution.law.with_level(level)
     state = trap_air(solution.section.pocket_tree, law, solution.atmospheric_pressure) \
         if trapped else None
@@ -331,6 +332,7 @@ def _part_downs_at(solution: Solution, level: float, trapped: bool) -> dict[str,
 def _worst_vented_law(solution: Solution, parts: list[str]
                       ) -> dict[str, tuple[float, float, str]]:
     lo, hi = _law_range(solution)
+    assert solution.law is not None
     top = solution.law.layers[-1]
     out = {}
     for name in parts:
@@ -365,7 +367,7 @@ def _worst_trapped(solution: Solution, parts: list[str]) -> dict[str, tuple[floa
         b = float(levels[min(k + 1, levels.size - 1)])
         best_h, best_u = float(levels[k]), float(up[k])
 
-        def uplift(h, name=name):
+        def uplift(h: float, name: str = name) -> float:
             return max(-_part_downs_at(solution, h, True)[name], 0.0)
 
         c, d = b - _GOLDEN * (b - a), a + _GOLDEN * (b - a)
@@ -389,7 +391,7 @@ def _worst_trapped(solution: Solution, parts: list[str]) -> dict[str, tuple[floa
 def uplift_check(case: Case, resistances: Mapping[str, PartResistance],
                  required_factor: float = DEFAULT_REQUIRED_FACTOR,
                  solution: Solution | None = None,
-                 worst: Mapping[str, tuple[float, ...]] | None = None) -> list[UpliftResult]:
+                 worst: Mapping[str, tuple[Any, ...]] | None = None) -> list[UpliftResult]:
     """Check every part that has a resistance entered.
 
     Parameters
@@ -423,18 +425,19 @@ def uplift_check(case: Case, resistances: Mapping[str, PartResistance],
     section = case.section
     scale = 1.0 if section.is_axisymmetric else section.width
     checked = [name for name in section.loaded_part_names if name in resistances]
-    if worst is None:
-        if solution is None or (_is_one_liquid(sol) and sol.pocket_mode == "vented"):
-            worst = worst_uplifts(section, checked, sol.density, sol.gravity)
-        else:
-            worst = worst_uplifts_for(sol, checked)
+    found: Mapping[str, tuple[Any, ...]]
+    if worst is not None:
+        found = worst
+    elif solution is None or (_is_one_liquid(sol) and sol.pocket_mode == "vented"):
+        found = worst_uplifts(section, checked, sol.density, sol.gravity)
+    else:
+        found = worst_uplifts_for(sol, checked)
     out = []
     for name in checked:
         resistance = resistances[name].total * scale
         uplift = max(-sol.parts[name].down, 0.0)
-        found = worst[name]
-        wl, wu = found[0], found[1]
-        mode = found[2] if len(found) > 2 else "vented"
+        wl, wu = float(found[name][0]), float(found[name][1])
+        mode = str(found[name][2]) if len(found[name]) > 2 else "vented"
         if uplift > wu:  # a standpipe head above the roof of a closed section
             wl, wu, mode = sol.level, uplift, sol.pocket_mode
         out.append(UpliftResult(part=name, resistance=resistance,
