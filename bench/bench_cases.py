@@ -26,7 +26,15 @@ import numpy as np
 from wetline.core.case import Case
 from wetline.core.hydrostatics import solve
 from wetline.core.liquids import custom_liquid
-from wetline.core.load_cases import EMPTY, SPILL, Design, LoadCase, cases_record, envelope
+from wetline.core.load_cases import (
+    EMPTY,
+    SPILL,
+    Design,
+    LoadCase,
+    case_record,
+    cases_record,
+    envelope,
+)
 from wetline.core.section import Section
 from wetline.core.structure import Ground, Groundwater, Structure, walls_of_thickness
 
@@ -118,6 +126,7 @@ def run(label, cav, structure, k, repeat, distinct=False):
     solved = design.solve_all()
     e_med, _, _ = timed_ms(lambda: envelope(solved), repeat)
     r_med, _, _ = timed_ms(lambda: cases_record(design, solved), 5)
+    c_med, _, c_cpu = timed_ms(lambda: case_record(solved[0]), 20)
     one, _, one_cpu = timed_ms(lambda: solve(cav, 3.0, 1000.0), repeat)
     print(f"  structure check              {t_check:8.2f} ms (once per edit)")
     print(f"  Design (checks + geometry)   {d_med:8.2f} ms median, {d_best:.2f} best, "
@@ -128,6 +137,8 @@ def run(label, cav, structure, k, repeat, distinct=False):
     print(f"  one bare solve of the cavity {one * 1e3:8.1f} us median, {one_cpu * 1e3:.1f} us CPU "
           f"(for scale: the {len(cs)} cases cost {s_cpu / one_cpu:.0f} of them)")
     print(f"  cases record (JSON)          {r_med:8.2f} ms median")
+    print(f"    one case's record          {c_med:8.2f} ms median, {c_cpu:.2f} CPU "
+          f"({cav.n_edges} edges, {structure.n_edges} outer edges)")
     return s_med, s_best, s_cpu
 
 

@@ -153,6 +153,7 @@ class Case:
         """The requested level [m]: as given, or solved from the volume."""
         if self.fill_level is not None:
             return self.fill_level
+        assert self.fill_volume is not None  # exactly one of level and volume is given
         level: float = level_for_volume(self.section, self.fill_volume)
         return level
 

@@ -35,15 +35,25 @@ revolution, Timoshenko & Woinowsky-Krieger, *Theory of Plates and Shells*.
 
 from __future__ import annotations
 
+from collections.abc import Iterable
 from dataclasses import dataclass
+from functools import cached_property
+from typing import TYPE_CHECKING
 
 import numpy as np
 
 from . import STANDARD_GRAVITY
-from .fill import FLAT_INV_DZ, _green_sum
+from .pressure_law import PressureLaw, _one_liquid, integrate_edges
 from .section import FLOOR, Section
 
-__all__ = ["PartLoad", "Solution", "solve", "resolve_level"]
+if TYPE_CHECKING:  # pragma: no cover - types only
+    from .pockets import Pocket, PocketState
+
+__all__ = ["POCKET_MODES", "TRAPPED", "VENTED", "LayerLoad", "PartLoad", "Solution", "solve",
+           "solve_law", "resolve_level"]
+
+STANDARD_ATMOSPHERE = 101325.0
+"""[Pa] (ISO 2533), as :data:`wetline.core.pockets.STANDARD_ATMOSPHERE`."""
 
 
 @dataclass(frozen=True)
@@ -66,6 +76,40 @@ class PartLoad:
     down: float
 
 
+VENTED = "vented"
+TRAPPED = "trapped"
+POCKET_MODES = (VENTED, TRAPPED)
+"""The values of a load case's ``pockets`` (section format v3)."""
+
+
+@dataclass(frozen=True)
+class LayerLoad:
+    """One liquid layer of a solution.
+
+    Attributes
+    ----------
+    name : str
+    density : float
+        [kg/m3]
+    bottom, top : float
+        Levels of its lower and upper boundary [m]: the lowest point of the
+        section or the interface below; the interface above or the free
+        surface.
+    volume : float
+        Its liquid volume [m3] (area x width for plane sections), trapped
+        air left out.
+    weight : float
+        rho g V [N].
+    """
+
+    name: str
+    density: float
+    bottom: float
+    top: float
+    volume: float
+    weight: float
+
+
 @dataclass(frozen=True, eq=False)
 class Solution:
     """Loads on a section at one level. Arrays have one entry per edge, in
@@ -75,7 +119,7 @@ class Solution:
     ----------
     section : Section
     density : float
-        Liquid density [kg/m3].
+        Liquid density [kg/m3]: the bottom layer's.
     gravity : float
         Acceleration of gravity [m/s2].
     requested_level : float
@@ -86,12 +130,13 @@ class Solution:
     volume : float
         Liquid volume below the level [m3] (area x width for plane sections).
     fluid_weight : float
-        ``rho g V`` [N].
+        ``rho g V`` [N], of all layers.
     floor_force, support_reaction : float
         Downward load on the ``floor`` part, and on every other loaded part
         [N]; see the module notes.
     max_pressure : float
-        Largest wall pressure [Pa], at the lowest wetted point.
+        Largest wall pressure [Pa], at the lowest wetted point (the gas
+        pressure included).
     wetted_length : numpy.ndarray
         Length of each edge at or below the level [m]; a horizontal edge
         lying exactly at the free surface counts whole (at zero pressure).
@@ -113,6 +158,26 @@ class Solution:
         Totals per loaded part (``open`` and ``axis`` left out).
     warnings : tuple of str
         Plain sentences (level capped, section empty ...).
+    law : PressureLaw
+        The pressure law used: layers (their tops, the last the level),
+        gas pressure, gravity.
+    layer_volumes, layer_weights : numpy.ndarray
+        (n_layers,) volume [m3] and weight [N] of each layer, bottom up
+        (see :attr:`layers`).
+    gas_pressure : float
+        Gauge pressure of the gas over the free surface [Pa]; it acts on
+        every wetted point and on the dry edges of the main gas space, so
+        ``p_start`` / ``p_end`` carry it (or a pocket's air pressure) where
+        dry, and ``max_pressure`` includes it.
+    pockets : tuple of wetline.core.pockets.Pocket
+        Air trapped under ceilings (empty with vented pockets).
+    caps : numpy.ndarray or None
+        (N,) each edge's liquid surface [m] with trapped pockets, None when
+        none is sealed (see :attr:`wetline.core.pockets.PocketState.caps`).
+    pocket_mode : str
+        ``"vented"`` or ``"trapped"``: the assumption the solution used.
+    atmospheric_pressure : float
+        [Pa] absolute, used by trapped pockets.
     """
 
     section: Section
@@ -136,6 +201,34 @@ class Solution:
     hoop_end: np.ndarray
     parts: dict[str, PartLoad]
     warnings: tuple[str, ...]
+    law: PressureLaw | None = None
+    layer_volumes: np.ndarray | None = None
+    layer_weights: np.ndarray | None = None
+    gas_pressure: float = 0.0
+    pockets: tuple[Pocket, ...] = ()
+    caps: np.ndarray | None = None
+    pocket_mode: str = "vented"
+    atmospheric_pressure: float = 101325.0
+
+    @cached_property
+    def layers(self) -> tuple[LayerLoad, ...]:
+        """Each liquid layer bottom up with its volume and weight (tuple of
+        :class:`LayerLoad`)."""
+        if self.law is None or self.layer_volumes is None or self.layer_weights is None:
+            return ()
+        bottom = self.section.z_min
+        out = []
+        for layer, v, w in zip(self.law.layers, self.layer_volumes.tolist(),
+                               self.layer_weights.tolist(), strict=True):
+            out.append(LayerLoad(name=layer.name, density=layer.density, bottom=bottom,
+                                 top=layer.top, volume=v, weight=w))
+            bottom = max(bottom, layer.top)
+        return tuple(out)
+
+    @property
+    def air_volume(self) -> float:
+        """All air trapped in pockets [m3] (0 with vented pockets)."""
+        return float(sum(p.air_volume for p in self.pockets))
 
     @property
     def spill_level(self) -> float | None:
@@ -202,14 +295,14 @@ def resolve_level(section: Section, level: float) -> tuple[float, list[str]]:
     return level, warnings
 
 
-# Rows of the one work block a solve allocates for its per-edge results.
-_ROWS = ("p_vertex", "wetted_length", "fx", "fz", "resultant", "cp_x", "cp_z",
-         "hoop_start", "hoop_end")
-
-
 def solve(section: Section, level: float, density: float,
           gravity: float = STANDARD_GRAVITY) -> Solution:
     """Loads of a liquid standing at ``level`` in ``section``.
+
+    One liquid, no gas, pockets vented: a thin wrapper over
+    :func:`wetline.core.pressure_law.integrate_edges` with a one-layer
+    :class:`~wetline.core.pressure_law.PressureLaw` (see :func:`solve_law`
+    for layers, gas and trapped air).
 
     Parameters
     ----------
@@ -248,128 +341,93 @@ def solve(section: Section, level: float, density: float,
     """
     density, gravity = checked_density_and_gravity(density, gravity)
     h, warnings = resolve_level(section, level)
-    geo = section.geometry
-    n = section.n_edges
-    rg = density * gravity
-    axi = section.is_axisymmetric
+    law = PressureLaw._single_trusted(density, h, gravity)
+    # integrate_edges' one-liquid path, without its checks: the level is
+    # resolved (capped at the spill level) and there is no gas.
+    return _solution(section, law, _one_liquid(section, law), None, float(level),
+                     tuple(warnings), VENTED, STANDARD_ATMOSPHERE)
 
-    out = np.empty((len(_ROWS), n + 1))
-    p_vertex, wetted, fx, fz, res, cpx, cpz, hoop0, hoop1 = out
-    a = np.empty(n + 1)
-    w1 = np.empty(n)
-    w2 = np.empty(n)
-    w3 = np.empty(n)
 
-    # Depth at every vertex (first repeated last); a0 / a1 are views.
-    np.subtract(h, geo.vertex_z, out=a)
-    np.maximum(a, 0.0, out=a)
-    a0 = a[:n]
-    a1 = a[1:]
-    np.multiply(a, rg, out=p_vertex)
-    p_start = p_vertex[:n]
-    p_end = p_vertex[1:]
+def solve_law(section: Section, law: PressureLaw, *, requested_level: float | None = None,
+              pockets: PocketState | None = None, warnings: Iterable[str] = ()) -> Solution:
+    """Loads of a full pressure law (layers, gas) in ``section``, with the
+    pockets of trapped air of ``pockets`` in place.
 
-    # Wetted fraction f of each edge; the product overflows to inf on an edge
-    # rising under 1e-200 m (1 / |dz| is huge), which the clip makes 1.
-    f = w1
-    np.subtract(h, geo.z_low, out=f)
-    with np.errstate(over="ignore", invalid="ignore"):
-        np.multiply(f, geo.inv_abs_dz, out=f)
-    np.clip(f, 0.0, 1.0, out=f)
-    # Horizontal edges at or below the surface are wetted whole (z <= h),
-    # also exactly at it, where (h - z_low) / |dz| would be 0 / 0.
-    horizontal = np.flatnonzero(geo.inv_abs_dz >= FLAT_INV_DZ)
-    flat = horizontal[geo.z_low[horizontal] <= h]
-    f[flat] = 1.0
-    wl = wetted[:n]
-    np.multiply(f, geo.length, out=wl)
+    Parameters
+    ----------
+    section : Section
+    law : PressureLaw
+        Its free surface is the level used (already capped at the spill
+        level of an open section, :func:`resolve_level`).
+    requested_level : float, optional
+        The level asked for [m] (default: the law's level).
+    pockets : PocketState, optional
+        From :func:`wetline.core.pockets.trap_air` for this law; None:
+        pockets vented.
+    warnings : iterable of str
+        Carried into the solution (from :func:`resolve_level`).
 
-    # Sum of end depths; the wetted part's mean depth is half of it.
-    s01 = w2
-    np.add(a0, a1, out=s01)
+    Returns
+    -------
+    Solution
 
-    # Parameter where the wetted part starts: 1 - f on falling edges.
-    ta = w3
-    np.subtract(1.0, f, out=ta)
-    np.multiply(ta, geo.falls, out=ta)
-    # The force rows are free until the forces are computed: scratch here.
-    volume = float(_green_sum(section, f, ta, work=(fx[:n], fz[:n], res[:n])))
+    Raises
+    ------
+    PressureLawError
+        For a gas over an open section or a level above its spill level.
 
-    if not axi:
-        # Normal force per edge = rg * width * Lw * (a0 + a1) / 2.
-        fn = res[:n]
-        np.multiply(wl, s01, out=fn)
-        np.multiply(fn, 0.5 * rg * section.width, out=fn)
-        np.multiply(fn, geo.nx, out=fx[:n])
-        np.multiply(fn, geo.nz, out=fz[:n])
-        # Centre of pressure: t = ta + f (a0 + 2 a1) / (3 (a0 + a1)).
-        t = cpx[:n]
-        np.add(s01, a1, out=t)
-        np.multiply(t, f, out=t)
-        with np.errstate(invalid="ignore", divide="ignore"):
-            np.divide(t, s01, out=t)
-        np.multiply(t, 1.0 / 3.0, out=t)
-        np.add(t, ta, out=t)
-        t[flat] = 0.5  # uniform pressure, even 0 at the surface
-        cz = cpz[:n]
-        np.multiply(t, geo.dz, out=cz)
-        np.add(cz, geo.z0, out=cz)
-        cx = t  # reuse in place last
-        np.multiply(cx, geo.dx, out=cx)
-        np.add(cx, geo.x0, out=cx)
-        cp = out[5:7, :n].T  # (N, 2) view; NaN rows where dry (0/0)
-        hoop0[:n] = np.nan
-        hoop1[:n] = np.nan
-        parts = _part_totals(section, fx[:n], fz[:n])
+    Examples
+    --------
+    Fat (900 kg/m3) 0.5 m deep on sewage (1010 kg/m3) to 3 m in a tank
+    2 m wide, g = 10 m/s2 (hand values: 4500 Pa at the interface, 29750 Pa
+    at the floor, which carries 59500 N per metre, the weight of both):
+
+    >>> from wetline.core.pressure_law import Layer
+    >>> s = Section.build([[0, 0], [2, 0], [2, 4], [0, 4]],
+    ...                   parts=["floor", "wall", "open", "wall"])
+    >>> law = PressureLaw((Layer(1010.0, 2.5, "sewage"), Layer(900.0, 3.0, "fat")),
+    ...                   gravity=10.0)
+    >>> r = solve_law(s, law)
+    >>> r.max_pressure, round(r.floor_force, 6), [layer.volume for layer in r.layers]
+    (29750.0, 59500.0, [5.0, 1.0])
+    """
+    if pockets is not None:
+        if pockets.law is not law and (pockets.law.layers != law.layers
+                                       or pockets.law.gas_pressure != law.gas_pressure
+                                       or pockets.law.gravity != law.gravity):
+            raise ValueError("the pockets were trapped under another pressure law")
+        state, caps, atm = pockets, pockets.caps, pockets.atmospheric_pressure
+        mode = TRAPPED
     else:
-        # r at the wetted part's ends, ra = x0 + ta dx, rb = ra + f dx.
-        ra = w3
-        np.multiply(ta, geo.dx, out=ra)
-        np.add(ra, geo.x0, out=ra)
-        rb = cpz[:n]  # scratch: no centre of pressure for axisymmetric
-        np.multiply(f, geo.dx, out=rb)
-        np.add(rb, ra, out=rb)
-        # int p r ds = rg Lw (2 a0 ra + a0 rb + a1 ra + 2 a1 rb) / 6
-        #            = rg Lw ((2 a0 + a1) ra + (a0 + 2 a1) rb) / 6
-        q = cpx[:n]
-        np.add(s01, a0, out=q)
-        np.multiply(q, ra, out=q)
-        np.add(s01, a1, out=w2)
-        np.multiply(w2, rb, out=w2)
-        np.add(q, w2, out=q)
-        np.multiply(q, wl, out=q)
-        fzz = fz[:n]
-        np.multiply(q, (2.0 * np.pi / 6.0) * rg, out=fzz)
-        np.multiply(fzz, geo.nz, out=fzz)
-        np.abs(fzz, out=res[:n])
-        fx[:n] = np.nan
-        cp = np.full((n, 2), np.nan)
-        # Hoop force N = p r / cos(alpha), cos(alpha) = |dz| / L; not defined
-        # on horizontal edges (nor on those rising under 1e-200 m, where
-        # 1 / cos overflows): NaN there.
-        with np.errstate(over="ignore", invalid="ignore"):
-            sec = geo.length * geo.inv_abs_dz
-            np.multiply(p_start, geo.x0, out=hoop0[:n])
-            np.multiply(hoop0[:n], sec, out=hoop0[:n])
-            np.multiply(p_end, np.roll(geo.x0, -1), out=hoop1[:n])
-            np.multiply(hoop1[:n], sec, out=hoop1[:n])
-        hoop0[:n][horizontal] = np.nan
-        hoop1[:n][horizontal] = np.nan
-        parts = _part_totals(section, None, fz[:n])
+        state, caps, atm, mode = None, None, STANDARD_ATMOSPHERE, VENTED
+    edges = integrate_edges(section, law, caps)
+    level = law.level if requested_level is None else float(requested_level)
+    return _solution(section, law, edges, state, level, tuple(warnings), mode, atm)
 
+
+def _solution(section, law, edges, state, requested_level, warnings, mode, atm):
+    """The :class:`Solution` of integrated edge loads."""
+    if section.is_axisymmetric:
+        parts = _part_totals(section, None, edges.fz)
+    else:
+        parts = _part_totals(section, edges.fx, edges.fz)
     floor = parts.get(FLOOR)
     floor_force = floor.down if floor is not None else 0.0
     support = sum(p.down for k, p in parts.items() if k != FLOOR)
-    max_pressure = rg * max(h - section.z_min, 0.0)
     return Solution(
-        section=section, density=density, gravity=gravity,
-        requested_level=float(level), level=h, volume=volume,
-        fluid_weight=rg * volume, floor_force=floor_force,
-        support_reaction=float(support), max_pressure=max_pressure,
-        wetted_length=wl, p_start=p_start, p_end=p_end,
-        fx=fx[:n], fz=fz[:n], resultant=res[:n], centre_of_pressure=cp,
-        hoop_start=hoop0[:n], hoop_end=hoop1[:n], parts=parts,
-        warnings=tuple(warnings))
+        section=section, density=law.layers[0].density, gravity=law.gravity,
+        requested_level=requested_level, level=law.level, volume=edges.volume,
+        fluid_weight=edges.fluid_weight, floor_force=floor_force,
+        support_reaction=float(support), max_pressure=edges.max_pressure,
+        wetted_length=edges.wetted_length, p_start=edges.p_start, p_end=edges.p_end,
+        fx=edges.fx, fz=edges.fz, resultant=edges.resultant,
+        centre_of_pressure=edges.centre_of_pressure, hoop_start=edges.hoop_start,
+        hoop_end=edges.hoop_end, parts=parts, warnings=warnings, law=law,
+        layer_volumes=edges.layer_volumes, layer_weights=edges.layer_weights,
+        gas_pressure=law.gas_pressure,
+        pockets=() if state is None else state.pockets,
+        caps=None if state is None else state.caps, pocket_mode=mode,
+        atmospheric_pressure=atm)
 
 
 def _part_totals(section: Section, fx: np.ndarray | None,

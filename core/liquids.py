@@ -409,6 +409,21 @@ LISTED_LIQUIDS = MappingProxyType({
         _listed("milk", 1030.0, 20.0,
                 "whole cow's milk, usually 1028-1034 kg/m3 at 20 C "
                 "(from memory)"),
+        _listed("raw sewage", 1010.0, 15.0,
+                "typical value for raw municipal sewage with its grit and solids, about "
+                "1000-1020 kg/m3; the water itself governs (from memory)"),
+        _listed("activated sludge", 1005.0, 15.0,
+                "mixed liquor and return activated sludge at about 0.3-1 % solids, "
+                "specific gravity about 1.002-1.005 (from memory)"),
+        _listed("primary sludge", 1020.0, 15.0,
+                "primary (settled) sludge at about 3-6 % solids, specific gravity about "
+                "1.02 (from memory; wastewater engineering handbooks quote 1.02)"),
+        _listed("fats, oils and grease", 900.0, 20.0,
+                "animal and vegetable fats, oils and grease floating on drain water, about "
+                "860-930 kg/m3 at 20 C (from memory)"),
+        _listed("light fuel oil", 845.0, 15.0,
+                "light heating oil, typical value under the DIN 51603-1 limit of 860 kg/m3 "
+                "at 15 C (from memory)"),
     )
 })
 """Common stored liquids by plain lower-case name, each a :class:`Liquid`
@@ -419,6 +434,11 @@ _ALIASES = MappingProxyType({
     "gasoline": "petrol",
     "jet fuel": "kerosene",
     "caustic soda 50 %": "sodium hydroxide 50 %",
+    "diesel": "diesel fuel",
+    "sewage": "raw sewage",
+    "grease": "fats, oils and grease",
+    "fog": "fats, oils and grease",
+    "heating oil": "light fuel oil",
 })
 
 

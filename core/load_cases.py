@@ -42,9 +42,13 @@ from dataclasses import dataclass, field, replace
 import numpy as np
 
 from .case import Case
-from .hydrostatics import Solution, solve
-from .limits import COORDINATE_LIMIT, GRAVITY_RANGE
+from .fill import FillError, level_for_volume, volume_below
+from .hydrostatics import POCKET_MODES, TRAPPED, VENTED, Solution, resolve_level, solve, solve_law
+from .level_table import DEFAULT_STEPS, LevelTable, law_level_table, level_table
+from .limits import COORDINATE_LIMIT, GRAVITY_RANGE, PRESSURE_LIMIT
 from .liquids import Liquid
+from .pockets import STANDARD_ATMOSPHERE, PocketError, level_for_liquid_volume, trap_air
+from .pressure_law import ABSOLUTE_ZERO_GAUGE, Layer, PressureLaw, PressureLawError, layer_tops
 from .section import Section
 from .structure import (
     ExteriorGeometry,
@@ -56,8 +60,10 @@ from .structure import (
     exterior_loads,
     structure_record,
 )
+from .uplift import UpliftResult, uplift_check
 
 __all__ = [
+    "CaseView",
     "EMPTY",
     "FILL_WORDS",
     "MAX_LOAD_FACTOR",
@@ -66,10 +72,14 @@ __all__ = [
     "Design",
     "Envelope",
     "FlotationEnvelope",
+    "LiquidLayer",
     "LoadCase",
     "LoadCaseError",
     "PartEnvelope",
+    "POCKET_MODES",
     "ResolvedCase",
+    "TRAPPED",
+    "VENTED",
     "SolvedCase",
     "case_record",
     "cases_record",
@@ -119,6 +129,65 @@ def _where(case):
     return "" if case is None else f"case {case!r}: "
 
 
+def _layer_label(index: int, liquid: Liquid) -> str:
+    """``layer 2 'fat'``: 1-based from the bottom, as the pressure law names layers."""
+    return Layer(1.0, 0.0, liquid.name).label(index)
+
+
+@dataclass(frozen=True)
+class LiquidLayer:
+    """One immiscible liquid of a layered load case, as the file gives it.
+
+    Parameters
+    ----------
+    liquid : Liquid
+    top : float, optional
+        Level of the layer's upper interface [m].
+    volume : float, optional
+        The layer's own liquid volume [m3] (area x width for plane
+        sections), >= 0; its interface is solved exactly (as a fill by
+        volume, pockets vented).
+
+    Every layer of a case but the top one gives exactly one of ``top`` and
+    ``volume``; the top layer gives neither (its top is the case's fill).
+
+    Examples
+    --------
+    >>> from wetline.core.liquids import custom_liquid
+    >>> LiquidLayer(custom_liquid(1010.0, "sewage"), top=2.9).top
+    2.9
+    """
+
+    liquid: Liquid
+    top: float | None = None
+    volume: float | None = None
+
+    def __post_init__(self):
+        if not isinstance(self.liquid, Liquid):
+            raise LoadCaseError("a layer's liquid must be a Liquid")
+        if self.top is not None and self.volume is not None:
+            raise LoadCaseError("a layer gives one of top and volume, not both")
+        if self.top is not None:
+            top = _float(self.top, "layer top", None)
+            if abs(top) > COORDINATE_LIMIT:
+                raise LoadCaseError(f"layer top {top:g} m lies beyond {COORDINATE_LIMIT:g} m")
+            object.__setattr__(self, "top", top)
+        if self.volume is not None:
+            v = _float(self.volume, "layer volume", None)
+            if v < 0:
+                raise LoadCaseError(f"layer volume must be >= 0, not {v:g}")
+            object.__setattr__(self, "volume", v)
+
+    @property
+    def bound(self) -> tuple[str, float] | None:
+        """``("top", z)`` or ``("volume", v)``, None for the top layer."""
+        if self.top is not None:
+            return ("top", self.top)
+        if self.volume is not None:
+            return ("volume", self.volume)
+        return None
+
+
 @dataclass(frozen=True)
 class LoadCase:
     """One named design situation: what it changes from the file level.
@@ -146,15 +215,26 @@ class LoadCase:
         Partial factor turning this case's characteristic liquid and
         groundwater loads into design values [], > 0, at most
         :data:`MAX_LOAD_FACTOR`; default 1.0.
+    layers : tuple of LiquidLayer, optional
+        Immiscible liquids bottom up, instead of ``liquid``: every layer but
+        the top one gives its top or its volume; the top layer's top is the
+        case's fill level (or the fill volume is all the liquid). Densities
+        must not increase upward; tops given as levels must rise.
+    gas_pressure : float
+        Gauge pressure of a gas over the free surface [Pa], default 0;
+        closed sections only, at least -101325 (a full vacuum).
+    pockets : str
+        ``"vented"`` (default: every pool below the level stands at the
+        level) or ``"trapped"`` (air caught under ceilings is compressed,
+        :func:`wetline.core.pockets.trap_air`).
+    atmospheric_pressure : float
+        [Pa] absolute, default 101325; used by trapped pockets.
 
     Notes
     -----
-    Extension point: layers of immiscible liquids, gas pressure over the
-    surface, trapped pockets and the atmospheric pressure (section format
-    version 3, a later issue) become further fields here, defaulting to one
-    liquid, no gas, vented pockets and 101325 Pa. :meth:`Design.resolve`
-    carries them into :class:`ResolvedCase`, and :meth:`ResolvedCase.solve`
-    is the one place that turns a case into a solution.
+    :meth:`Design.resolve` carries everything into :class:`ResolvedCase`,
+    and :meth:`ResolvedCase.solve` is the one place that turns a case into
+    a solution.
 
     Examples
     --------
@@ -169,6 +249,10 @@ class LoadCase:
     gravity: float | None = None
     groundwater: Groundwater | None = None
     load_factor: float = 1.0
+    layers: tuple[LiquidLayer, ...] | None = None
+    gas_pressure: float = 0.0
+    pockets: str = VENTED
+    atmospheric_pressure: float = STANDARD_ATMOSPHERE
 
     def __post_init__(self):
         if not isinstance(self.name, str) or not self.name.strip():
@@ -211,13 +295,72 @@ class LoadCase:
             raise LoadCaseError(f"case {name!r}: load factor must be > 0 and at most "
                                 f"{MAX_LOAD_FACTOR:g}, not {f:g}", case=name)
         object.__setattr__(self, "load_factor", f)
+        if self.layers is not None:
+            object.__setattr__(self, "layers", self._checked_layers())
+        p_gas = _float(self.gas_pressure, "gas pressure", name)
+        if p_gas < ABSOLUTE_ZERO_GAUGE:
+            raise LoadCaseError(f"case {name!r}: gas pressure {p_gas:g} Pa is below a full "
+                                f"vacuum ({ABSOLUTE_ZERO_GAUGE:g} Pa gauge)", case=name)
+        if p_gas > PRESSURE_LIMIT:
+            raise LoadCaseError(f"case {name!r}: gas pressure {p_gas:g} Pa is above the limit "
+                                f"of {PRESSURE_LIMIT:g} Pa", case=name)
+        object.__setattr__(self, "gas_pressure", p_gas)
+        if self.pockets not in POCKET_MODES:
+            raise LoadCaseError(f"case {name!r}: pockets must be 'vented' or 'trapped', not "
+                                f"{self.pockets!r}", case=name)
+        p_atm = _float(self.atmospheric_pressure, "atmospheric pressure", name)
+        if not 0 < p_atm <= PRESSURE_LIMIT:
+            raise LoadCaseError(f"case {name!r}: atmospheric pressure must be a positive number "
+                                f"of Pa up to {PRESSURE_LIMIT:g}, not {p_atm:g}", case=name)
+        if p_atm + p_gas < 0:
+            raise LoadCaseError(f"case {name!r}: gas pressure {p_gas:g} Pa gauge is below a "
+                                f"full vacuum under an atmosphere of {p_atm:g} Pa", case=name)
+        object.__setattr__(self, "atmospheric_pressure", p_atm)
+
+    def _checked_layers(self):
+        name = self.name
+        if self.liquid is not None:
+            raise LoadCaseError(f"case {name!r}: give a liquid or layers, not both", case=name)
+        layers = tuple(self.layers)
+        if not layers:
+            raise LoadCaseError(f"case {name!r}: layers must hold at least one layer", case=name)
+        if not all(isinstance(layer, LiquidLayer) for layer in layers):
+            raise LoadCaseError(f"case {name!r}: layers must be LiquidLayer values", case=name)
+        for i, layer in enumerate(layers):
+            label = _layer_label(i, layer.liquid)
+            if i == len(layers) - 1:
+                if layer.bound is not None:
+                    raise LoadCaseError(
+                        f"case {name!r}: the top layer ({label}) reaches the case's fill "
+                        f"level: give the fill (level or volume), not a {layer.bound[0]} of "
+                        "the top layer", case=name)
+            elif layer.bound is None:
+                raise LoadCaseError(
+                    f"case {name!r}: {label} needs a top (the level of its upper interface) "
+                    "or a volume", case=name)
+            if i:
+                below = layers[i - 1]
+                if layer.liquid.density > below.liquid.density:
+                    raise LoadCaseError(
+                        f"case {name!r}: {label} ({layer.liquid.density:g} kg/m3) lies on "
+                        f"{_layer_label(i - 1, below.liquid)} ({below.liquid.density:g} "
+                        "kg/m3), which is lighter: immiscible liquids settle densest at the "
+                        "bottom", case=name)
+                if layer.top is not None and below.top is not None and layer.top <= below.top:
+                    raise LoadCaseError(
+                        f"case {name!r}: {label} has its top at {layer.top:.6g} m, not above "
+                        f"the top of {_layer_label(i - 1, below.liquid)} at {below.top:.6g} m: "
+                        "layer tops must rise", case=name)
+        return layers
 
     @property
     def is_plain(self) -> bool:
         """True if the case changes nothing but may have a name (the file-level situation)."""
         return (self.liquid is None and self.fill_level is None and self.fill_volume is None
                 and self.gravity is None and self.groundwater is None
-                and self.load_factor == 1.0)
+                and self.load_factor == 1.0 and self.layers is None
+                and self.gas_pressure == 0.0 and self.pockets == VENTED
+                and self.atmospheric_pressure == STANDARD_ATMOSPHERE)
 
 
 @dataclass(frozen=True, eq=False)
@@ -239,6 +382,17 @@ class ResolvedCase:
         ``"spill"`` or ``"empty"`` where the case said so, else None.
     groundwater : Groundwater or None
     load_factor : float
+    law : PressureLaw
+        The pressure law at the level used (the request capped at the spill
+        level of an open section): each layer's density and top, the gas
+        pressure and gravity.
+    liquids : tuple of Liquid
+        The liquid of each layer, bottom up (one for a case of one liquid;
+        the first is ``case.liquid``).
+    pockets : str
+        ``"vented"`` or ``"trapped"``.
+    atmospheric_pressure : float
+        [Pa] absolute.
     """
 
     name: str
@@ -248,17 +402,138 @@ class ResolvedCase:
     fill: str | None
     groundwater: Groundwater | None
     load_factor: float
+    law: PressureLaw | None = None
+    liquids: tuple[Liquid, ...] = ()
+    pockets: str = VENTED
+    atmospheric_pressure: float = STANDARD_ATMOSPHERE
+
+    @property
+    def gas_pressure(self) -> float:
+        """Gauge pressure of the gas over the free surface [Pa]."""
+        return 0.0 if self.law is None else self.law.gas_pressure
+
+    @property
+    def is_layered(self) -> bool:
+        """True for more than one liquid layer."""
+        return len(self.liquids) > 1
+
+    @property
+    def is_one_liquid(self) -> bool:
+        """True for one liquid under no gas with vented pockets (the version 1 law)."""
+        return (len(self.liquids) <= 1 and self.gas_pressure == 0.0
+                and self.pockets == VENTED)
 
     def solve(self) -> Solution:
         """The liquid's loads in this case (:class:`~wetline.core.hydrostatics.Solution`).
 
-        An ``"empty"`` case carries no "section is empty" warning: it asked
-        for that.
+        One liquid under no gas with vented pockets is
+        :func:`~wetline.core.hydrostatics.solve` (bit for bit as version 1);
+        otherwise :func:`~wetline.core.hydrostatics.solve_law` with the
+        case's layers and gas, and with trapped pockets the air of
+        :func:`~wetline.core.pockets.trap_air` in place. An ``"empty"`` case
+        carries no "section is empty" warning: it asked for that.
         """
         c = self.case
-        sol = solve(c.section, self.level, c.liquid.density, c.gravity)
+        if self.law is None or self.is_one_liquid:
+            sol = solve(c.section, self.level, c.liquid.density, c.gravity)
+        else:
+            _, warnings = resolve_level(c.section, self.level)
+            state = None
+            if self.pockets == TRAPPED:
+                state = trap_air(c.section.pocket_tree, self.law, self.atmospheric_pressure)
+            sol = solve_law(c.section, self.law, requested_level=self.level, pockets=state,
+                            warnings=warnings)
         if self.fill == EMPTY and sol.warnings:
             sol = replace(sol, warnings=tuple(w for w in sol.warnings if "is empty" not in w))
+        return sol
+
+    def as_case(self, note: str = "") -> CaseView:
+        """This case as a :class:`CaseView` (a Case whose ``solve`` gives
+        this case's solution); ``note`` is added to its warnings."""
+        c = self.case
+        return CaseView(section=c.section, liquid=c.liquid, gravity=c.gravity,
+                        fill_level=c.fill_level, fill_volume=c.fill_volume,
+                        length_unit=c.length_unit, resistances=c.resistances,
+                        required_uplift_factor=c.required_uplift_factor, report=c.report,
+                        resolved=self, note=note)
+
+    def uplift(self, solution: Solution | None = None) -> list[UpliftResult]:
+        """The uplift check of the parts with a resistance entered (the
+        file's ``uplift``), under this case's pressure law; with trapped
+        pockets the worst level search covers both assumptions (list of
+        :class:`~wetline.core.uplift.UpliftResult`)."""
+        c = self.case
+        sol = self.solve() if solution is None else solution
+        return uplift_check(c, c.resistance_map, c.required_uplift_factor, sol)
+
+    def level_tables(self, steps: int = DEFAULT_STEPS) -> tuple[LevelTable, ...]:
+        """Loads against level for the chart, from just above the top
+        interface (the lowest point) to the top level: pockets vented, then,
+        where the section can trap air, trapped too (both assumptions, so the
+        governing one shows). Tuple of
+        :class:`~wetline.core.level_table.LevelTable`, each naming its
+        ``pockets``."""
+        c = self.case
+        section = c.section
+        if self.law is None or (len(self.liquids) <= 1 and self.gas_pressure == 0.0):
+            tables = [level_table(section, c.liquid.density, c.gravity, steps)]
+        else:
+            tables = [law_level_table(section, self.law, steps)]
+        if section.pocket_tree.may_trap and self.law is not None:
+            tables.append(law_level_table(section, self.law, steps, pockets=TRAPPED,
+                                          atmospheric_pressure=self.atmospheric_pressure))
+        return tuple(tables)
+
+    def solve_at(self, level: float, pockets: str | None = None) -> Solution:
+        """This case's liquid at another level [m] (the layers below the
+        top one where they are), with its own pocket assumption or
+        ``pockets`` (``"vented"`` or ``"trapped"``); the level is capped at
+        the spill level of an open section and must stand above the top
+        interface."""
+        c = self.case
+        mode = self.pockets if pockets is None else pockets
+        if mode not in POCKET_MODES:
+            raise LoadCaseError(f"pockets must be 'vented' or 'trapped', not {mode!r}")
+        if self.law is None or (len(self.liquids) <= 1 and self.gas_pressure == 0.0
+                                and mode == VENTED):
+            return solve(c.section, level, c.liquid.density, c.gravity)
+        h, warnings = resolve_level(c.section, level)
+        law = self.law.with_level(h)
+        state = trap_air(c.section.pocket_tree, law, self.atmospheric_pressure) \
+            if mode == TRAPPED else None
+        return solve_law(c.section, law, requested_level=float(level), pockets=state,
+                         warnings=warnings)
+
+
+@dataclass(frozen=True, eq=False)
+class CaseView(Case):
+    """The file-level :class:`~wetline.core.case.Case` seen through one load
+    case: its liquid (the bottom layer's), gravity and fill, and ``solve``
+    giving that case's own solution (layers, gas, trapped pockets), for code
+    that takes a Case (the drawings and the calculation sheet).
+
+    Build it with :meth:`ResolvedCase.as_case`.
+
+    Attributes
+    ----------
+    resolved : ResolvedCase or None
+    note : str
+        A sentence added to every solution's warnings (e.g. what a drawing
+        of this case leaves out); empty for none.
+    """
+
+    resolved: ResolvedCase | None = None
+    note: str = ""
+
+    def solve(self, level: float | None = None) -> Solution:
+        """The load case's loads at its fill, or at ``level`` [m] (the
+        layers below the top one where they are)."""
+        r = self.resolved
+        if r is None:
+            return super().solve(level)
+        sol = r.solve() if level is None else r.solve_at(level)
+        if self.note:
+            sol = replace(sol, warnings=tuple(sol.warnings) + (self.note,))
         return sol
 
 
@@ -454,6 +729,9 @@ class Design:
                                     "(one with an 'open' edge)", case=name)
             fill, level = SPILL, section.spill_level
         elif lc.fill_level == EMPTY:
+            if lc.layers is not None and len(lc.layers) > 1:
+                raise LoadCaseError(f"case {name!r}: an 'empty' fill holds no layers of liquid",
+                                    case=name)
             fill, level = EMPTY, section.z_min
         elif lc.fill_level is not None:
             level = lc.fill_level
@@ -461,13 +739,30 @@ class Design:
             volume = lc.fill_volume
         else:
             level, volume = base.fill_level, base.fill_volume
+        if lc.gas_pressure != 0.0 and section.is_open:
+            raise LoadCaseError(
+                f"case {name!r}: a gas pressure needs a closed section (no 'open' edge): an "
+                "open section's surface is at atmospheric pressure", case=name)
+        liquids = ((base.liquid if lc.liquid is None else lc.liquid,) if lc.layers is None
+                   else tuple(layer.liquid for layer in lc.layers))
+        gravity = base.gravity if lc.gravity is None else lc.gravity
+        trapped = lc.pockets == TRAPPED
         try:
-            case = replace(base, liquid=base.liquid if lc.liquid is None else lc.liquid,
-                           gravity=base.gravity if lc.gravity is None else lc.gravity,
-                           fill_level=level, fill_volume=volume)
-            requested = case.level
-        except ValueError as e:
+            interfaces = self._interfaces(lc, section)
+            # A fill by volume with layers or trapped air: the level is solved
+            # here; the Case keeps the volume it was given.
+            case = replace(base, liquid=liquids[0], gravity=gravity, fill_level=level,
+                           fill_volume=volume)
+            if volume is not None and (interfaces or trapped):
+                requested = self._level_for_volume(lc, section, liquids, interfaces, gravity,
+                                                   volume)
+            else:
+                requested = case.level
+        except (ValueError, PocketError) as e:
+            if isinstance(e, LoadCaseError):
+                raise
             raise LoadCaseError(f"case {name!r}: {e}", case=name) from None
+        law = self._law(lc, section, liquids, interfaces, gravity, float(requested), fill)
         gw = lc.groundwater
         if gw is not None:
             if self.structure is None:
@@ -487,10 +782,70 @@ class Design:
                         f"groundwater's {rw:.6g} N/m3 (rho_w g): the soil would float",
                         case=name)
         return ResolvedCase(name=name, index=index, case=case, level=float(requested),
-                            fill=fill, groundwater=gw, load_factor=lc.load_factor)
+                            fill=fill, groundwater=gw, load_factor=lc.load_factor, law=law,
+                            liquids=liquids, pockets=lc.pockets,
+                            atmospheric_pressure=lc.atmospheric_pressure)
+
+    @staticmethod
+    def _interfaces(lc, section):
+        """Interface levels [m] of a layered case, bottom up (empty for one liquid)."""
+        if lc.layers is None or len(lc.layers) < 2:
+            return []
+        bounds = [layer.bound for layer in lc.layers[:-1]]
+        names = [layer.liquid.name for layer in lc.layers]
+        return layer_tops(section, bounds, names)
+
+    @staticmethod
+    def _level_for_volume(lc, section, liquids, interfaces, gravity, volume):
+        """The level [m] at which ``volume`` [m3] of liquid stands: above the
+        layers below the top one; with trapped pockets, with their air in place."""
+        if interfaces:
+            below = volume_below(section, interfaces[-1])
+            if volume <= below:
+                raise FillError(
+                    f"fill volume {volume:.6g} m3 does not reach the top interface at "
+                    f"{interfaces[-1]:.6g} m: the layers below it hold {below:.6g} m3")
+        if lc.pockets != TRAPPED:
+            return level_for_volume(section, volume)
+        top = section.top_level
+        if interfaces and not top > interfaces[-1]:
+            raise FillError(f"the top interface at {interfaces[-1]:.6g} m is not below the "
+                            f"top of the section at {top:.6g} m")
+        law = PressureLaw(tuple(Layer(rho.density, z, rho.name) for rho, z in
+                                zip(liquids, interfaces + [top], strict=True)),
+                          gas_pressure=lc.gas_pressure, gravity=gravity)
+        return level_for_liquid_volume(section.pocket_tree, law, volume,
+                                       lc.atmospheric_pressure)
+
+    @staticmethod
+    def _law(lc, section, liquids, interfaces, gravity, requested, fill):
+        """The case's PressureLaw at the level used (capped at the spill level)."""
+        name = lc.name
+        h, _ = resolve_level(section, requested)
+        if interfaces and not h > interfaces[-1]:
+            k = len(interfaces) - 1
+            if fill == SPILL:
+                what = f"the spill level {h:.6g} m"
+            elif h != requested:
+                what = f"the fill level {h:.6g} m (capped at the spill level)"
+            else:
+                what = f"the fill level {h:.6g} m"
+            raise LoadCaseError(
+                f"case {name!r}: {what} is not above the top of "
+                f"{_layer_label(k, liquids[k])} at {interfaces[-1]:.6g} m: every layer but "
+                "the top one must lie below the free surface", case=name)
+        layers = tuple(Layer(rho.density, z, rho.name)
+                       for rho, z in zip(liquids, interfaces + [h], strict=True))
+        try:
+            return PressureLaw(layers, gas_pressure=lc.gas_pressure, gravity=gravity)
+        except PressureLawError as e:
+            raise LoadCaseError(f"case {name!r}: {e}", case=name) from None
 
     def _solve(self, r, liquids, outside):
-        key = (r.level, r.case.liquid.density, r.case.gravity, r.fill == EMPTY)
+        law = r.law
+        key = (r.level, r.case.liquid.density, r.case.gravity, r.fill == EMPTY,
+               None if law is None else (law.densities, law.interfaces, law.gas_pressure),
+               r.pockets, r.atmospheric_pressure)
         sol = liquids.get(key)
         if sol is None:
             sol = liquids[key] = r.solve()
@@ -733,17 +1088,19 @@ def envelope_record(env: Envelope) -> dict:
 
 def case_record(solved: SolvedCase) -> dict:
     """The record of one solved case: the results record of
-    :func:`wetline.core.results.results_record` plus ``case``,
+    :func:`wetline.core.results.results_record` with its ``case``,
     ``load_factor`` and ``structure`` (the object of
-    :func:`wetline.core.structure.structure_record`, or null)."""
-    from .results import results_record
+    :func:`wetline.core.structure.structure_record`, or null), the
+    structure's warnings after the liquid's."""
+    from .results import building_records, results_record
 
-    rec = results_record(solved.resolved.case, solved.solution)
-    rec["case"] = solved.name
-    rec["load_factor"] = _num(solved.load_factor)
-    if solved.structure is not None:
-        rec["warnings"] = list(rec["warnings"]) + list(solved.structure.warnings)
-    rec["structure"] = None if solved.structure is None else structure_record(solved.structure)
+    loads = solved.structure
+    with building_records():
+        outside = None if loads is None else structure_record(loads)
+    rec = results_record(solved.resolved.case, solved.solution, name=solved.name,
+                         load_factor=solved.load_factor, structure=outside)
+    if loads is not None:
+        rec["warnings"] = list(rec["warnings"]) + list(loads.warnings)
     return rec
 
 
@@ -762,7 +1119,10 @@ def cases_record(design: Design, solved: Iterable[SolvedCase] | None = None) -> 
         ``{"format": "wetline-cases", "version": 1, "cases": [record, ...],
         "envelope": {...}}`` (see :func:`case_record`, :func:`envelope_record`).
     """
+    from .results import building_records
+
     solved = design.solve_all() if solved is None else tuple(solved)
-    return {"format": CASES_FORMAT, "version": CASES_VERSION,
-            "cases": [case_record(s) for s in solved],
-            "envelope": envelope_record(envelope(solved))}
+    with building_records():
+        return {"format": CASES_FORMAT, "version": CASES_VERSION,
+                "cases": [case_record(s) for s in solved],
+                "envelope": envelope_record(envelope(solved))}

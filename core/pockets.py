@@ -860,12 +860,24 @@ def level_for_liquid_volume(tree, law, volume, atmospheric_pressure=STANDARD_ATM
     if not np.isfinite(volume) or volume < 0:
         raise FillError(f"fill volume must be a number >= 0, not {volume:g}")
     lo = level_for_volume(section, volume)  # no air: the lowest possible level
-    if not tree.may_trap or volume == 0.0:
+    bottom = max(law.interfaces) if law.n_layers > 1 else -np.inf
+    # Round-off of volumes is relative to what the section holds.
+    tol = 1e-12 * capacity(section)
+    if lo <= bottom:
+        # Without air the layers below the top one hold this volume already:
+        # refused (with air in pockets below the interface, as found below),
+        # unless only by round-off (the free surface then just above them).
+        below = volume_below(section, bottom)
+        if below - volume > tol and not tree.may_trap:
+            raise FillError(
+                f"fill volume {volume:.6g} m3 does not reach the top interface at "
+                f"{bottom:.6g} m: the layers below it hold {below:.6g} m3")
+        lo = float(np.nextafter(bottom, np.inf))
+    if not tree.may_trap or (volume == 0.0 and law.n_layers == 1):
         return lo
     top = section.top_level
     _check_law_fits(section, law.with_level(top))
     p_atm = _checked_atmosphere(law, atmospheric_pressure)
-    bottom = max(law.interfaces) if law.n_layers > 1 else -np.inf
 
     def liquid(h):
         # The cavity below h less the air below h (a pocket's air above h
@@ -888,9 +900,10 @@ def level_for_liquid_volume(tree, law, volume, atmospheric_pressure=STANDARD_ATM
     # at most the vented level of the volume plus all of it.
     most_air = sum(tree._volume_at_critical(c, lip) for c, lip in _sealable(tree, np.inf))
     hi = level_for_volume(section, min(volume + most_air, capacity(section)))
-    a, b = max(lo, float(np.nextafter(bottom, np.inf))), min(hi, top)
+    a = max(lo, float(np.nextafter(bottom, np.inf)))
+    b = max(min(hi, top), a)
     f_lo = liquid(a) - volume
-    if f_lo > 0 and a > lo:
+    if f_lo > tol:
         raise FillError(
             f"fill volume {volume:.6g} m3 does not reach the top interface at {bottom:.6g} m: "
             f"the layers below it hold {volume + f_lo:.6g} m3")

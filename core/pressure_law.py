@@ -46,7 +46,7 @@ from dataclasses import dataclass, field
 import numpy as np
 
 from . import STANDARD_GRAVITY
-from .fill import FillError, _green_sum, level_for_volume, volume_below
+from .fill import FLAT_INV_DZ, FillError, _green_sum, level_for_volume, volume_below
 from .limits import DENSITY_RANGE, GRAVITY_RANGE, PRESSURE_LIMIT
 
 __all__ = [
@@ -204,6 +204,30 @@ class PressureLaw:
     def single(cls, density, level, gravity=STANDARD_GRAVITY, gas_pressure=0.0, name=""):
         """One liquid of ``density`` [kg/m3] up to ``level`` [m]."""
         return cls((Layer(density, level, name),), gas_pressure=gas_pressure, gravity=gravity)
+
+    @classmethod
+    def _single_trusted(cls, density, level, gravity):
+        """One liquid, no gas, from values already checked (floats; density
+        and gravity positive, the level finite): no range checks, for
+        :func:`wetline.core.hydrostatics.solve`'s hot path."""
+        law = object.__new__(cls)
+        object.__setattr__(law, "layers", (Layer(density, level, ""),))
+        object.__setattr__(law, "gas_pressure", 0.0)
+        object.__setattr__(law, "gravity", gravity)
+        return law  # the ramp arrays are made when first asked for
+
+    def __getattr__(self, name):
+        # Only the ramp arrays of a law from _single_trusted are missing.
+        if name not in ("ramp_levels", "ramp_slopes") or "layers" not in self.__dict__:
+            raise AttributeError(name)
+        layer = self.layers[0]
+        levels = np.array([layer.top])
+        slopes = np.array([self.gravity * layer.density])
+        levels.setflags(write=False)
+        slopes.setflags(write=False)
+        object.__setattr__(self, "ramp_levels", levels)
+        object.__setattr__(self, "ramp_slopes", slopes)
+        return levels if name == "ramp_levels" else slopes
 
     def with_level(self, level):
         """The same law with the free surface (the top layer's top) at ``level`` [m]."""
@@ -422,13 +446,9 @@ def integrate_edges(section, law, caps=None):
     (35000.0, 1.0, 20000.0, -40000.0)
     """
     _check_law_fits(section, law)
-    geo = section.geometry
     n = section.n_edges
     h = law.level
     p_gas = law.gas_pressure
-    levels = law.ramp_levels
-    slopes = law.ramp_slopes
-    axi = section.is_axisymmetric
 
     in_pocket = None
     if caps is not None:
@@ -445,6 +465,23 @@ def integrate_edges(section, law, caps=None):
             caps = in_pocket = None
         else:
             caps.setflags(write=False)
+    if caps is None and p_gas == 0.0 and law.ramp_levels.size == 1:
+        # One liquid (or layers of one density: no ramp at their interfaces).
+        return _one_liquid(section, law)
+    return _general_edges(section, law, caps, in_pocket)
+
+
+def _general_edges(section, law, caps, in_pocket):
+    """:func:`integrate_edges` for any law and caps (checked by it): the
+    pressure at the vertices, whole-length or wetted trapezoids, the edges
+    cut at the ramp levels and caps, Green sums per layer."""
+    geo = section.geometry
+    n = section.n_edges
+    h = law.level
+    p_gas = law.gas_pressure
+    levels = law.ramp_levels
+    slopes = law.ramp_slopes
+    axi = section.is_axisymmetric
 
     out = np.empty((len(_ROWS), n + 1))
     (p_vertex, p_end_c, wetted, fx, fz, res, cpx, cpz, hoop0, hoop1,
@@ -609,9 +646,10 @@ def integrate_edges(section, law, caps=None):
         np.abs(fn, out=fn)
         t = cpx[:n]
         if horizontal.size:
-            # Uniform pressure along a horizontal wetted edge: its midpoint, even
-            # at zero pressure on the surface (the limit of a ledge just below).
-            t[horizontal[f[horizontal] > 0]] = 0.5
+            # A wetted horizontal edge (or one in a pocket's air) carries a
+            # uniform pressure: its midpoint, also at zero pressure exactly at
+            # its liquid surface (the limit of a ledge just below it).
+            t[horizontal[f[horizontal] == 1.0]] = 0.5
         cz = cpz[:n]
         np.multiply(t, geo.dz, out=cz)
         np.add(cz, geo.z0, out=cz)
@@ -647,6 +685,154 @@ def integrate_edges(section, law, caps=None):
         hoop_start=hoop0[:n], hoop_end=hoop1[:n], layer_volumes=layer_volumes,
         layer_weights=layer_weights, volume=volume, fluid_weight=weight,
         max_pressure=max_pressure)
+
+
+# Rows of the one work block of the one-liquid path (per-edge results).
+_ONE_ROWS = ("p_vertex", "wetted_length", "fx", "fz", "resultant", "cp_x", "cp_z",
+             "hoop_start", "hoop_end")
+
+
+def _one_liquid(section, law):
+    """:func:`integrate_edges` for one liquid (or layers of one density)
+    under no gas, every edge seeing the free surface h: the closed forms of
+    the one-liquid model on the clipped depths a = (h - z)+ (see
+    :func:`wetline.core.hydrostatics.solve`), one work block and a few
+    buffers reused with ``out=``.
+
+    With clipped depths a0, a1 at an edge's ends and the wetted fraction
+    f = clip((h - z_low) / |dz|, 0, 1): wetted length f L, force
+    w f L (a0 + a1) / 2 rho g n, centre of pressure at
+    t = ta + f (a0 + 2 a1) / (3 (a0 + a1)), ta = 1 - f on falling edges.
+    """
+    h = law.level
+    layer = law.layers[-1]  # the top one's density: all are alike
+    rg = layer.density * law.gravity
+    geo = section.geometry
+    n = section.n_edges
+    axi = section.is_axisymmetric
+
+    out = np.empty((len(_ONE_ROWS), n + 1))
+    p_vertex, wetted, fx, fz, res, cpx, cpz, hoop0, hoop1 = out
+    a = np.empty(n + 1)
+    w1 = np.empty(n)
+    w2 = np.empty(n)
+    w3 = np.empty(n)
+
+    # Depth at every vertex (first repeated last); a0 / a1 are views.
+    np.subtract(h, geo.vertex_z, out=a)
+    np.maximum(a, 0.0, out=a)
+    a0 = a[:n]
+    a1 = a[1:]
+    np.multiply(a, rg, out=p_vertex)
+    p_start = p_vertex[:n]
+    p_end = p_vertex[1:]
+
+    # Wetted fraction f of each edge; the product overflows to inf on an edge
+    # rising under 1e-200 m (1 / |dz| is huge), which the clip makes 1.
+    f = w1
+    np.subtract(h, geo.z_low, out=f)
+    with np.errstate(over="ignore", invalid="ignore"):
+        np.multiply(f, geo.inv_abs_dz, out=f)
+    np.clip(f, 0.0, 1.0, out=f)
+    # Horizontal edges at or below the surface are wetted whole (z <= h),
+    # also exactly at it, where (h - z_low) / |dz| would be 0 / 0.
+    horizontal = np.flatnonzero(geo.inv_abs_dz >= FLAT_INV_DZ)
+    flat = horizontal[geo.z_low[horizontal] <= h]
+    f[flat] = 1.0
+    wl = wetted[:n]
+    np.multiply(f, geo.length, out=wl)
+
+    # Sum of end depths; the wetted part's mean depth is half of it.
+    s01 = w2
+    np.add(a0, a1, out=s01)
+
+    # Parameter where the wetted part starts: 1 - f on falling edges.
+    ta = w3
+    np.subtract(1.0, f, out=ta)
+    np.multiply(ta, geo.falls, out=ta)
+    # The force rows are free until the forces are computed: scratch here.
+    volume = float(_green_sum(section, f, ta, work=(fx[:n], fz[:n], res[:n])))
+
+    if not axi:
+        # Normal force per edge = rg * width * Lw * (a0 + a1) / 2.
+        fn = res[:n]
+        np.multiply(wl, s01, out=fn)
+        np.multiply(fn, 0.5 * rg * section.width, out=fn)
+        np.multiply(fn, geo.nx, out=fx[:n])
+        np.multiply(fn, geo.nz, out=fz[:n])
+        # Centre of pressure: t = ta + f (a0 + 2 a1) / (3 (a0 + a1)).
+        t = cpx[:n]
+        np.add(s01, a1, out=t)
+        np.multiply(t, f, out=t)
+        with np.errstate(invalid="ignore", divide="ignore"):
+            np.divide(t, s01, out=t)
+        np.multiply(t, 1.0 / 3.0, out=t)
+        np.add(t, ta, out=t)
+        t[flat] = 0.5  # uniform pressure, even 0 at the surface
+        cz = cpz[:n]
+        np.multiply(t, geo.dz, out=cz)
+        np.add(cz, geo.z0, out=cz)
+        cx = t  # reuse in place last
+        np.multiply(cx, geo.dx, out=cx)
+        np.add(cx, geo.x0, out=cx)
+        cp = out[5:7, :n].T  # (N, 2) view; NaN rows where dry (0/0)
+        hoop0[:n] = np.nan
+        hoop1[:n] = np.nan
+    else:
+        # r at the wetted part's ends, ra = x0 + ta dx, rb = ra + f dx.
+        ra = w3
+        np.multiply(ta, geo.dx, out=ra)
+        np.add(ra, geo.x0, out=ra)
+        rb = cpz[:n]  # scratch: no centre of pressure for axisymmetric
+        np.multiply(f, geo.dx, out=rb)
+        np.add(rb, ra, out=rb)
+        # int p r ds = rg Lw (2 a0 ra + a0 rb + a1 ra + 2 a1 rb) / 6
+        #            = rg Lw ((2 a0 + a1) ra + (a0 + 2 a1) rb) / 6
+        q = cpx[:n]
+        np.add(s01, a0, out=q)
+        np.multiply(q, ra, out=q)
+        np.add(s01, a1, out=w2)
+        np.multiply(w2, rb, out=w2)
+        np.add(q, w2, out=q)
+        np.multiply(q, wl, out=q)
+        fzz = fz[:n]
+        np.multiply(q, (2.0 * np.pi / 6.0) * rg, out=fzz)
+        np.multiply(fzz, geo.nz, out=fzz)
+        np.abs(fzz, out=res[:n])
+        fx[:n] = np.nan
+        cp = out[5:7, :n].T
+        cp.fill(np.nan)
+        # Hoop force N = p r / cos(alpha), cos(alpha) = |dz| / L; not defined
+        # on horizontal edges (nor on those rising under 1e-200 m, where
+        # 1 / cos overflows): NaN there.
+        with np.errstate(over="ignore", invalid="ignore"):
+            sec = geo.length * geo.inv_abs_dz
+            np.multiply(p_start, geo.x0, out=hoop0[:n])
+            np.multiply(hoop0[:n], sec, out=hoop0[:n])
+            np.multiply(p_end, np.roll(geo.x0, -1), out=hoop1[:n])
+            np.multiply(hoop1[:n], sec, out=hoop1[:n])
+        hoop0[:n][horizontal] = np.nan
+        hoop1[:n][horizontal] = np.nan
+
+    out.setflags(write=False)
+    weight = rg * volume
+    if law.n_layers == 1:
+        volumes = np.array([volume])
+        weights = np.array([weight])
+        volumes.setflags(write=False)
+        weights.setflags(write=False)
+    else:  # layers of one density: the volume below each interface
+        z_high = np.maximum(geo.vertex_z[:n], geo.vertex_z[1:])
+        below = [_volume_below_top(section, z_high, layer.top,
+                                   _edges_crossed(geo, z_high, layer.top), w1, w2)
+                 for layer in law.layers[:-1]]
+        volumes, weights, _, _ = _layer_volumes(law, below + [volume])
+    return EdgeLoads(
+        law=law, caps=None, wetted_length=wl, p_start=p_start, p_end=p_end,
+        fx=fx[:n], fz=fz[:n], resultant=res[:n], centre_of_pressure=cp,
+        hoop_start=hoop0[:n], hoop_end=hoop1[:n], layer_volumes=volumes,
+        layer_weights=weights, volume=volume, fluid_weight=weight,
+        max_pressure=rg * max(h - section.z_min, 0.0))
 
 
 def _check_law_fits(section, law):

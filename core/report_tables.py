@@ -32,10 +32,12 @@ from .numbers import format_number, is_noise
 
 if TYPE_CHECKING:
     from .case import Case
+    from .level_table import LevelTable
     from .units import DisplayUnits
 
 __all__ = ["Table", "totals_table", "with_note", "parts_table", "edges_table",
-           "level_load_table", "uplift_table", "to_csv", "cell_text"]
+           "level_load_table", "uplift_table", "to_csv", "cell_text", "cases_table",
+           "envelope_parts_table", "envelope_summary_table", "liquid_words"]
 
 
 @dataclass(frozen=True)
@@ -166,10 +168,15 @@ def edges_table(solution, units, length_unit="m"):
     return Table("Edges", tuple(header), tuple(rows))
 
 
-def level_load_table(case: Case, units: DisplayUnits, steps: int = 51) -> Table:
-    """Totals at ``steps`` levels from empty to the top level."""
+def level_load_table(case: Case, units: DisplayUnits, steps: int = 51,
+                     table: LevelTable | None = None) -> Table:
+    """Totals at ``steps`` levels from empty to the top level (of ``case``'s
+    one liquid, pockets vented), or of a given ``table`` (a load case's
+    layers, gas or trapped pockets: :meth:`~wetline.core.load_cases.ResolvedCase.level_tables`),
+    whose title then names its pocket assumption."""
     u = units
-    t = level_table(case.section, case.liquid.density, case.gravity, steps)
+    t = level_table(case.section, case.liquid.density, case.gravity, steps) if table is None \
+        else table
     scope = force_scope(case.section, u, case.length_unit)
     quantity = {"level": ("length", u.label("length")),
                 "volume": ("volume", u.label("volume")),
@@ -190,7 +197,9 @@ def level_load_table(case: Case, units: DisplayUnits, steps: int = 51) -> Table:
         title = name if name.startswith("down:") else name.replace("_", " ")
         header.append(f"{title} [{lab}]")
     rows = tuple(tuple(_num(c[k]) for c in cols) for k in range(t.levels.size))
-    return Table("Loads against level", tuple(header), rows)
+    title = "Loads against level" if table is None else \
+        f"Loads against level, pockets {t.pockets}"
+    return Table(title, tuple(header), rows)
 
 
 def uplift_table(case, units, solution=None):
@@ -200,15 +209,20 @@ def uplift_table(case, units, solution=None):
     F = scope.label
     L = u.label("length")
     rows = []
+    # Where air can be trapped, the table says which assumption gave the
+    # worst level (with trapped pockets both are searched).
+    pockets = solution is not None and case.section.pocket_tree.may_trap
     for r in case.uplift(solution):
-        rows.append((r.part, _num(scope.to_display(r.resistance)),
-                     _num(scope.to_display(r.uplift)), _num(r.factor),
-                     _num(u.to_display(r.worst_level, "length")),
-                     _num(scope.to_display(r.worst_uplift)), _num(r.worst_factor),
-                     _num(r.required_factor), r.verdict))
-    return Table("Uplift check", ("part", f"resistance [{F}]", f"uplift now [{F}]",
-                                  "factor now", f"worst level [{L}]", f"worst uplift [{F}]",
-                                  "worst factor", "required", "verdict"), tuple(rows))
+        row = (r.part, _num(scope.to_display(r.resistance)),
+               _num(scope.to_display(r.uplift)), _num(r.factor),
+               _num(u.to_display(r.worst_level, "length")),
+               _num(scope.to_display(r.worst_uplift)), _num(r.worst_factor),
+               _num(r.required_factor), r.verdict)
+        rows.append(row + ((r.worst_pockets,) if pockets else ()))
+    header = ("part", f"resistance [{F}]", f"uplift now [{F}]", "factor now",
+              f"worst level [{L}]", f"worst uplift [{F}]", "worst factor", "required", "verdict")
+    return Table("Uplift check", header + (("worst with pockets",) if pockets else ()),
+                 tuple(rows))
 
 
 def _csv_cell(v: object) -> object:
@@ -234,3 +248,144 @@ def to_csv(table: Table) -> str:
     for row in table.rows:
         w.writerow([_csv_cell(v) for v in row])
     return buf.getvalue()
+
+
+# ------------------------------------------------------------------ load cases
+def liquid_words(resolved) -> str:
+    """The liquid of a load case in a few words: its name, the layers bottom
+    up (``"sewage + fat"``), a gas pressure and trapped air when present.
+
+    Parameters
+    ----------
+    resolved : wetline.core.load_cases.ResolvedCase
+    """
+    names = [liquid.name for liquid in resolved.liquids] or [resolved.case.liquid.name]
+    words = " + ".join(names)
+    if resolved.gas_pressure:
+        words += f"; gas {format_number(resolved.gas_pressure)} Pa"
+    if resolved.pockets == "trapped":
+        words += "; air trapped"
+    return words
+
+
+def _scale_of(solved) -> float:
+    """The largest force over solved cases and their structures [N]."""
+    big = 0.0
+    for s in solved:
+        big = max(big, force_scale(s.solution))
+        if s.structure is not None:
+            f = s.structure.flotation
+            big = max(big, abs(f.uplift), abs(f.resistance))
+    return big
+
+
+def cases_table(design, solved, units):
+    """One row per load case: name, liquid(s), level, groundwater, load
+    factor, floor force, support reaction and max pressure (characteristic
+    and design side by side), the flotation factor and its verdict, and the
+    net upward pressure on the base slab (characteristic and design).
+
+    Parameters
+    ----------
+    design : wetline.core.load_cases.Design
+    solved : sequence of wetline.core.load_cases.SolvedCase
+        ``design.solve_all()``.
+    units : wetline.core.units.DisplayUnits
+
+    Returns
+    -------
+    Table
+        Flotation and base columns are ``None`` ("-") without a structure
+        (the flotation factor also where nothing lifts the structure).
+    """
+    u = units
+    section = design.section
+    scope = force_scope(section, u, design.case.length_unit)
+    scale = _scale_of(solved)
+    F, L, P = scope.label, u.label("length"), u.label("pressure")
+    rows = []
+    for s in solved:
+        r, sol, loads = s.resolved, s.solution, s.structure
+        lf = s.load_factor
+        floor, support = _shown([sol.floor_force, sol.support_reaction], scope.divisor, scale)
+        level = _num(u.to_display(sol.level, "length"))
+        gw = None if r.groundwater is None else _num(u.to_display(r.groundwater.level, "length"))
+        pmax = _num(u.to_display(sol.max_pressure, "pressure"))
+        fl_factor = verdict = base = base_d = None
+        if loads is not None:
+            fl_factor = _num(loads.flotation.factor)
+            verdict = loads.flotation.verdict
+            top = loads.base_net_max
+            if top is not None:
+                base = _num(u.to_display(top.net, "pressure"))
+                base_d = _num(u.to_display(lf * top.net, "pressure"))
+        rows.append((s.name, liquid_words(r), level, "dry" if gw is None and loads is not None
+                     else gw, _num(lf), _num(floor), _num(lf * floor), _num(support),
+                     _num(lf * support), pmax, _num(lf * u.to_display(sol.max_pressure,
+                                                                      "pressure")),
+                     fl_factor, verdict, base, base_d))
+    header = ("case", "liquid", f"level [{L}]", f"groundwater [{L}]", "load factor",
+              f"floor force [{F}]", f"floor force design [{F}]", f"support reaction [{F}]",
+              f"support reaction design [{F}]", f"max pressure [{P}]",
+              f"max pressure design [{P}]", "flotation factor", "flotation",
+              f"base net upward [{P}]", f"base net upward design [{P}]")
+    return Table("Load cases (characteristic; design = characteristic x load factor)", header,
+                 tuple(rows))
+
+
+def envelope_parts_table(env, design, units, scale=None):
+    """The envelope per loaded part: largest downward load and largest
+    uplift (design values) with the governing case.
+
+    Parameters
+    ----------
+    env : wetline.core.load_cases.Envelope
+    design : wetline.core.load_cases.Design
+    units : wetline.core.units.DisplayUnits
+    scale : float, optional
+        The largest force of the cases [N], for round-off shown as 0.
+    """
+    scope = force_scope(design.section, units, design.case.length_unit)
+    F = scope.label
+    rows = []
+    for name, p in env.parts.items():
+        down, up = _shown([p.max_down, p.max_up], scope.divisor, scale)
+        rows.append((name, _num(down), p.max_down_case, _num(up), p.max_up_case))
+    return Table("Envelope by part (design values)",
+                 ("part", f"max down [{F}]", "case", f"max uplift [{F}]", "case"), tuple(rows))
+
+
+def envelope_summary_table(env, design, units):
+    """The governing values of the envelope (design values), one row each:
+    the lowest flotation factor, the governing net upward pressure on the
+    base slab and the largest pressure on any cavity edge, each with its
+    case and where.
+
+    Parameters
+    ----------
+    env : wetline.core.load_cases.Envelope
+    design : wetline.core.load_cases.Design
+    units : wetline.core.units.DisplayUnits
+    """
+    u = units
+    section = design.section
+    P, L = u.label("pressure"), u.label("length")
+    rows = []
+    fl = env.flotation
+    if fl is not None:
+        where = (f"required {format_number(fl.required)}: {'OK' if fl.ok else 'NOT OK'}")
+        rows.append(("lowest flotation factor", _num(fl.factor), "", fl.case, where))
+    b = env.base
+    if b is not None:
+        where = "" if b.index is None else (
+            f"floor edge {b.index} at x = {format_number(u.to_display(b.point[0], 'length'))} "
+            f"{L}")
+        rows.append(("net upward pressure on the base", _num(u.to_display(
+            b.net_upward_pressure, "pressure")), P, b.case, where))
+    if env.edge_max_pressure.size:
+        i = int(np.argmax(env.edge_max_pressure))
+        value, case = env.edge(i)
+        rows.append(("largest pressure on an edge", _num(u.to_display(value, "pressure")), P,
+                     case, f"edge {i} ({section.parts[i]})"))
+    return Table("Envelope, governing values (design values)",
+                 ("quantity", "value", "unit", "case", "where"), tuple(rows))

@@ -35,6 +35,7 @@ from .number_input import number_text, range_text
 
 if TYPE_CHECKING:  # pragma: no cover - types only
     from .fill import VolumeCurve
+    from .pockets import PocketTree
 
 __all__ = [
     "AXIS",
@@ -120,7 +121,7 @@ def _readonly(values: npt.ArrayLike) -> FloatArray:
     return a
 
 
-_DERIVED_ARRAYS = ("geometry", "volume_curve")
+_DERIVED_ARRAYS = ("geometry", "volume_curve", "pocket_tree")
 """Cached properties of a :class:`Section` that hold arrays as long as the outline."""
 
 
@@ -219,8 +220,9 @@ class Section:
         args.update(changes)
         return Section.build(**args)
 
-    def forget_derived(self):
-        """Drop the cached per-edge arrays (:attr:`geometry`, :attr:`volume_curve`);
+    def forget_derived(self) -> None:
+        """Drop the cached per-edge arrays (:attr:`geometry`, :attr:`volume_curve`,
+        :attr:`pocket_tree`);
         they are computed again when next needed, with the same values.
 
         An undo history keeps many sections it does not compute with: without
@@ -306,6 +308,15 @@ class Section:
 
         curve: VolumeCurve = volume_curve(self)
         return curve
+
+    @cached_property
+    def pocket_tree(self) -> PocketTree:
+        """Where the rising liquid can trap air (see
+        :func:`wetline.core.pockets.find_pockets`), found once per section."""
+        from .pockets import find_pockets
+
+        tree: PocketTree = find_pockets(self)
+        return tree
 
     @cached_property
     def geometry(self) -> EdgeGeometry:

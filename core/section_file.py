@@ -1,4 +1,4 @@
-"""Read and write section files (``*.section.json``, format versions 1 and 2).
+"""Read and write section files (``*.section.json``, format versions 1 to 3).
 
 The format is specified in the project's shared spec (``section-format.md``).
 Reading is strict: an unknown key, a value of the wrong type or a newer
@@ -18,6 +18,14 @@ Decisions where the spec is silent (also in DEVELOPERS.md):
   Version 1 files read as version 2 files without them. A case is written
   as version 1 whenever it holds nothing that needs version 2, so files stay
   readable by tools that know only version 1.
+- Version 3 (``section-format-v3.md`` of the shared spec) adds the
+  ``structure`` around the cavity, the ``ground`` and the load ``cases``
+  (each with its liquid or layers, fill, gravity, groundwater, load factor,
+  gas pressure, pockets and atmospheric pressure). :func:`read_design`
+  reads any version into a :class:`~wetline.core.load_cases.Design`;
+  :func:`read_section_file` gives the file-level
+  :class:`~wetline.core.case.Case` (checking the version 3 keys too).
+  :func:`write_design` writes the lowest version that holds the design.
 - Lengths in another unit are converted to metres with a correctly rounded
   decimal product (2300 mm is exactly the float 2.3 m), and written back as
   the shortest decimal that reads back to exactly the same metres (15 digits
@@ -31,10 +39,10 @@ import math
 import os
 import re
 import stat
-from collections.abc import Collection, Iterable
+from collections.abc import Callable, Collection, Iterable
 from decimal import Decimal, localcontext
 from pathlib import Path
-from typing import Any
+from typing import Any, TypeVar
 
 import numpy as np
 
@@ -42,9 +50,19 @@ from . import STANDARD_GRAVITY, limits
 from .atomic_write import write_atomically
 from .case import Case, CaseError, ReportInfo
 from .fill import FillError
+from .hydrostatics import POCKET_MODES, VENTED
 from .liquids import Liquid, LiquidError, liquid_from_spec, liquid_to_spec
+from .load_cases import FILL_WORDS, Design, LiquidLayer, LoadCase
 from .number_input import number_text, range_text, shown
+from .pockets import STANDARD_ATMOSPHERE
 from .section import FloatArray, Section, SectionError, too_many_vertices
+from .structure import (
+    DEFAULT_GROUNDWATER_DENSITY,
+    Ground,
+    Groundwater,
+    Structure,
+    StructureError,
+)
 from .units import UnitError, length_factor
 from .uplift import DEFAULT_REQUIRED_FACTOR, PartResistance
 
@@ -54,14 +72,23 @@ __all__ = [
     "SectionFileError",
     "case_from_dict",
     "case_to_dict",
-    "read_section_file",
-    "write_section_file",
-    "loads_case",
+    "design_from_dict",
+    "design_to_dict",
+    "design_version",
     "dumps_case",
+    "dumps_design",
+    "loads_case",
+    "loads_design",
+    "read_design",
+    "read_section_file",
+    "write_design",
+    "write_section_file",
 ]
 
+_T = TypeVar("_T")
+
 FORMAT = "wetline-section"
-VERSION = 2
+VERSION = 3
 """The newest version this program reads and writes."""
 
 _TOP_KEYS = {"format", "version", "name", "length_unit", "geometry", "outline",
@@ -72,6 +99,13 @@ _V2_KEYS = {"uplift", "report"}
 _UPLIFT_KEYS = {"required_factor", "parts"}
 _RESISTANCE_KEYS = ("self_weight", "holding_down")  # checked in this order
 _REPORT_KEYS = {"project", "job_reference", "prepared_by"}
+_V3_KEYS = {"structure", "ground", "cases"}
+_STRUCTURE_KEYS = {"outline", "parts", "unit_weight", "extra_weight", "anchorage"}
+_GROUND_KEYS = {"level", "unit_weight_dry", "unit_weight_saturated"}
+_CASE_KEYS = {"name", "fluid", "fill", "gravity", "layers", "gas_pressure", "pockets",
+              "atmospheric_pressure", "groundwater", "load_factor"}
+_LAYER_KEYS = {"fluid", "top", "volume"}
+_GROUNDWATER_KEYS = {"level", "density"}
 
 
 class SectionFileError(ValueError):
@@ -111,6 +145,16 @@ def _number(obj: dict[str, Any], key: str, where: str, *, ranged: bool = False) 
     return value
 
 
+def _length_number(obj: dict[str, Any], key: str, where: str) -> float:
+    """``obj[key]``, a length in the file's unit, checked as :func:`_number`
+    (ranged) does, as the value the file holds: a float read from text keeps
+    its text, so :func:`_to_metres` converts the exact decimal written (a
+    float's repr may hold fewer digits than the text)."""
+    value = _number(obj, key, where, ranged=True)
+    raw = obj[key]
+    return raw if isinstance(raw, _Exact) and math.isfinite(value) else value
+
+
 def _object(obj: object, allowed: Collection[str], where: str) -> dict[str, Any]:
     """``obj`` if it is a JSON object holding only ``allowed`` keys."""
     if not isinstance(obj, dict):
@@ -124,18 +168,46 @@ def _object(obj: object, allowed: Collection[str], where: str) -> dict[str, Any]
 
 
 def case_from_dict(data: object) -> Case:
-    """Build a :class:`~wetline.core.case.Case` from a parsed section file.
+    """Build a :class:`~wetline.core.case.Case` from a parsed section file:
+    the file-level section, liquid, gravity, fill, uplift and report.
 
     The keys are read group by group, in this order: the header (format,
     version, known keys), name and length unit, geometry, outline and parts,
-    fluid, gravity, fill, then the version 2 groups uplift and report. The
-    first fault found is reported.
+    fluid, gravity, fill, then the version 2 groups uplift and report, then
+    the version 3 groups structure, ground and cases (read and checked as
+    :func:`design_from_dict` does; the Case leaves them out). The first
+    fault found is reported.
 
     Raises
     ------
     SectionFileError
         Naming the key or the geometric fault.
     """
+    case, data, scale = _read_file_level(data)
+    if any(key in data for key in _V3_KEYS):
+        _read_design(case, data, scale)
+    return case
+
+
+def design_from_dict(data: object) -> Design:
+    """Build a :class:`~wetline.core.load_cases.Design` from a parsed section
+    file of any version: the file-level case (:func:`case_from_dict`), then
+    the version 3 groups ``structure``, ``ground`` and ``cases``, each read
+    by its own small reader; the design then checks the cases against the
+    section and the structure (unique names, a spill fill only on an open
+    section, groundwater only with a structure ...).
+
+    Raises
+    ------
+    SectionFileError
+        Naming the key (and the case) or the fault.
+    """
+    case, data, scale = _read_file_level(data)
+    return _read_design(case, data, scale)
+
+
+def _read_file_level(data: object) -> tuple[Case, dict[str, Any], float]:
+    """The file-level Case, the file's object and metres per length unit."""
     data = _read_header(data)
     name = _read_name(data)
     unit, scale = _read_length_unit(data)
@@ -147,11 +219,12 @@ def case_from_dict(data: object) -> Case:
     resistances, factor = _read_uplift(data.get("uplift", {}), section)
     report = _read_report(data.get("report", {}))
     try:
-        return Case(section=section, liquid=liquid, gravity=gravity, fill_level=level,
+        case = Case(section=section, liquid=liquid, gravity=gravity, fill_level=level,
                     fill_volume=volume, length_unit=unit, resistances=resistances,
                     required_uplift_factor=factor, report=report)
     except (CaseError, FillError) as exc:
         raise SectionFileError(str(exc)) from None
+    return case, data, scale
 
 
 def _required(data: dict[str, Any], key: str, hint: str = "") -> object:
@@ -178,12 +251,14 @@ def _read_header(obj: object) -> dict[str, Any]:
         raise SectionFileError(
             f"section file version {shown(version)} is newer than this program reads "
             f"(up to {VERSION}); use a newer Wetline")
-    data = _object(obj, _TOP_KEYS | _V2_KEYS, "")
-    if version < 2:
-        for key in _V2_KEYS:
-            if key in data:
-                raise SectionFileError(
-                    f"key {key!r} needs section file version 2 (this file says version 1)")
+    data = _object(obj, _TOP_KEYS | _V2_KEYS | _V3_KEYS, "")
+    for needs, keys in ((2, _V2_KEYS), (3, _V3_KEYS)):
+        if version < needs:
+            for key in sorted(keys):
+                if key in data:
+                    raise SectionFileError(
+                        f"key {key!r} needs section file version {needs} (this file says "
+                        f"version {version})")
     return data
 
 
@@ -216,7 +291,7 @@ def _read_geometry(data: dict[str, Any], unit: str, scale: float) -> tuple[str, 
     if "width" in geometry:
         if kind == "axisymmetric":
             raise SectionFileError("geometry.width applies to plane sections only")
-        width = _number(geometry, "width", "geometry.", ranged=True)
+        width = _length_number(geometry, "width", "geometry.")
         if width <= 0:
             raise SectionFileError(f"geometry.width must be positive, not {width:g}")
     metres = _to_metres(width, scale)
@@ -315,7 +390,7 @@ def _read_fill(data: dict[str, Any], unit: str, scale: float) -> tuple[float | N
     if len(fill) != 1:
         raise SectionFileError("fill must give exactly one of \"level\" and \"volume\"")
     if "level" in fill:
-        level = _to_metres(_number(fill, "level", "fill.", ranged=True), scale)
+        level = _to_metres(_length_number(fill, "level", "fill."), scale)
         limit = limits.COORDINATE_LIMIT
         if not -limit <= level <= limit:
             raise SectionFileError(f"fill.level must be {range_text(-limit, limit, 'm')}, "
@@ -371,6 +446,226 @@ def _read_report(report: object) -> ReportInfo:
         if not isinstance(v, str):
             raise SectionFileError(f"report.{key} must be text")
     return ReportInfo(**report)
+
+
+# ------------------------------------------------------------------ version 3
+def _read_design(case: Case, data: dict[str, Any], scale: float) -> Design:
+    """The Design of a file whose file-level ``case`` is read: structure,
+    ground and cases, then the design's own checks."""
+    section = case.section
+    unit = case.length_unit
+    structure = None
+    if "structure" in data:
+        structure = _read_structure(data["structure"], section, unit, scale)
+    ground = None
+    if "ground" in data:
+        ground = _read_ground(data["ground"], unit, scale)
+    cases: tuple[LoadCase, ...] = ()
+    if "cases" in data:
+        cases = _read_cases(data["cases"], unit, scale)
+    try:
+        return Design(case, structure, ground, cases)
+    except StructureError as exc:
+        raise SectionFileError(str(exc), location=exc.location) from None
+    except ValueError as exc:
+        raise SectionFileError(str(exc)) from None
+
+
+def _pairs(value: object, what: str) -> list[list[float]]:
+    """``value`` checked as a list of [x, z] number pairs (``what`` names it)."""
+    if not isinstance(value, list):
+        raise SectionFileError(f"{what} must be a list of [x, z] pairs")
+    if len(value) > limits.MAX_VERTICES:
+        raise SectionFileError(f"{what}: {too_many_vertices(len(value))}")
+    for i, pt in enumerate(value):
+        if (not isinstance(pt, list) or len(pt) != 2
+                or not all(_is_number(c) for c in pt)):
+            raise SectionFileError(f"{what} vertex {i} must be an [x, z] pair of numbers, "
+                                   f"not {shown(pt)}")
+    return value
+
+
+def _metres_pairs(value: list[list[float]], what: str, unit: str, scale: float) -> FloatArray:
+    """The pairs in metres, each coordinate within the representable range."""
+    limit, smallest = limits.COORDINATE_LIMIT, limits.SMALLEST_COORDINATE
+    out = []
+    for i, (x, z) in enumerate(value):
+        pair = []
+        for axis, c in enumerate((x, z)):
+            m = _to_metres(float(c), scale) if scale == 1.0 else _to_metres(c, scale)
+            where = f"{what} vertex {i} has {'xz'[axis]} = {shown(c)} {unit}"
+            if not math.isfinite(m) or abs(m) > limit:
+                raise SectionFileError(f"{where}, outside {range_text(-limit, limit, 'm')}")
+            if 0 < abs(m) < smallest:
+                raise SectionFileError(f"{where}; a coordinate is 0 or at least "
+                                       f"{number_text(smallest)} m in size")
+            pair.append(m)
+        out.append(pair)
+    return np.array(out, dtype=np.float64).reshape(-1, 2)
+
+
+def _level_value(obj: dict[str, Any], key: str, where: str, unit: str, scale: float) -> float:
+    """A level ``obj[key]`` in the file's unit, as metres within range."""
+    level = _to_metres(_length_number(obj, key, where), scale)
+    limit = limits.COORDINATE_LIMIT
+    if not -limit <= level <= limit:
+        raise SectionFileError(f"{where}{key} must be {range_text(-limit, limit, 'm')}, "
+                               f"not {shown(obj[key])} {unit}")
+    return level
+
+
+def _read_structure(obj: object, section: Section, unit: str, scale: float) -> Structure:
+    """``structure``: the outer outline, its parts and the material."""
+    st = _object(obj, _STRUCTURE_KEYS, "structure.")
+    outline = _pairs(_required(st, "outline", " in structure"), "structure.outline")
+    pts = _metres_pairs(outline, "structure.outline", unit, scale)
+    parts = st.get("parts")
+    if parts is not None and (not isinstance(parts, list)
+                              or not all(isinstance(p, str) for p in parts)):
+        raise SectionFileError("structure.parts must be a list of names, one per outer edge")
+    values: dict[str, float] = {}
+    for key in ("unit_weight", "extra_weight", "anchorage"):
+        if key in st:
+            values[key] = _number(st, key, "structure.", ranged=True)
+    try:
+        return Structure.build(pts, parts, cavity=section, **values)
+    except StructureError as exc:
+        raise SectionFileError(str(exc), location=exc.location) from None
+
+
+def _read_ground(obj: object, unit: str, scale: float) -> Ground:
+    """``ground``: the ground surface and the soil's unit weights."""
+    gr = _object(obj, _GROUND_KEYS, "ground.")
+    _required(gr, "level", " in ground")
+    level = _level_value(gr, "level", "ground.", unit, scale)
+    values = {key: _number(gr, key, "ground.", ranged=True)
+              for key in ("unit_weight_dry", "unit_weight_saturated") if key in gr}
+    try:
+        return Ground(level, **values)
+    except ValueError as exc:
+        raise SectionFileError(str(exc)) from None
+
+
+def _read_cases(obj: object, unit: str, scale: float) -> tuple[LoadCase, ...]:
+    """``cases``: the load cases in file order, each by :func:`_read_case`."""
+    if not isinstance(obj, list):
+        raise SectionFileError("cases must be a list of load cases")
+    if not obj:
+        raise SectionFileError("cases is empty: leave it out for one case made of the "
+                               "file-level fluid and fill")
+    return tuple(_read_case(c, i, unit, scale) for i, c in enumerate(obj))
+
+
+def _read_case(obj: object, index: int, unit: str, scale: float) -> LoadCase:
+    """One load case: what it changes from the file level."""
+    if not isinstance(obj, dict):
+        raise SectionFileError(f"cases[{index}] must be a JSON object")
+    if "name" not in obj:
+        raise SectionFileError(f"cases[{index}]: missing key 'name'")
+    name = obj["name"]
+    if not isinstance(name, str) or not name.strip():
+        raise SectionFileError(f"cases[{index}]: name must be non-empty text, not {shown(name)}")
+    where = f"case {name!r}: "
+    for key in obj:
+        if key not in _CASE_KEYS:
+            raise SectionFileError(f"{where}unknown key {key!r}")
+    try:
+        values: dict[str, Any] = {}
+        if "fluid" in obj and "layers" in obj:
+            raise SectionFileError("give 'fluid' or 'layers', not both")
+        if "fluid" in obj:
+            values["liquid"] = _read_fluid(obj)
+        if "fill" in obj:
+            values.update(_read_case_fill(obj["fill"], unit, scale))
+        if "gravity" in obj:
+            values["gravity"] = _read_gravity(obj)
+        if "layers" in obj:
+            values["layers"] = _read_layers(obj["layers"], unit, scale)
+        if "gas_pressure" in obj:
+            values["gas_pressure"] = _number(obj, "gas_pressure", "", ranged=True)
+        if "pockets" in obj:
+            values["pockets"] = _read_pockets(obj["pockets"])
+        if "atmospheric_pressure" in obj:
+            values["atmospheric_pressure"] = _number(obj, "atmospheric_pressure", "",
+                                                     ranged=True)
+        if "groundwater" in obj:
+            values["groundwater"] = _read_groundwater(obj["groundwater"], unit, scale)
+        if "load_factor" in obj:
+            values["load_factor"] = _number(obj, "load_factor", "", ranged=True)
+    except SectionFileError as exc:
+        raise SectionFileError(f"{where}{exc}") from None
+    try:
+        return LoadCase(name, **values)
+    except ValueError as exc:
+        raise SectionFileError(str(exc)) from None
+
+
+def _read_case_fill(obj: object, unit: str, scale: float) -> dict[str, Any]:
+    """A case's ``fill``: a level (a number, ``"spill"`` or ``"empty"``) or a volume."""
+    fill = _object(obj, _FILL_KEYS, "fill.")
+    if len(fill) != 1:
+        raise SectionFileError("fill must give exactly one of \"level\" and \"volume\"")
+    if "level" in fill:
+        if fill["level"] in FILL_WORDS:
+            return {"fill_level": fill["level"]}
+        if not _is_number(fill["level"]):
+            raise SectionFileError(f"fill.level must be a number, \"spill\" or \"empty\", "
+                                   f"not {shown(fill['level'])}")
+        return {"fill_level": _level_value(fill, "level", "fill.", unit, scale)}
+    volume = _number(fill, "volume", "fill.")
+    if volume < 0:
+        raise SectionFileError(f"fill.volume must be >= 0, not {volume:g}")
+    return {"fill_volume": volume}
+
+
+def _read_layers(obj: object, unit: str, scale: float) -> tuple[LiquidLayer, ...]:
+    """A case's ``layers``: liquids from the bottom up, each with its top or volume."""
+    if not isinstance(obj, list):
+        raise SectionFileError("layers must be a list of {\"fluid\": ..., \"top\": z} "
+                               "objects, bottom up")
+    if not obj:
+        raise SectionFileError("layers must hold at least one layer")
+    out = []
+    for i, layer in enumerate(obj):
+        where = f"layers[{i}]."
+        la = _object(layer, _LAYER_KEYS, where)
+        try:
+            liquid = liquid_from_spec(_required(la, "fluid", f" in layers[{i}]"))
+        except LiquidError as exc:
+            raise SectionFileError(f"layers[{i}]: {exc}") from None
+        if "top" in la and "volume" in la:
+            raise SectionFileError(f"layers[{i}] gives both 'top' and 'volume'; give one")
+        top = volume = None
+        if "top" in la:
+            top = _level_value(la, "top", where, unit, scale)
+        if "volume" in la:
+            volume = _number(la, "volume", where)
+            if volume < 0:
+                raise SectionFileError(f"{where}volume must be >= 0, not {volume:g}")
+        out.append(LiquidLayer(liquid, top=top, volume=volume))
+    return tuple(out)
+
+
+def _read_pockets(value: object) -> str:
+    if value not in POCKET_MODES:
+        raise SectionFileError(f"pockets must be \"vented\" or \"trapped\", not {shown(value)}")
+    return str(value)
+
+
+def _read_groundwater(obj: object, unit: str, scale: float) -> Groundwater | None:
+    """A case's ``groundwater``: null (dry ground) or a level and a density."""
+    if obj is None:
+        return None
+    gw = _object(obj, _GROUNDWATER_KEYS, "groundwater.")
+    _required(gw, "level", " in groundwater")
+    level = _level_value(gw, "level", "groundwater.", unit, scale)
+    values = {}
+    if "density" in gw:
+        values["density"] = _number(gw, "density", "groundwater.", ranged=True)
+    try:
+        return Groundwater(level, **values)
+    except ValueError as exc:
+        raise SectionFileError(str(exc)) from None
 
 
 class _Exact(float):
@@ -487,6 +782,156 @@ def dumps_case(case: Case) -> str:
     return "\n".join(lines) + "\n"
 
 
+def design_version(design: Design) -> int:
+    """The lowest section file version that holds ``design``: 3 with a
+    structure, ground or cases; else 2 if the file-level case needs it
+    (uplift resistances, a required factor, report fields); else 1."""
+    if design.structure is not None or design.ground is not None or design.cases:
+        return 3
+    return 2 if design.case.uses_version_2 else 1
+
+
+def design_to_dict(design: Design) -> dict[str, Any]:
+    """The section-file object of ``design``, at :func:`design_version`.
+
+    Lengths (coordinates and levels) are in the file-level case's length
+    unit, as the shortest decimals that read back to exactly the same
+    metres; other numbers are SI, written as Python's shortest repr.
+    """
+    data = case_to_dict(design.case)
+    version = design_version(design)
+    data["version"] = version
+    if version < 3:
+        return data
+    scale = length_factor(design.case.length_unit)
+    data.update(_v3_groups(design, scale, _length))
+    return data
+
+
+def _v3_groups(design: Design, scale: float, length: Any) -> dict[str, Any]:
+    """``structure``, ``ground`` and ``cases`` of a design, lengths written by
+    ``length(v, scale)``."""
+    out: dict[str, Any] = {}
+    if design.structure is not None:
+        out["structure"] = _structure_to_dict(design.structure, scale, length)
+    if design.ground is not None:
+        out["ground"] = _ground_to_dict(design.ground, scale, length)
+    if design.cases:
+        out["cases"] = [_case_to_dict(c, scale, length) for c in design.cases]
+    return out
+
+
+def _length(v: float, scale: float) -> float:
+    """A length [m] as the number the file holds in its unit (a float)."""
+    return float(_length_text(v, scale))
+
+
+def _length_raw(v: float, scale: float) -> _Raw:
+    """A length [m] as the exact text the file holds in its unit."""
+    return _Raw(_length_text(v, scale))
+
+
+def _structure_to_dict(s: Structure, scale: float, length: Any) -> dict[str, Any]:
+    out: dict[str, Any] = {
+        "outline": [[length(x, scale), length(z, scale)] for x, z in s.outline.tolist()],
+        "parts": list(s.parts),
+        "unit_weight": s.unit_weight,
+    }
+    if s.extra_weight:
+        out["extra_weight"] = s.extra_weight
+    if s.anchorage:
+        out["anchorage"] = s.anchorage
+    return out
+
+
+def _ground_to_dict(g: Ground, scale: float, length: Any) -> dict[str, Any]:
+    return {"level": length(g.level, scale), "unit_weight_dry": g.unit_weight_dry,
+            "unit_weight_saturated": g.unit_weight_saturated}
+
+
+def _case_to_dict(c: LoadCase, scale: float, length: Any) -> dict[str, Any]:
+    """One load case: its name and what it changes (defaults left out)."""
+    out: dict[str, Any] = {"name": c.name}
+    if c.liquid is not None:
+        out["fluid"] = liquid_to_spec(c.liquid)
+    if c.layers is not None:
+        layers = []
+        for layer in c.layers:
+            item: dict[str, Any] = {"fluid": liquid_to_spec(layer.liquid)}
+            if layer.top is not None:
+                item["top"] = length(layer.top, scale)
+            if layer.volume is not None:
+                item["volume"] = layer.volume
+            layers.append(item)
+        out["layers"] = layers
+    if isinstance(c.fill_level, str):
+        out["fill"] = {"level": c.fill_level}
+    elif c.fill_level is not None:
+        out["fill"] = {"level": length(c.fill_level, scale)}
+    elif c.fill_volume is not None:
+        out["fill"] = {"volume": c.fill_volume}
+    if c.gravity is not None:
+        out["gravity"] = c.gravity
+    if c.gas_pressure != 0.0:
+        out["gas_pressure"] = c.gas_pressure
+    if c.pockets != VENTED:
+        out["pockets"] = c.pockets
+    if c.atmospheric_pressure != STANDARD_ATMOSPHERE:
+        out["atmospheric_pressure"] = c.atmospheric_pressure
+    if c.groundwater is not None:
+        gw: dict[str, Any] = {"level": length(c.groundwater.level, scale)}
+        if c.groundwater.density != DEFAULT_GROUNDWATER_DENSITY:
+            gw["density"] = c.groundwater.density
+        out["groundwater"] = gw
+    if c.load_factor != 1.0:
+        out["load_factor"] = c.load_factor
+    return out
+
+
+def dumps_design(design: Design) -> str:
+    """The section file text of ``design`` at :func:`design_version`: the
+    file-level keys as :func:`dumps_case` writes them, then ``structure``
+    (one outer vertex per line), ``ground`` and ``cases`` (one case per
+    line). Reading it gives back exactly the same design."""
+    text = dumps_case(design.case)
+    version = design_version(design)
+    if version < 3:
+        return text
+    text = text.replace(f'"version": {2 if design.case.uses_version_2 else 1},',
+                        f'"version": {version},', 1)
+    scale = length_factor(design.case.length_unit)
+    data = _v3_groups(design, scale, _length_raw)
+    tail = []
+    if "structure" in data:
+        st = dict(data["structure"])
+        rows = [f"[{x}, {z}]" for x, z in st.pop("outline")]
+        parts = st.pop("parts")
+        rest = "".join(f",\n    {json.dumps(k)}: {_dumps(v)}" for k, v in st.items())
+        tail.append('  "structure": {\n    "outline": [\n'
+                    + ",\n".join(f"      {r}" for r in rows) + "\n    ],\n"
+                    f'    "parts": {json.dumps(parts)}' + rest + "\n  }")
+    if "ground" in data:
+        tail.append(f'  "ground": {_dumps(data["ground"])}')
+    if "cases" in data:
+        tail.append('  "cases": [\n' + ",\n".join(f"    {_dumps(c)}"
+                                                  for c in data["cases"]) + "\n  ]")
+    body = text.rstrip()
+    assert body.endswith("}")
+    return body[:-1].rstrip() + ",\n" + ",\n".join(tail) + "\n}\n"
+
+
+def write_design(design: Design, path: str | os.PathLike[str]) -> None:
+    """Write ``design`` to ``path`` atomically (see :func:`write_section_file`),
+    at the lowest version that holds it.
+
+    Raises
+    ------
+    core.atomic_write.WriteError
+        An OSError naming the file and the reason.
+    """
+    write_atomically(path, dumps_design(design))
+
+
 class _Raw(str):
     """Number text to write as it is."""
 
@@ -497,6 +942,8 @@ def _dumps(obj: object) -> str:
         return str(obj)
     if isinstance(obj, dict):
         return "{" + ", ".join(f"{json.dumps(k)}: {_dumps(v)}" for k, v in obj.items()) + "}"
+    if isinstance(obj, list):
+        return "[" + ", ".join(_dumps(v) for v in obj) + "]"
     return json.dumps(obj)
 
 
@@ -566,6 +1013,20 @@ def loads_case(text: str, source: str = "section file") -> Case:
     return case_from_dict(_parse(text, source))
 
 
+def loads_design(text: str, source: str = "section file") -> Design:
+    """Parse section file text of any version into a
+    :class:`~wetline.core.load_cases.Design` (see :func:`loads_case`).
+
+    Raises
+    ------
+    SectionFileError
+    """
+    if len(text) > limits.MAX_FILE_BYTES:
+        raise SectionFileError(f"{source} {_TOO_LARGE}")
+    _refuse_too_many_vertices(text)
+    return design_from_dict(_parse(text, source))
+
+
 _BRACKETS_BESIDE_VERTICES = 1000
 """More ``[`` than vertices a file may hold: the outline's own, ``parts``,
 and any in its names (a vertex needs one each)."""
@@ -615,7 +1076,9 @@ def _read_capped(path: Path) -> bytes:
 
 
 def read_section_file(path: str | os.PathLike[str]) -> Case:
-    """Read a section file.
+    """Read a section file: its file-level case (a version 3 file's
+    structure, ground and cases are checked and left out; see
+    :func:`read_design`).
 
     Parameters
     ----------
@@ -630,6 +1093,24 @@ def read_section_file(path: str | os.PathLike[str]) -> Case:
     SectionFileError
         With a message that starts with the file name and says what is wrong.
     """
+    return _read_path(path, loads_case)
+
+
+def read_design(path: str | os.PathLike[str]) -> Design:
+    """Read a section file of any version into a
+    :class:`~wetline.core.load_cases.Design`: the file-level case, the
+    structure, the ground and the load cases (one, named after the file's
+    ``name``, without ``cases``).
+
+    Raises
+    ------
+    SectionFileError
+        With a message that starts with the file name and says what is wrong.
+    """
+    return _read_path(path, loads_design)
+
+
+def _read_path(path: str | os.PathLike[str], parse: Callable[..., _T]) -> _T:
     path = Path(path)
     try:
         raw = _read_capped(path)
@@ -646,7 +1127,7 @@ def read_section_file(path: str | os.PathLike[str]) -> Case:
     except UnicodeDecodeError:
         raise SectionFileError(f"{path}: is not a text (UTF-8) file") from None
     try:
-        return loads_case(text, source="the file")
+        return parse(text, source="the file")
     except SectionFileError as exc:
         raise SectionFileError(f"{path.name}: {exc}", edges=exc.edges,
                                vertices=exc.vertices, location=exc.location) from None

@@ -1371,10 +1371,9 @@ def _outside(geometry, groundwater, ground, gravity, axi, scale):
         fz, p0, p1 = zero.copy(), zero.copy(), zero.copy()
         buoyancy = 0.0
     else:
-        # The solution is this function's own: its arrays are reused in place.
         sol = solve(outer, groundwater.level, groundwater.density, gravity)
-        fx = np.subtract(0.0, sol.fx, out=sol.fx)  # not -fx, which gives -0.0 when dry
-        fz = np.subtract(0.0, sol.fz, out=sol.fz)
+        fx = np.subtract(0.0, sol.fx)  # not -fx, which gives -0.0 when dry
+        fz = np.subtract(0.0, sol.fz)
         p0, p1 = sol.p_start, sol.p_end
         buoyancy = float(fz.sum())
     soil_fz = np.zeros(n)
@@ -1471,34 +1470,52 @@ def _trapezoids(xa, xb, sa, sb, axi):
 
 
 def _liquid_pressure(solution, z):
-    """Pressure of the cavity's liquid at heights ``z`` [Pa].
+    """Pressure of the cavity's liquid (and gas) on the floor at heights ``z`` [Pa].
 
-    One vented liquid: ``rho g (h - z)+``. (Layers and gas pressure, when
-    the solver has them, change this one place.)
+    The solution's pressure law: ``p_gas + sum_k c_k (b_k - z)+`` (one liquid
+    under no gas: ``rho g (h - z)+``). A floor lies under the liquid, never
+    in a pocket of trapped air.
     """
     if solution is None:
         return np.zeros_like(z)
-    return solution.density * solution.gravity * np.maximum(solution.level - z, 0.0)
+    law = solution.law
+    if law is None or (law.n_layers == 1 and law.gas_pressure == 0.0):
+        return solution.density * solution.gravity * np.maximum(solution.level - z, 0.0)
+    return law.pressure(z)
+
+
+def _kink_levels(solution):
+    """Levels where the liquid's pressure kinks [m]: the free surface and the
+    interfaces with a density step (empty without a solution)."""
+    if solution is None:
+        return ()
+    law = solution.law
+    if law is None or (law.n_layers == 1 and law.gas_pressure == 0.0):
+        return (solution.level,)
+    return tuple(law.ramp_levels.tolist())
 
 
 def _base_candidates(geometry, groundwater, gravity, solution):
-    """(P, 3) candidate points of the base pieces: x, z_floor, z_under, p_gw,
-    p_liquid, net; the third column is where the free surface crosses a
-    sloping floor inside the piece (the left end again where it does not)."""
+    """(P, 2 + K) candidate points of the base pieces: x, z_floor, z_under,
+    p_gw, p_liquid, net; the columns after the two ends are where the free
+    surface and each interface with a density step (K levels in all) cross a
+    sloping floor inside the piece (the left end again where they do not)."""
     owner, xa, xb, fa, fb, ua, ub = geometry._base_columns
     m = xa.size
-    xs, zf, zu = np.empty((m, 3)), np.empty((m, 3)), np.empty((m, 3))
-    xs[:, 0], xs[:, 1], xs[:, 2] = xa, xb, xa
-    zf[:, 0], zf[:, 1], zf[:, 2] = fa, fb, fa
-    zu[:, 0], zu[:, 1], zu[:, 2] = ua, ub, ua
-    if solution is not None:
-        h = solution.level
+    kinks = _kink_levels(solution)
+    cols = 2 + max(len(kinks), 1)
+    xs, zf, zu = np.empty((m, cols)), np.empty((m, cols)), np.empty((m, cols))
+    xs[:, 0], zf[:, 0], zu[:, 0] = xa, fa, ua
+    xs[:, 1], zf[:, 1], zu[:, 1] = xb, fb, ub
+    for c in range(2, cols):
+        xs[:, c], zf[:, c], zu[:, c] = xa, fa, ua
+    for c, h in enumerate(kinks, start=2):
         cross = np.flatnonzero((fa - h) * (fb - h) < 0)
         if cross.size:
             t = (h - fa[cross]) / (fb[cross] - fa[cross])
-            xs[cross, 2] = xa[cross] + t * (xb[cross] - xa[cross])
-            zf[cross, 2] = h
-            zu[cross, 2] = ua[cross] + t * (ub[cross] - ua[cross])
+            xs[cross, c] = xa[cross] + t * (xb[cross] - xa[cross])
+            zf[cross, c] = h
+            zu[cross, c] = ua[cross] + t * (ub[cross] - ua[cross])
     if groundwater is None:
         pg = np.zeros_like(zu)
     else:
@@ -1537,7 +1554,7 @@ def _base_governing(geometry, groundwater, gravity, solution):
     if owner.size == 0:
         return None
     k = int(np.argmax(net))  # row-major: pieces in order, then their points
-    p, c = divmod(k, 3)
+    p, c = divmod(k, net.shape[1])
     return BasePressure(index=geometry.floor_edges[owner[p]], net=float(net[p, c]) + 0.0,
                         point=(float(xs[p, c]), float(zf[p, c])), underside=float(zu[p, c]),
                         p_groundwater=float(pg[p, c]), p_liquid=float(pl[p, c]))

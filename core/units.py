@@ -360,7 +360,7 @@ class DisplayUnits:
         """
         return to_si_exactly(value, self.unit(quantity).factor)
 
-    def text(self, value_si, quantity: str, digits: int = DEFAULT_DIGITS) -> str:
+    def text(self, value_si: float, quantity: str, digits: int = DEFAULT_DIGITS) -> str:
         """`value_si` in this system's unit of `quantity` with its label, for
         people (:func:`wetline.core.numbers.format_number`).
 

@@ -31,7 +31,7 @@ from __future__ import annotations
 import math
 from collections.abc import Iterable, Mapping
 from dataclasses import dataclass
-from typing import TYPE_CHECKING
+from typing import TYPE_CHECKING, Any
 
 import numpy as np
 import numpy.typing as npt
@@ -55,6 +55,7 @@ __all__ = [
     "uplift_check",
     "worst_uplift",
     "worst_uplifts",
+    "worst_uplifts_for",
 ]
 
 DEFAULT_REQUIRED_FACTOR = 1.0 / 0.9
@@ -121,6 +122,13 @@ class UpliftResult:
         Upward load at that level [N].
     worst_factor : float
         resistance / worst_uplift [].
+    pockets : str
+        The assumption about air under ceilings at the current level: the
+        case's, ``"vented"`` or ``"trapped"``.
+    worst_pockets : str
+        The assumption that gives the worst uplift: ``"vented"``, or
+        ``"trapped"`` where the case traps air and the trapped air lifts the
+        part more (both are searched then).
     """
 
     part: str
@@ -131,6 +139,13 @@ class UpliftResult:
     worst_level: float
     worst_uplift: float
     worst_factor: float
+    pockets: str = "vented"
+    worst_pockets: str = "vented"
+
+    @property
+    def assumption(self) -> str:
+        """The assumption of the worst level, in words (``"pockets vented"``)."""
+        return f"pockets {self.worst_pockets}"
 
     @property
     def ok(self) -> bool:
@@ -240,10 +255,143 @@ def worst_uplifts(section: Section, parts: Iterable[str], density: float,
             for name in parts}
 
 
+def _is_one_liquid(solution: Solution) -> bool:
+    law = solution.law
+    return law is None or (law.n_layers == 1 and law.gas_pressure == 0.0)
+
+
+def worst_uplifts_for(solution: Solution, parts: Iterable[str]
+                      ) -> dict[str, tuple[float, float, str]]:
+    """The worst level of each part for the pressure law and pocket
+    assumption of ``solution``, ``{part: (level [m], uplift [N], pockets)}``.
+
+    The level of the top layer moves from just above the top interface (the
+    lowest point for one liquid) to the top level (spill level or roof); the
+    layers below it, the gas and gravity stay as they are. With vented
+    pockets the uplift is the one-liquid uplift of the top layer's density
+    plus a constant (the lower layers and the gas do not move), so
+    :func:`worst_uplift` finds its level exactly. With trapped pockets both
+    assumptions are searched and the larger uplift governs; the trapped one
+    is sampled at 64 levels and at every lip, then refined by golden-section
+    search between the best sample's neighbours (to 1e-9 of the range, not
+    in closed form: the air's compression follows Boyle's law).
+
+    Parameters
+    ----------
+    solution : wetline.core.hydrostatics.Solution
+    parts : iterable of str
+
+    Returns
+    -------
+    dict
+        ``pockets`` is ``"vented"`` or ``"trapped"``: the assumption of the
+        worst level.
+    """
+    from .hydrostatics import TRAPPED, VENTED
+
+    section = solution.section
+    parts = list(parts)
+    if _is_one_liquid(solution):
+        found = worst_uplifts(section, parts, solution.density, solution.gravity)
+        out = {k: (lvl, up, VENTED) for k, (lvl, up) in found.items()}
+    else:
+        out = _worst_vented_law(solution, parts)
+    if solution.pocket_mode == TRAPPED and section.pocket_tree.may_trap and parts:
+        for name, (lvl, up) in _worst_trapped(solution, parts).items():
+            if up > out[name][1] * (1.0 + 1e-12):
+                out[name] = (lvl, up, TRAPPED)
+    return out
+
+
+def _law_range(solution: Solution) -> tuple[float, float]:
+    """Levels the top layer's surface can take [m]: above the top
+    interface (or from the lowest point) to the top level."""
+    section = solution.section
+    law = solution.law
+    lo = section.z_min
+    if law is not None and law.n_layers > 1:
+        lo = max(lo, float(np.nextafter(law.interfaces[-1], np.inf)))
+    return lo, max(section.top_level, lo)
+
+
+def _part_downs_at(solution: Solution, level: float, trapped: bool) -> dict[str, float]:
+    """Downward load on every loaded part at ``level`` [N], the law of
+    ``solution`` (its lower layers, gas, gravity) with pockets vented or
+    trapped."""
+    from .hydrostatics import solve_law
+    from .pockets import trap_air
+
+    assert solution.law is not None  # every Solution of solve() and solve_law() has one
+    law = solution.law.with_level(level)
+    state = trap_air(solution.section.pocket_tree, law, solution.atmospheric_pressure) \
+        if trapped else None
+    sol = solve_law(solution.section, law, pockets=state)
+    return {k: p.down for k, p in sol.parts.items()}
+
+
+def _worst_vented_law(solution: Solution, parts: list[str]
+                      ) -> dict[str, tuple[float, float, str]]:
+    lo, hi = _law_range(solution)
+    assert solution.law is not None
+    top = solution.law.layers[-1]
+    out = {}
+    for name in parts:
+        level, _ = worst_uplift(solution.section, name, top.density, solution.gravity,
+                                z_lo=lo, z_hi=hi)
+        out[name] = (level, max(-_part_downs_at(solution, level, False)[name], 0.0), "vented")
+    return out
+
+
+_TRAPPED_SAMPLES = 64
+_GOLDEN = (math.sqrt(5.0) - 1.0) / 2.0
+
+
+def _worst_trapped(solution: Solution, parts: list[str]) -> dict[str, tuple[float, float]]:
+    """Greatest uplift of each part with trapped pockets over the range of
+    levels: samples, then golden-section search around the best."""
+    section = solution.section
+    tree = section.pocket_tree
+    lo, hi = _law_range(solution)
+    if not hi > lo:
+        downs = _part_downs_at(solution, lo, True)
+        return {name: (lo, max(-downs[name], 0.0)) for name in parts}
+    lips = [float(z) for k, z in enumerate(tree.level.tolist())
+            if tree.children[k] and lo < z < hi]
+    levels = np.unique(np.concatenate([np.linspace(lo, hi, _TRAPPED_SAMPLES), lips]))
+    table = [_part_downs_at(solution, float(h), True) for h in levels]
+    out = {}
+    for name in parts:
+        up = np.array([max(-row[name], 0.0) for row in table])
+        k = int(np.argmax(up))
+        a = float(levels[max(k - 1, 0)])
+        b = float(levels[min(k + 1, levels.size - 1)])
+        best_h, best_u = float(levels[k]), float(up[k])
+
+        def uplift(h: float, name: str = name) -> float:
+            return max(-_part_downs_at(solution, h, True)[name], 0.0)
+
+        c, d = b - _GOLDEN * (b - a), a + _GOLDEN * (b - a)
+        fc, fd = uplift(c), uplift(d)
+        while b - a > 1e-9 * (hi - lo):
+            if fc >= fd:
+                b, d, fd = d, c, fc
+                c = b - _GOLDEN * (b - a)
+                fc = uplift(c)
+            else:
+                a, c, fc = c, d, fd
+                d = a + _GOLDEN * (b - a)
+                fd = uplift(d)
+        for h, u in ((c, fc), (d, fd)):
+            if u > best_u:
+                best_h, best_u = h, u
+        out[name] = (best_h, best_u)
+    return out
+
+
 def uplift_check(case: Case, resistances: Mapping[str, PartResistance],
                  required_factor: float = DEFAULT_REQUIRED_FACTOR,
                  solution: Solution | None = None,
-                 worst: Mapping[str, tuple[float, float]] | None = None) -> list[UpliftResult]:
+                 worst: Mapping[str, tuple[Any, ...]] | None = None) -> list[UpliftResult]:
     """Check every part that has a resistance entered.
 
     Parameters
@@ -254,15 +402,21 @@ def uplift_check(case: Case, resistances: Mapping[str, PartResistance],
     required_factor : float
         Required factor against uplift [], > 0.
     solution : wetline.core.hydrostatics.Solution, optional
-        The case's solution at its current level, if already computed.
+        The case's solution at its current level, if already computed; its
+        pressure law (layers, gas) and pocket assumption are the check's
+        (default: the case's one liquid, pockets vented).
     worst : mapping, optional
-        :func:`worst_uplifts` of the case's section and liquid, if already
-        computed (it does not change with the level).
+        :func:`worst_uplifts` (``(level, uplift)``) or
+        :func:`worst_uplifts_for` (``(level, uplift, pockets)``) of the
+        case's section and liquid, if already computed (it does not change
+        with the level).
 
     Returns
     -------
     list of UpliftResult
-        In the section's part order.
+        In the section's part order. Each states the pocket assumption it
+        used now and at its worst level; with trapped pockets the worst
+        level search covers both assumptions.
     """
     required_factor = float(required_factor)
     if not (math.isfinite(required_factor) and required_factor > 0):
@@ -271,17 +425,24 @@ def uplift_check(case: Case, resistances: Mapping[str, PartResistance],
     section = case.section
     scale = 1.0 if section.is_axisymmetric else section.width
     checked = [name for name in section.loaded_part_names if name in resistances]
-    if worst is None:
-        worst = worst_uplifts(section, checked, case.liquid.density, case.gravity)
+    found: Mapping[str, tuple[Any, ...]]
+    if worst is not None:
+        found = worst
+    elif solution is None or (_is_one_liquid(sol) and sol.pocket_mode == "vented"):
+        found = worst_uplifts(section, checked, sol.density, sol.gravity)
+    else:
+        found = worst_uplifts_for(sol, checked)
     out = []
     for name in checked:
         resistance = resistances[name].total * scale
         uplift = max(-sol.parts[name].down, 0.0)
-        wl, wu = worst[name]
+        wl, wu = float(found[name][0]), float(found[name][1])
+        mode = str(found[name][2]) if len(found[name]) > 2 else "vented"
         if uplift > wu:  # a standpipe head above the roof of a closed section
-            wl, wu = sol.level, uplift
+            wl, wu, mode = sol.level, uplift, sol.pocket_mode
         out.append(UpliftResult(part=name, resistance=resistance,
                                 required_factor=required_factor, uplift=uplift,
                                 factor=_ratio(resistance, uplift), worst_level=wl,
-                                worst_uplift=wu, worst_factor=_ratio(resistance, wu)))
+                                worst_uplift=wu, worst_factor=_ratio(resistance, wu),
+                                pockets=sol.pocket_mode, worst_pockets=mode))
     return out

@@ -11,7 +11,7 @@ from pathlib import Path
 
 from wetline.core.case import Case
 from wetline.core.liquids import fresh_water, listed_liquid, seawater
-from wetline.core.section_file import write_section_file
+from wetline.core.section_file import write_design, write_section_file
 from wetline.core.templates import TEMPLATES
 
 OUT = Path(__file__).resolve().parent.parent / "sample_sections"
@@ -48,6 +48,18 @@ SAMPLES = [
 ]
 
 
+# Design samples (section format v3): the template's structure, ground, load
+# cases and roof resistance at its default dimensions; file stem, template,
+# name. Plane sections 1 m wide, in metres.
+DESIGN_SAMPLES = [
+    ("buried_wet_well", "buried_wet_well", "Buried wet well, village pumping station"),
+    ("buried_chamber", "buried_chamber", "Buried storm chamber under a manhole riser"),
+    ("grease_trap", "grease_trap", "Grease trap at a food plant, kitchen drain line"),
+    ("chamber_with_lip", "chamber_with_lip",
+     "Closed storage chamber under an inspection riser, downstand lip"),
+]
+
+
 def main():
     OUT.mkdir(exist_ok=True)
     for stem, key, dims, name, liquid, level, unit in SAMPLES:
@@ -56,6 +68,10 @@ def main():
         case = Case(section=section, liquid=liquid, fill_level=level, length_unit=unit)
         path = OUT / f"{stem}.section.json"
         write_section_file(case, path)
+        print("wrote", path.relative_to(OUT.parent))
+    for stem, key, name in DESIGN_SAMPLES:
+        path = OUT / f"{stem}.section.json"
+        write_design(TEMPLATES[key].design(name=name), path)
         print("wrote", path.relative_to(OUT.parent))
 
 

@@ -3,14 +3,21 @@
 Headless commands for batch work and scripts; they import no Qt (except
 ``export --png/--svg`` and ``report``, which paint):
 
-- ``wetline solve FILE [--level L | --volume V] [--units si|us] [--json | --csv]``
-- ``wetline table FILE [--steps N] [--units si|us] [--csv]``
-- ``wetline export FILE [--png OUT] [--svg OUT] [--dxf OUT] [--level L | --volume V]
-  [--units si|us] [--size WxH]`` (at least one of ``--png``, ``--svg``, ``--dxf``)
-- ``wetline report FILE [FILE ...] -o OUT [--level L | --volume V] [--units si|us]``: the
-  PDF calculation sheet; with several files OUT is a folder (made if missing) that gets
-  ``<stem>.pdf`` for each, with progress on standard error, and a bad file is reported
-  (``error: FILE: ...``) while the others still finish (exit status 2 if any failed)
+- ``wetline solve FILE [--case NAME] [--level L | --volume V] [--units si|us]
+  [--json | --csv]``: one load case (default the first); ``--json`` adds a ``cases``
+  list naming all of them
+- ``wetline cases FILE [--units si|us] [--json | --csv]``: every load case's totals,
+  flotation and the envelope (``--json``: the ``wetline-cases`` record of section
+  format v3; ``--csv``: the case table)
+- ``wetline table FILE [--case NAME] [--steps N] [--units si|us] [--csv]``
+- ``wetline export FILE [--case NAME] [--png OUT] [--svg OUT] [--dxf OUT]
+  [--level L | --volume V] [--units si|us] [--size WxH]`` (at least one of ``--png``,
+  ``--svg``, ``--dxf``)
+- ``wetline report FILE [FILE ...] -o OUT [--case NAME] [--level L | --volume V]
+  [--units si|us]``: the PDF calculation sheet of one load case (default the first); with
+  several files OUT is a folder (made if missing) that gets ``<stem>.pdf`` for each, with
+  progress on standard error, and a bad file is reported (``error: FILE: ...``) while
+  the others still finish (exit status 2 if any failed)
 - ``wetline import DRAWING.dxf -o OUT.section.json [--choose N|HANDLE|LAYER] [--unit U]
   [--axisymmetric] [--liquid-density RHO] [--level L]``
 
@@ -34,7 +41,7 @@ from wetline.core.numbers import format_number
 
 __all__ = ["main"]
 
-COMMANDS = ("solve", "table", "export", "import", "report")
+COMMANDS = ("solve", "cases", "table", "export", "import", "report")
 
 NUMBER_OPTIONS = frozenset({"--level", "--volume", "--steps", "--size", "--liquid-density"})
 """Options whose value is a number (or, for --size, two): a value that starts
@@ -66,8 +73,13 @@ def _parser():
         g.add_argument("--volume", metavar="V",
                        help="fill with this volume [m3] (plane: area x width)")
 
+    def case_option(sp):
+        sp.add_argument("--case", metavar="NAME",
+                        help="the load case (default: the first in the file)")
+
     sp = sub.add_parser("solve", help="print the loads at the file's fill (or --level/--volume)")
     sp.add_argument("file", metavar="FILE", help="a *.section.json file")
+    case_option(sp)
     fill_options(sp)
     sp.add_argument("--units", choices=("si", "us"), default="si",
                     help="units of the readable table (JSON is always SI)")
@@ -76,8 +88,19 @@ def _parser():
     sp.add_argument("--csv", action="store_true",
                     help="print the per-edge results as CSV (units in the header)")
 
+    sp = sub.add_parser("cases", help="print every load case's totals, flotation and the "
+                                      "envelope")
+    sp.add_argument("file", metavar="FILE", help="a *.section.json file")
+    sp.add_argument("--units", choices=("si", "us"), default="si",
+                    help="units of the readable table and the CSV (JSON is always SI)")
+    sp.add_argument("--json", action="store_true",
+                    help="print the wetline-cases record (SI) instead of a table")
+    sp.add_argument("--csv", action="store_true",
+                    help="print the case table as CSV (units in the header)")
+
     sp = sub.add_parser("table", help="print totals at levels from empty to the top")
     sp.add_argument("file", metavar="FILE")
+    case_option(sp)
     sp.add_argument("--steps", default=None, metavar="N",
                     help="number of levels, at least 2 (default 21; 51 with --csv)")
     sp.add_argument("--units", choices=("si", "us"), default="si")
@@ -92,6 +115,7 @@ def _parser():
     sp.add_argument("--dxf", metavar="OUT",
                     help="the DXF file to write: the outline, each edge on a layer "
                          "named after its part, in the file's length unit")
+    case_option(sp)
     fill_options(sp)
     sp.add_argument("--units", choices=("si", "us"), default="si")
     sp.add_argument("--size", default=None, metavar="WxH",
@@ -104,6 +128,7 @@ def _parser():
     sp.add_argument("-o", "--output", required=True, metavar="OUT",
                     help="the PDF to write (one FILE), or a folder for <stem>.pdf of each "
                          "FILE (several; made if missing)")
+    case_option(sp)
     fill_options(sp)
     sp.add_argument("--units", choices=("si", "us"), default="si")
 
@@ -220,22 +245,51 @@ def _image_size(text):
 
 
 # ----------------------------------------------------------------- helpers
-def _load(path, level=None, volume=None):
-    """Read a section file and apply a --level / --volume override (the
-    option's text)."""
-    from wetline.core.section_file import read_section_file
+def _load(path, level=None, volume=None, case=None):
+    """Read a section file and pick one load case (``case``: its name, default
+    the first), with a --level / --volume override of its fill (the option's
+    text): ``(design, resolved)``, the design holding the override."""
+    from dataclasses import replace
+
+    from wetline.core.section_file import read_design
 
     volume_m3 = None if volume is None else _decimal(volume, "--volume")
     if level is not None:
         _decimal(level, "--level")  # a bad number is said before the file is read
-    case = read_section_file(path)
-    if level is not None:
-        case = case.with_level(_level_in_metres(level, case.length_unit))
-    elif volume_m3 is not None:
-        if volume_m3 < 0:
-            raise CommandError(f"--volume must be a number >= 0, not {volume.strip()}")
-        case = case.with_volume(volume_m3)  # FillError if the section cannot hold it
-    return case
+    if volume_m3 is not None and volume_m3 < 0:
+        raise CommandError(f"--volume must be a number >= 0, not {volume.strip()}")
+    design = read_design(path)
+    index = 0 if case is None else design.index(case)  # names the cases if unknown
+    if level is not None or volume_m3 is not None:
+        fill = ({"fill_level": _level_in_metres(level, design.case.length_unit),
+                 "fill_volume": None} if level is not None
+                else {"fill_level": None, "fill_volume": volume_m3})
+        if design.cases:
+            cases = list(design.cases)
+            cases[index] = replace(cases[index], **fill)
+            design = design.with_cases(cases)
+        elif level is not None:
+            design = design.with_case(design.case.with_level(fill["fill_level"]))
+        else:  # FillError if the section cannot hold it
+            design = design.with_case(design.case.with_volume(volume_m3))
+    return design, design.resolve(design.names[index])
+
+
+DRAWING_NOTE = (
+    "This drawing shows the case's values at the vertices, joined straight along each "
+    "edge: a kink of the pressure inside an edge (at a layer interface, at the surface "
+    "under a gas, at a pocket's interface) is not drawn, and the chart of loads against "
+    "level is for one liquid (the bottom layer's), pockets vented; the tables hold the "
+    "case's own values.")
+"""Said on a drawing or sheet of a load case with layers, a gas or trapped
+pockets: the renderers draw one liquid."""
+
+
+def _drawable(resolved):
+    """The Case the renderers take for ``resolved``: its own fill and
+    solution (:meth:`wetline.core.load_cases.ResolvedCase.as_case`), with
+    :data:`DRAWING_NOTE` where its pressure law is more than one vented liquid."""
+    return resolved.as_case("" if resolved.is_one_liquid else DRAWING_NOTE)
 
 
 def _refuse_overwriting_inputs(outputs, inputs, distinct=True):
@@ -280,8 +334,66 @@ def _render(table, align=None):
     return [table.title] + ["  " + line for line in _table(rows, list(table.header), align)]
 
 
-def solve_text(case, units_name="si"):
-    """The readable table of ``wetline solve``."""
+def _law_lines(solved, u, scope):
+    """Lines on the layers, gas, pockets and load factor of a solved case
+    (none for one liquid at atmospheric pressure, vented, factor 1)."""
+    sol, r = solved.solution, solved.resolved
+    lines = []
+    if len(sol.layers) > 1:
+        lines.append("  layers, bottom up:")
+        for k, layer in enumerate(sol.layers):
+            lines.append(
+                f"    {k + 1} {layer.name or 'liquid'}: {u.text(layer.density, 'density', 5)}, "
+                f"{u.text(layer.bottom, 'length')} to {u.text(layer.top, 'length')}, "
+                f"volume {u.text(layer.volume, 'volume')}, weight {scope.text(layer.weight)}")
+    if sol.gas_pressure:
+        lines.append(f"  gas over the surface: {u.text(sol.gas_pressure, 'pressure', 7)} gauge")
+    if sol.pocket_mode == "trapped":
+        if sol.pockets:
+            lines.append(f"  pockets trapped (atmosphere "
+                         f"{u.text(sol.atmospheric_pressure, 'pressure', 7)} absolute):")
+            for p in sol.pockets:
+                lines.append(
+                    f"    sealed at {u.text(p.sealed_at, 'length')}, interface "
+                    f"{u.text(p.interface, 'length')}, air at "
+                    f"{u.text(p.air_pressure, 'pressure')} gauge, "
+                    f"{u.text(p.air_volume, 'volume')}")
+        else:
+            lines.append("  pockets trapped: no air is sealed at this level")
+    if r.load_factor != 1.0:
+        lines.append(f"  load factor {format_number(r.load_factor)} (design value = "
+                     "characteristic x load factor)")
+    return lines
+
+
+def _structure_lines(loads, u, scope):
+    """The structure block of ``wetline solve``: weights, groundwater,
+    flotation and the net upward pressure on the base."""
+    f = loads.flotation
+    gw = "dry ground" if loads.groundwater is None else \
+        f"groundwater at {u.text(loads.groundwater.level, 'length')}"
+    lines = ["Structure",
+             f"  self-weight {scope.text(loads.self_weight)}, extra weight "
+             f"{scope.text(loads.extra_weight)}, soil on ledges {scope.text(loads.soil_weight)}, "
+             f"anchorage {scope.text(loads.anchorage)}",
+             f"  {gw}: buoyancy {scope.text(loads.buoyancy)}",
+             f"  flotation: uplift {scope.text(f.uplift)}, resistance {scope.text(f.resistance)}, "
+             f"factor {format_number(f.factor)} (required {format_number(f.required)}): "
+             f"{f.verdict}"]
+    top = loads.base_net_max
+    if top is not None:
+        lines.append(f"  net upward pressure on the base: {u.text(top.net, 'pressure')} "
+                     f"(floor edge {top.index}, groundwater {u.text(top.p_groundwater, 'pressure')}"
+                     f" less liquid {u.text(top.p_liquid, 'pressure')})")
+    for w in loads.warnings:
+        lines.append(f"  warning: {w}")
+    return lines
+
+
+def solve_text(solved, units_name="si", names=()):
+    """The readable table of ``wetline solve`` for one solved load case
+    (:class:`wetline.core.load_cases.SolvedCase`); ``names`` lists the
+    file's cases."""
     from wetline.core.force_scope import force_scope
     from wetline.core.report_tables import (
         edges_table,
@@ -290,26 +402,35 @@ def solve_text(case, units_name="si"):
         uplift_table,
         with_note,
     )
-    from wetline.core.results import CAUTION
+    from wetline.core.results import CAUTION, EARTH_PRESSURE_CAUTION
     from wetline.core.units import display_units
     from wetline.core.uplift import UPLIFT_CAUTION
 
     u = display_units(units_name)
-    sol = case.solve()
+    r = solved.resolved
+    case = r.case
+    sol = solved.solution
     sec = sol.section
     lu = case.length_unit
     scope = force_scope(sec, u, lu)
     liquid = case.liquid
     # Inputs are echoed with the digits that identify them.
-    lines = [f"{sec.name or 'Section'}",
-             f"  {sec.kind} section, {sec.n_edges} edges; forces in {scope.label} {scope.words}",
-             f"  liquid: {liquid.name}, {u.text(liquid.density, 'density', 5)} "
-             f"({liquid.source})",
-             f"  gravity: {format_number(case.gravity, 7)} m/s2", ""]
+    lines = [f"{sec.name or 'Section'}"]
+    if len(names) > 1:
+        lines.append(f"  load case {solved.name!r} ({r.index + 1} of {len(names)}: "
+                     f"{', '.join(repr(n) for n in names)})")
+    lines.append(f"  {sec.kind} section, {sec.n_edges} edges; forces in {scope.label} "
+                 f"{scope.words}")
+    if len(sol.layers) <= 1:
+        lines.append(f"  liquid: {liquid.name}, {u.text(liquid.density, 'density', 5)} "
+                     f"({liquid.source})")
+    lines.append(f"  gravity: {format_number(case.gravity, 7)} m/s2")
+    lines += _law_lines(solved, u, scope)
+    lines.append("")
     rows = [[name, with_note(value, note), unit]
             for name, value, unit, note in totals_table(sol, u, lu).rows]
-    lines += ["Totals"] + ["  " + r for r in _table(rows, ["", "value", "unit"],
-                                                     ["<", ">", "<"])]
+    lines += ["Totals"] + ["  " + row for row in _table(rows, ["", "value", "unit"],
+                                                         ["<", ">", "<"])]
     lines.append("")
     lines += _render(parts_table(sol, u, lu))
     lines.append("")
@@ -321,29 +442,96 @@ def solve_text(case, units_name="si"):
         lines.append(f"  required factor {format_number(case.required_uplift_factor)}; "
                      f"{UPLIFT_CAUTION}")
         lines.append("")
+    if solved.structure is not None:
+        lines += _structure_lines(solved.structure, u, scope) + [""]
     if sol.warnings:
         lines += ["Warnings"] + [f"  - {w}" for w in sol.warnings] + [""]
     lines.append(f"Caution: {CAUTION}")
+    if solved.structure is not None:
+        lines.append(f"Caution: {EARTH_PRESSURE_CAUTION}")
     return "\n".join(lines) + "\n"
 
 
 def _cmd_solve(args, out):
-    case = _load(args.file, args.level, args.volume)
     if args.json and args.csv:
         raise CommandError("give --json or --csv, not both")
+    design, resolved = _load(args.file, args.level, args.volume, args.case)
+    solved = design.solve(resolved.name)
     if args.json:
-        from wetline.core.results import results_record
+        from wetline.core.load_cases import case_record
 
-        json.dump(results_record(case), out, indent=2, allow_nan=False)
+        rec = case_record(solved)
+        rec["cases"] = list(design.names)
+        json.dump(rec, out, indent=2, allow_nan=False)
         out.write("\n")
     elif args.csv:
         from wetline.core.report_tables import edges_table, to_csv
         from wetline.core.units import display_units
 
-        out.write(to_csv(edges_table(case.solve(), display_units(args.units),
-                                     case.length_unit)))
+        out.write(to_csv(edges_table(solved.solution, display_units(args.units),
+                                     design.case.length_unit)))
     else:
-        out.write(solve_text(case, args.units))
+        out.write(solve_text(solved, args.units, design.names))
+    return 0
+
+
+# ----------------------------------------------------------------- cases
+def cases_text(design, solved, units_name="si"):
+    """The readable tables of ``wetline cases``: every case, then the envelope."""
+    from wetline.core.force_scope import force_scope
+    from wetline.core.load_cases import envelope
+    from wetline.core.report_tables import (
+        _scale_of,
+        cases_table,
+        envelope_parts_table,
+        envelope_summary_table,
+    )
+    from wetline.core.results import CAUTION, EARTH_PRESSURE_CAUTION
+    from wetline.core.units import display_units
+
+    u = display_units(units_name)
+    sec = design.section
+    scope = force_scope(sec, u, design.case.length_unit)
+    env = envelope(solved)
+    lines = [f"{sec.name or 'Section'}: {len(solved)} load case{'s' * (len(solved) != 1)}",
+             f"  {sec.kind} section, {sec.n_edges} edges; forces in {scope.label} "
+             f"{scope.words}", ""]
+    table = cases_table(design, solved, u)
+    lines += _render(table, ["<", "<"] + [">"] * 10 + ["<"] + [">"] * 2)
+    lines.append("")
+    lines += _render(envelope_parts_table(env, design, u, _scale_of(solved)),
+                     ["<", ">", "<", ">", "<"])
+    lines.append("")
+    summary = envelope_summary_table(env, design, u)
+    if summary.rows:
+        lines += _render(summary, ["<", ">", "<", "<", "<"])
+        lines.append("")
+    warned = [(s.name, w) for s in solved for w in s.warnings]
+    if warned:
+        lines += ["Warnings"] + [f"  - {name}: {w}" for name, w in warned] + [""]
+    lines.append(f"Caution: {CAUTION}")
+    if design.structure is not None:
+        lines.append(f"Caution: {EARTH_PRESSURE_CAUTION}")
+    return "\n".join(lines) + "\n"
+
+
+def _cmd_cases(args, out):
+    if args.json and args.csv:
+        raise CommandError("give --json or --csv, not both")
+    design, _ = _load(args.file)
+    solved = design.solve_all()
+    if args.json:
+        from wetline.core.load_cases import cases_record
+
+        json.dump(cases_record(design, solved), out, indent=2, allow_nan=False)
+        out.write("\n")
+    elif args.csv:
+        from wetline.core.report_tables import cases_table, to_csv
+        from wetline.core.units import display_units
+
+        out.write(to_csv(cases_table(design, solved, display_units(args.units))))
+    else:
+        out.write(cases_text(design, solved, args.units))
     return 0
 
 
@@ -360,13 +548,31 @@ def _cmd_table(args, out):
             raise CommandError(f"--steps must be at least 2, not {args.steps.strip()}")
         if steps > 100_000:
             raise CommandError(f"--steps must be at most 100000, not {args.steps.strip()}")
-    case = _load(args.file)
-    table = level_load_table(case, display_units(args.units), steps)
-    if args.csv:
-        out.write(to_csv(table))
+    design, resolved = _load(args.file, case=args.case)
+    case = resolved.case
+    units = display_units(args.units)
+    if resolved.is_one_liquid and not case.section.pocket_tree.may_trap:
+        tables = [level_load_table(case, units, steps)]
     else:
-        out.write(f"{case.section.name or 'Section'}: loads against level "
-                  f"({case.liquid.name}, {format_number(case.liquid.density, 5)} kg/m3)\n")
+        # The case's layers and gas; both pocket assumptions where air can be
+        # trapped (the CSV holds the case's own).
+        found = resolved.level_tables(steps)
+        if args.csv:
+            found = [t for t in found if t.pockets == resolved.pockets] or found[:1]
+        tables = [level_load_table(case, units, steps, table=t) for t in found]
+    if args.csv:
+        out.write(to_csv(tables[0]))
+        return 0
+    from wetline.core.report_tables import liquid_words
+
+    named = f" case {resolved.name!r}," if len(design.names) > 1 else ""
+    liquid = liquid_words(resolved) if not resolved.is_one_liquid else (
+        f"{case.liquid.name}, {format_number(case.liquid.density, 5)} kg/m3")
+    for k, table in enumerate(tables):
+        if k:
+            out.write("\n")
+        title = table.title[0].lower() + table.title[1:]
+        out.write(f"{case.section.name or 'Section'}:{named} {title} ({liquid})\n")
         rows = [[cell_text(v) for v in r] for r in table.rows]
         for line in _table(rows, list(table.header), [">"] * len(table.header)):
             out.write(line + "\n")
@@ -381,7 +587,8 @@ def _cmd_export(args, out):
     outputs = [(f"--{kind}", path) for kind, path in
                (("png", args.png), ("svg", args.svg), ("dxf", args.dxf)) if path is not None]
     _refuse_overwriting_inputs(outputs, [args.file])
-    case = _load(args.file, args.level, args.volume)
+    _, resolved = _load(args.file, args.level, args.volume, args.case)
+    case = _drawable(resolved)
     if args.dxf is not None:
         from wetline.core.dxf_io import write_outline
 
@@ -453,8 +660,8 @@ def _cmd_report(args, out):
     files = list(args.files)
     if len(files) == 1:
         _refuse_overwriting_inputs([("-o", args.output)], files)
-        case = _load(files[0], args.level, args.volume)
-        write_report(case, args.output, units=args.units)
+        _, resolved = _load(files[0], args.level, args.volume, args.case)
+        write_report(_drawable(resolved), args.output, units=args.units)
         out.write(f"wrote {args.output}\n")
         return 0
     folder = Path(args.output)
@@ -478,7 +685,8 @@ def _cmd_report(args, out):
                 raise CommandError(f"gives the same sheet name {target.name} as "
                                    f"{targets[target]}")
             targets[target] = path
-            write_report(_load(path, args.level, args.volume), target, units=args.units)
+            _, resolved = _load(path, args.level, args.volume, args.case)
+            write_report(_drawable(resolved), target, units=args.units)
         except (CommandError, ValueError) as exc:
             problem = str(exc)
         except OSError as exc:
@@ -545,8 +753,8 @@ def main(argv):
         from wetline.app.window.launch import launch
 
         return launch(argv[0] if argv else None)
-    handlers = {"solve": _cmd_solve, "table": _cmd_table, "export": _cmd_export,
-                "import": _cmd_import, "report": _cmd_report}
+    handlers = {"solve": _cmd_solve, "cases": _cmd_cases, "table": _cmd_table,
+                "export": _cmd_export, "import": _cmd_import, "report": _cmd_report}
     try:
         with warnings.catch_warnings():
             # A numeric warning means numbers out of range slipped past the

@@ -10,8 +10,8 @@ A copy is three files named by one id:
 
 ``<id>.section.json``
     the document's design (its load cases, structure and ground with it),
-    an ordinary section file written through the document's one file seam
-    (:mod:`wetline.app.model.design_file`), so it opens like any other;
+    an ordinary section file (:func:`wetline.core.section_file.dumps_design`),
+    so it opens like any other;
 ``<id>.recovery.json``
     what the copy is: ``{"format": "wetline-recovery", "version": 1,
     "name": ..., "saved_at": ISO 8601 time, "original_path": str or null}``;
@@ -44,8 +44,7 @@ from PySide6.QtCore import QLockFile, QObject, QStandardPaths, QTimer, Signal
 from wetline.core.atomic_write import write_atomically
 from wetline.core.case import Case
 from wetline.core.load_cases import Design
-
-from . import design_file
+from wetline.core.section_file import dumps_design, read_design
 
 if TYPE_CHECKING:
     from .document import Document
@@ -167,7 +166,7 @@ def write_copy(folder: str | os.PathLike[str], copy_id: str, case: Design | Case
     folder.mkdir(parents=True, exist_ok=True)
     saved_at = saved_at or _now()
     section_path = folder / (copy_id + SECTION_SUFFIX)
-    write_atomically(section_path, design_file.dumps(design_to_save(case)))
+    write_atomically(section_path, dumps_design(design_to_save(case)))
     copy = RecoveryCopy(copy_id, str(name), saved_at,
                         None if original_path is None else str(original_path), section_path)
     sidecar = {"format": FORMAT, "version": VERSION, "name": copy.name,
@@ -249,7 +248,7 @@ def read_copy(copy: RecoveryCopy) -> Design:
     wetline.core.section_file.SectionFileError
         The copy cannot be read (the message names the file and the fault).
     """
-    return design_file.read(copy.section_path)
+    return read_design(copy.section_path)
 
 
 class Autosaver(QObject):

@@ -24,7 +24,7 @@ from PySide6.QtWidgets import (
     QWidget,
 )
 
-from wetline.app.model import design_file, editing, recovery
+from wetline.app.model import editing, recovery
 from wetline.app.model.display import DisplayChoice
 from wetline.app.model.document import UNDO_LIMIT, Document
 from wetline.app.window import dialogs
@@ -40,7 +40,7 @@ from wetline.core.load_cases import LoadCaseError
 from wetline.core.numbers import format_number
 from wetline.core.results import CAUTION
 from wetline.core.section import SectionError
-from wetline.core.section_file import SectionFileError
+from wetline.core.section_file import SectionFileError, read_design, write_design
 from wetline.core.structure import Ground, StructureError
 
 __all__ = ["MainWindow"]
@@ -630,7 +630,7 @@ class MainWindow(QMainWindow):
         if ask and not self.maybe_save():
             return False
         try:
-            design = design_file.read(path)
+            design = read_design(path)
         except SectionFileError as exc:
             dialogs.show_error(self, "Cannot open the file", str(exc))
             return False
@@ -662,7 +662,7 @@ class MainWindow(QMainWindow):
     def _write(self, path):
         design = recovery.design_to_save(self.doc.design)
         try:
-            design_file.write(design, path)
+            write_design(design, path)
         except OSError as exc:
             dialogs.show_error(self, "Cannot save", f"{path}: {exc.strerror or exc}")
             return False

@@ -205,7 +205,7 @@ def test_seawater_bad_numbers_are_refused(temperature, salinity):
 
 
 def test_listed_liquids_structure():
-    assert 8 <= len(LISTED_LIQUIDS) <= 12
+    assert 8 <= len(LISTED_LIQUIDS) <= 20
     for key, liquid in LISTED_LIQUIDS.items():
         assert isinstance(liquid, Liquid)
         assert key == liquid.name == liquid.preset
@@ -215,6 +215,31 @@ def test_listed_liquids_structure():
         assert math.isfinite(liquid.density) and liquid.density > 0
         assert liquid.source.strip()
         assert liquid.temperature is not None and liquid.salinity is None
+
+
+@pytest.mark.parametrize("name, lo, hi", [
+    # Ranges of the sources quoted (from memory, as each source says).
+    ("raw sewage", 1000.0, 1020.0),
+    ("activated sludge", 1002.0, 1005.0),
+    ("primary sludge", 1010.0, 1030.0),
+    ("fats, oils and grease", 860.0, 930.0),
+    ("light fuel oil", 820.0, 860.0),
+    ("diesel fuel", 820.0, 845.0),  # EN 590 limits at 15 C
+])
+def test_liquids_of_wastewater_and_fuel_tanks(name, lo, hi):
+    liquid = LISTED_LIQUIDS[name]
+    assert lo <= liquid.density <= hi
+    assert "from memory" in liquid.source
+
+
+def test_the_new_names_people_use():
+    assert listed_liquid("diesel") is LISTED_LIQUIDS["diesel fuel"]
+    assert listed_liquid("Sewage") is LISTED_LIQUIDS["raw sewage"]
+    assert listed_liquid("grease") is LISTED_LIQUIDS["fats, oils and grease"]
+    assert listed_liquid("FOG") is LISTED_LIQUIDS["fats, oils and grease"]
+    assert listed_liquid("heating oil") is LISTED_LIQUIDS["light fuel oil"]
+    # Sewage carries fat: the lighter liquid floats on the heavier one.
+    assert LISTED_LIQUIDS["fats, oils and grease"].density < LISTED_LIQUIDS["raw sewage"].density
 
 
 def test_listed_liquids_cannot_be_changed():

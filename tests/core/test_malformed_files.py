@@ -187,8 +187,8 @@ def test_not_a_section_file_comes_before_anything_else():
 
 
 def test_a_newer_version_is_said_before_its_unknown_keys():
-    m = refused(tank(version=3, structure={"walls": []}))
-    assert m.startswith("section file version 3 is newer than this program reads")
+    m = refused(tank(version=4, pumps={"walls": []}))
+    assert m.startswith("section file version 4 is newer than this program reads")
 
 
 # ------------------------------------------------------- every range, by key
@@ -232,7 +232,7 @@ def test_huge_integers_in_the_fluid_are_refused_in_one_line():
 def test_a_huge_version_is_shown_briefly():
     text = replace_number(tank(), '"version": 1', '"version": ' + "9" * 290)
     assert refused(text) == ("section file version 999999999999999999999... is newer than "
-                             "this program reads (up to 2); use a newer Wetline")
+                             "this program reads (up to 3); use a newer Wetline")
 
 
 # -------------------------------------------- the same ranges, in the engine

@@ -50,7 +50,7 @@ def message(data):
     (tank(format="wetline-results"), 'format must be "wetline-section", not "wetline-results"'),
     (tank(version=None), "missing key 'version'"),
     (tank(version=-1), "version must be a whole number >= 1, not -1"),
-    (tank(version=3), "section file version 3 is newer than this program reads (up to 2); "
+    (tank(version=4), "section file version 4 is newer than this program reads (up to 3); "
                       "use a newer Wetline"),
     (tank(colour="blue"), "unknown key 'colour'"),
     (tank(report={"project": "x"}),

@@ -54,8 +54,15 @@ def test_solve_json_follows_the_results_spec(capsys, sample_path):
     # The spec's equilibrium check, to round-off.
     w = rec["fluid_weight"]
     assert rec["floor_force"] + rec["support_reaction"] == pytest.approx(w, rel=1e-9, abs=1e-9)
-    assert rec["fluid_weight"] == pytest.approx(rec["density"] * rec["gravity"] * rec["volume"],
-                                                rel=1e-12)
+    # Section format v3: the weight of all layers; density is the bottom one's.
+    layers = rec["layers"]
+    assert rec["fluid_weight"] == pytest.approx(
+        sum(la["density"] * rec["gravity"] * la["volume"] for la in layers), rel=1e-12)
+    assert rec["volume"] == pytest.approx(sum(la["volume"] for la in layers), rel=1e-12)
+    assert rec["density"] == layers[0]["density"]
+    if len(layers) == 1:
+        assert rec["fluid_weight"] == pytest.approx(
+            rec["density"] * rec["gravity"] * rec["volume"], rel=1e-12)
     floor = sum(e["fz"] for e in rec["edges"] if e["part"] == "floor")
     assert rec["floor_force"] == pytest.approx(-floor, rel=1e-12, abs=1e-12)
     if not sec.is_axisymmetric:

@@ -94,13 +94,14 @@ def test_each_command_gives_one_line_and_exit_2(kind, tmp_path):
 RANGE_SLIPS_THROUGH = textwrap.dedent("""\
     import sys
     import numpy as np
-    import wetline.core.case as case_module
+    import wetline.core.load_cases as load_cases
     from wetline.app.cli.main import main
 
-    def overflowing_solve(self, level=None):
+    def overflowing_solve(self):
         return np.float64(1e308) * np.float64(10.0)  # as if a range check were missing
 
-    case_module.Case.solve = overflowing_solve
+    # The one place a load case is solved (the command line solves load cases).
+    load_cases.ResolvedCase.solve = overflowing_solve
     print(main(["solve", sys.argv[1]]))
 """)
 
