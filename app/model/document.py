@@ -41,6 +41,7 @@ from wetline.core.case import Case
 from wetline.core.force_scope import ForceScope, force_scale
 from wetline.core.hydrostatics import Solution
 from wetline.core.level_table import LevelTable, level_table
+from wetline.core.numbers import set_figures
 from wetline.core.section import Section, SectionError
 
 from .display import DisplayChoice
@@ -154,6 +155,7 @@ class Document(QObject):
         if not isinstance(case, Case):
             raise TypeError("a Document holds a core.case.Case")
         self._case = case
+        set_figures(case.report.significant_figures)  # the document's precision policy
         self._saved_case: Case | None = case if saved else None
         self._path: str | None = None if path is None else str(path)
         self._units = DisplayChoice()
@@ -336,6 +338,10 @@ class Document(QObject):
             self.upliftInputsChanged.emit()
         if old.report != case.report:
             self.reportChanged.emit()
+            if old.report.significant_figures != case.report.significant_figures:
+                # The precision policy: every view writes its numbers again.
+                set_figures(case.report.significant_figures)
+                self.unitsChanged.emit()
         if section_changed or liquid_changed or fill_changed:
             self._need_solve = True
             self._need_table = self._need_table or section_changed or liquid_changed
@@ -360,6 +366,7 @@ class Document(QObject):
         self._preview = None
         self._preview_marked = self._results_of_preview = False
         self._case = case
+        set_figures(case.report.significant_figures)  # the document's precision policy
         self.draftChanged.emit()
         self.previewChanged.emit()
         self.sectionChanged.emit()

@@ -289,12 +289,17 @@ def set_required_factor(doc: Document, factor: float) -> None:
 
 
 _REPORT_WORDS = (("project", "project"), ("job_reference", "job reference"),
-                 ("prepared_by", "prepared by"))
+                 ("prepared_by", "prepared by"),
+                 ("calculation_reference", "calculation reference"),
+                 ("revision", "revision"), ("checked_by", "checked by"),
+                 ("approved_by", "approved by"), ("revisions", "revision history"),
+                 ("significant_figures", "significant figures"))
 
 
 def set_report_info(doc: Document, report: ReportInfo) -> bool:
-    """Set the calculation sheet's header fields ("Sheet header: project,
-    job reference"); nothing if they are unchanged.
+    """Set the calculation sheet's header, document control and precision
+    policy ("Sheet header: project, checked by"); one undo step, nothing if
+    they are unchanged.
 
     Returns
     -------

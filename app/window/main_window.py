@@ -210,8 +210,9 @@ class MainWindow(QMainWindow):
             "Replace the outline by a list of x, z (and part) in the display length unit")
         a["import_csv"].setIconText("Import CSV")
         a["report_info"] = self._action(
-            "Calculation sheet &header...", self.edit_report_info, None,
-            "Project, job reference and prepared by, printed on every page of the sheet")
+            "Calculation sheet &header and precision...", self.edit_report_info, None,
+            "Project, references, sign-off, revision history and the significant figures of "
+            "results, printed on the sheet")
         a["quit"] = self._action("&Quit", self.close, S.Quit)
         a["preferences"] = self._action(
             "Pre&ferences...", self.edit_preferences, None,
