@@ -17,7 +17,8 @@ from wetline.core.section import AXIS, FLOOR, OPEN
 
 __all__ = [
     "INK", "MUTED", "RULE", "LIQUID", "LIQUID_GHOST", "SURFACE", "DIAGRAM_FILL",
-    "DIAGRAM_LINE", "DIAGRAM_TEXT", "LOAD", "UPLIFT", "OPEN_EDGE", "FLOOR_COLOUR",
+    "DIAGRAM_LINE", "DIAGRAM_TEXT", "LOAD", "UPLIFT", "LOAD_EDGE", "UPLIFT_EDGE",
+    "OPEN_EDGE", "FLOOR_COLOUR",
     "LEVEL_SERIES", "LEVEL_MARK",
     "PART_COLOURS", "part_colours", "OK_COLOUR", "NOT_OK_COLOUR",
     "FONT_FAMILY", "Fonts", "pixel_font", "point_font",
@@ -46,6 +47,10 @@ LOAD = "#a61e2d"
 """A resultant pressing a part outward or down."""
 UPLIFT = "#5a2fa6"
 """A resultant lifting a part."""
+LOAD_EDGE = "#b8646c"
+"""The value of one run of a part's edges (lighter than a part's total)."""
+UPLIFT_EDGE = "#8a6fbd"
+"""The value of one run lifting a part (lighter than a part's total)."""
 OPEN_EDGE = "#8c96a1"
 """Open edges (no wall) and the axis."""
 FLOOR_COLOUR = "#6b4a2b"

@@ -34,6 +34,7 @@ from wetline.app.window.canvas_labels import CanvasLabels
 from wetline.app.window.grid import LightGrid
 from wetline.app.window.load_layer import LoadLayer
 from wetline.app.window.outline_layer import OutlineLayer
+from wetline.app.window.snap import SnapGrid
 from wetline.app.window.vertex_handles import MAX_HANDLES, VertexHandles
 from wetline.app.window.view_range import smallest_span, usable_range
 
@@ -53,9 +54,10 @@ class SectionCanvas(pg.PlotWidget):
         super().__init__(parent, background="w")
         self._doc = document
         self._mode = "edit"
-        self.snap_enabled = False
-        self.snap_spacing = 0.1
-        """Snap grid spacing [m]."""
+        u = document.units
+        self.snap_grid = SnapGrid(u.length_unit, float(u.length_si(1.0)))
+        """Where points made with the mouse land (on by default, a round
+        number of the display unit)."""
         self._solution = None
         self._first_fit = True
         self._outline_dirty = True
@@ -75,6 +77,7 @@ class SectionCanvas(pg.PlotWidget):
         self._redraw_timer.setInterval(0)
         self._redraw_timer.timeout.connect(self.redraw)
         self._connect(document)
+        self._apply_units()
         self.schedule(outline=True)
 
     def _set_up_view(self):
@@ -151,12 +154,30 @@ class SectionCanvas(pg.PlotWidget):
         """Fit the view once the next results are drawn (a file opened)."""
         self._first_fit = True
 
+    @property
+    def snap_enabled(self):
+        """True if points made with the mouse snap to the grid."""
+        return self.snap_grid.enabled
+
+    @snap_enabled.setter
+    def snap_enabled(self, on):
+        self.snap_grid.enabled = bool(on)
+
+    @property
+    def snap_spacing(self):
+        """Snap grid spacing [m] (a round number of the display unit)."""
+        return self.snap_grid.spacing
+
+    @snap_spacing.setter
+    def snap_spacing(self, metres):
+        self.snap_grid.set_spacing(metres)
+
     def snap(self, x, z):
-        """(x, z) [m] on the snap grid, if snapping is on."""
-        if self.snap_enabled and self.snap_spacing > 0:
-            s = self.snap_spacing
-            return round(x / s) * s, round(z / s) * s
-        return x, z
+        """(x, z) [m] of a point made with the mouse: on the snap grid if
+        snapping is on, else rounded to the 1-2-5 step of the display unit
+        under one screen pixel (:class:`wetline.app.window.snap.SnapGrid`)."""
+        px = self.getPlotItem().getViewBox().viewPixelSize()
+        return self.snap_grid.point(x, z, pixel=min(px) if px[0] > 0 and px[1] > 0 else None)
 
     def schedule(self, outline=False):
         """Redraw at the next event-loop turn (the outline too, if asked)."""
@@ -181,7 +202,25 @@ class SectionCanvas(pg.PlotWidget):
         self.schedule()
 
     def _on_unitsChanged(self):
+        self._apply_units()
         self.schedule()
+
+    def _apply_units(self):
+        """The axes, their grid and the snap spacing in the display length
+        unit (ft or in in US): the view stays in metres, the ticks are
+        round numbers of the unit shown."""
+        u = self._doc.units
+        per_m = float(u.length(1.0))  # display units per metre
+        plot = self.getPlotItem()
+        r = "r" if self._doc.section.is_axisymmetric else "x"
+        for name, text in (("bottom", f"{r} [{u.length_unit}]"),
+                           ("left", f"z [{u.length_unit}]")):
+            axis = plot.getAxis(name)
+            axis.enableAutoSIPrefix(False)
+            axis.setScale(per_m)
+            axis.setLabel(text)
+        self._grid.set_scale(per_m, per_m)
+        self.snap_grid.follow_units(u)
 
     def _on_diagramScaleChanged(self):
         self.schedule()

@@ -11,6 +11,8 @@ fill level.
 
 from __future__ import annotations
 
+import math
+
 import pyqtgraph as pg
 from PySide6.QtCore import Qt
 
@@ -18,12 +20,15 @@ from wetline.app.model import editing
 from wetline.app.model.document import fill_range
 from wetline.app.render.style import LEVEL_MARK, LEVEL_SERIES, part_colours
 from wetline.app.window.grid import LightGrid
+from wetline.app.window.outer_legend import legend_outside
 from wetline.app.window.view_range import smallest_span, usable_range
 from wetline.core.section import FLOOR
 
 __all__ = ["LoadChart"]
 
 CURSOR_COLOUR = LEVEL_MARK
+LEGEND_ROWS = 6
+"""Entries per column of the legend right of the curves."""
 
 
 class LoadChart(pg.PlotWidget):
@@ -36,7 +41,8 @@ class LoadChart(pg.PlotWidget):
         self._grid = LightGrid(plot.getViewBox())
         plot.setMenuEnabled(False)
         plot.hideButtons()
-        self._legend = plot.addLegend(offset=(8, 8), labelTextSize="8pt")
+        # Right of the curves, outside the data (never over a curve).
+        self._legend = legend_outside(plot, "right")
         # The ranges are set from the level table (never left to pyqtgraph's
         # auto-range, which hands a view the empty range of constant data).
         plot.getViewBox().disableAutoRange()
@@ -96,6 +102,8 @@ class LoadChart(pg.PlotWidget):
                 plot.removeItem(c)
             self._curves = [plot.plot(name=name, pen=pg.mkPen(colour, width=2, style=style))
                             for _, name, colour, style in series]
+            # One column of up to six entries beside the curves, then more columns.
+            self._legend.fit_columns(math.ceil(len(series) / LEGEND_ROWS))
             self._series_key = key
         scope = self._doc.force_scope(section)
         ys = [scope.to_display(y) for y, *_rest in series]

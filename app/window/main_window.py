@@ -34,7 +34,8 @@ from wetline.app.window.files import Transfer
 from wetline.app.window.panels import FillPanel, LiquidPanel, TotalsPanel, parse_number
 from wetline.app.window.tables import EdgesTable, PartsTable, VerticesPane, VerticesTable
 from wetline.app.window.uplift_panel import UpliftPanel
-from wetline.core.numbers import format_number
+from wetline.core.number_input import parse_decimal
+from wetline.core.numbers import format_entered, format_number
 from wetline.core.results import CAUTION
 from wetline.core.section import SectionError
 from wetline.core.section_file import SectionFileError, read_section_file, write_section_file
@@ -338,7 +339,8 @@ class MainWindow(QMainWindow):
         tb.addAction(a["fit"])
         tb.addSeparator()
         self.snap_box = QCheckBox("Snap")
-        self.snap_box.setToolTip("Snap vertices to a grid")
+        self.snap_box.setToolTip("Snap vertices to a grid of round numbers of the display unit")
+        self.snap_box.setChecked(self.canvas.snap_enabled)
         self.snap_spacing = QLineEdit()
         self.snap_spacing.setMaximumWidth(70)
         self.snap_spacing.setToolTip("Snap grid spacing (display length unit)")
@@ -417,7 +419,7 @@ class MainWindow(QMainWindow):
             w.blockSignals(True)
         self.units_combo.setCurrentIndex(i)
         self.actions_by_name["units"][i].setChecked(True)
-        self.snap_spacing.setText(format_number(u.length(self.canvas.snap_spacing), 4))
+        self.snap_spacing.setText(format_entered(self.canvas.snap_grid.step))
         self.snap_unit.setText(u.length_unit + " ")
         p = u.units.label("pressure")
         self.scale_unit.setText(f"{p} per {u.length_unit} ")
@@ -449,13 +451,14 @@ class MainWindow(QMainWindow):
 
     def _on_snap_spacing_edited(self):
         try:
-            v = parse_number(self.snap_spacing.text(), "Snap spacing")
+            v = parse_decimal(self.snap_spacing.text(), "Snap spacing")
             if not v > 0:
                 raise ValueError("Snap spacing must be positive")
         except ValueError as exc:
             self._status(str(exc))
+            self.snap_spacing.setText(format_entered(self.canvas.snap_grid.step))
             return
-        self.canvas.snap_spacing = self.doc.units.length_si(v)
+        self.canvas.snap_grid.set_step(v)
 
     def _on_scale_edited(self, *_):
         u = self.doc.units
