@@ -22,7 +22,8 @@ from wetline.core.section import AXIS, OPEN
 __all__ = ["CORNER_COS", "is_corner", "WettedEdges", "wetted_edges", "auto_scale",
            "diagram_polygons", "chain_starts", "carrying_edges", "axis_edges",
            "pressure_arrows", "arrow_strokes", "PartRun", "part_runs", "run_resultants",
-           "LoadMark", "load_marks", "edges_words",
+           "LoadMark", "load_marks", "edges_words", "Level", "dimension_levels",
+           "numbered", "outer_wetted_edges",
            "surface_spans", "liquid_rings", "PressureSite", "pressure_sites"]
 
 
@@ -539,3 +540,104 @@ def pressure_sites(w, n_vertices, limit=16):
         sites.append(PressureSite(float(px[starts[g]]), float(pz[starts[g]]), float(at[g]),
                                   tuple((float(w.nx[k]), float(w.nz[k])) for k in ks)))
     return sites
+
+
+@dataclass(frozen=True)
+class Level:
+    """A level a drawing dimensions: its height [m] and what is there
+    (``"floor"``, ``"free surface"`` ... joined by " = " where they meet)."""
+
+    z: float
+    name: str
+
+
+def dimension_levels(section, solution, *, groundwater=None, ground=None, interfaces=()):
+    """The levels that matter, lowest first: the floor (the section's lowest
+    point), the free surface, the spill level (open) or the top (closed),
+    liquid interfaces, the groundwater and the ground surface where there
+    are any. Levels within a millionth of the section's height of each other
+    are one, named by all.
+
+    Parameters
+    ----------
+    section : Section
+    solution : Solution
+    groundwater : float, optional
+        Groundwater level [m].
+    ground : float, optional
+        Ground surface level [m].
+    interfaces : sequence of (str, float)
+        Interfaces between liquid layers: (name, level [m]).
+
+    Returns
+    -------
+    list of Level
+    """
+    size = max(section.z_max - section.z_min, 1e-12)
+    found = [(section.z_min, "floor")]
+    if solution.level > section.z_min:
+        found.append((solution.level, "free surface (standpipe)" if solution.head_above_top > 0
+                      else "free surface"))
+    if section.is_open:
+        found.append((section.spill_level, "spill level"))
+        if section.z_max > section.spill_level + 1e-6 * size:
+            found.append((section.z_max, "top"))
+    else:
+        found.append((section.z_max, "top"))
+    found += [(float(z), str(name)) for name, z in interfaces]
+    if groundwater is not None:
+        found.append((float(groundwater), "groundwater"))
+    if ground is not None:
+        found.append((float(ground), "ground"))
+    found.sort(key=lambda zn: zn[0])
+    out = []
+    for z, name in found:
+        if out and abs(z - out[-1].z) <= 1e-6 * size:
+            if name not in out[-1].name.split(" = "):
+                out[-1] = Level(out[-1].z, f"{out[-1].name} = {name}")
+            continue
+        out.append(Level(float(z), name))
+    return out
+
+
+def numbered(section, limit=48):
+    """The vertices and edges a sketch numbers: all of them up to ``limit``,
+    else every k-th (k = ceil(n / limit)) and every corner (walls meeting at
+    more than 10 degrees), vertex 0 and edge 0 always.
+
+    Returns
+    -------
+    vertices, edges : numpy.ndarray of int
+        Indices, ascending.
+    """
+    n = section.n_edges
+    if n <= limit:
+        every = np.arange(n)
+        return every, every
+    k = math.ceil(n / limit)
+    geo = section.geometry
+    corner = is_corner(np.roll(geo.nx, 1), np.roll(geo.nz, 1), geo.nx, geo.nz)
+    picks = np.zeros(n, dtype=bool)
+    picks[::k] = True
+    vertices = np.flatnonzero(picks | corner)
+    if vertices.size > 2 * limit:  # a jagged outline: every k-th only
+        vertices = np.flatnonzero(picks)
+    return vertices, np.flatnonzero(picks)
+
+
+def outer_wetted_edges(structure, cavity, level, density, gravity):
+    """:class:`WettedEdges` of the groundwater on the outer face of a
+    structure (a :class:`wetline.core.structure.Structure` around
+    ``cavity``) standing at ``level`` [m]: the pressure rho g (level - z)
+    on every outer edge below it, with the normals pointing away from the
+    structure, so its diagram is drawn outside the structure, in the ground.
+
+    Returns
+    -------
+    WettedEdges
+    """
+    from wetline.core.hydrostatics import solve
+
+    outer = structure.section(cavity)
+    return wetted_edges(solve(outer, float(level), float(density), float(gravity)),
+                        np.ones(outer.n_edges, dtype=bool) & ~axis_edges(outer))
