@@ -31,12 +31,15 @@ from PySide6.QtCore import Qt, QTimer, Signal
 from wetline.app.render.geometry import auto_scale
 from wetline.app.window.canvas_editing import RESERVED_PART_CHOICES, OutlineEditor
 from wetline.app.window.canvas_labels import CanvasLabels
+from wetline.app.window.draw_input import STARTS
 from wetline.app.window.grid import LightGrid
 from wetline.app.window.load_layer import LoadLayer
 from wetline.app.window.outline_layer import OutlineLayer
+from wetline.app.window.parts_proposal import PartsProposal
 from wetline.app.window.snap import SnapGrid
 from wetline.app.window.vertex_handles import MAX_HANDLES, VertexHandles
 from wetline.app.window.view_range import smallest_span, usable_range
+from wetline.core.numbers import format_entered
 
 __all__ = ["SectionCanvas", "RESERVED_PART_CHOICES"]
 
@@ -49,6 +52,9 @@ class SectionCanvas(pg.PlotWidget):
     message = Signal(str)
     """A short message for the status bar (an edit that was refused ...)."""
     modeChanged = Signal(str)
+    typedStart = Signal(str)
+    """A number key typed on the canvas while drawing: the typed-vertex
+    field (:class:`wetline.app.window.draw_input.DrawInput`) takes it."""
 
     def __init__(self, document, parent=None):
         super().__init__(parent, background="w")
@@ -59,6 +65,8 @@ class SectionCanvas(pg.PlotWidget):
         """Where points made with the mouse land (on by default, a round
         number of the display unit)."""
         self._solution = None
+        self.pointer = None
+        """Where the pointer last was over the view (x, z) [m], or None."""
         self._first_fit = True
         self._outline_dirty = True
         self.confirm_new_section = lambda: True
@@ -71,6 +79,8 @@ class SectionCanvas(pg.PlotWidget):
         self.labels = CanvasLabels(vb, self)
         self.editor = OutlineEditor(self, document)
         self.handles = VertexHandles(self.editor.pick_vertex)
+        self.proposal = PartsProposal(self, document)
+        """The parts proposed for an outline just drawn, with one click to change."""
         vb.addItem(self.handles)
         self._redraw_timer = QTimer(self)
         self._redraw_timer.setSingleShot(True)
@@ -114,6 +124,11 @@ class SectionCanvas(pg.PlotWidget):
     def mode(self):
         return self._mode
 
+    @property
+    def display_units(self):
+        """The document's display units (:class:`wetline.app.model.display.DisplayChoice`)."""
+        return self._doc.units
+
     def set_mode(self, mode):
         """``"edit"`` (drag, select, insert) or ``"draw"`` (click a new outline)."""
         if mode not in ("edit", "draw"):
@@ -121,9 +136,12 @@ class SectionCanvas(pg.PlotWidget):
         if mode != self._mode:
             self._mode = mode
             self.editor.clear_drawing()
+            if mode == "draw":
+                self.proposal.hide()
             self.modeChanged.emit(mode)
-            self.message.emit("Click the vertices of the new outline; double-click or Enter "
-                              "closes it, Esc cancels" if mode == "draw" else "")
+            self.message.emit("Click the vertices of the new outline, or type each in the "
+                              "Next vertex field; double-click or Enter closes it, Esc "
+                              "cancels" if mode == "draw" else "")
 
     def fit(self):
         """Show the whole section with its diagrams and resultants."""
@@ -279,6 +297,7 @@ class SectionCanvas(pg.PlotWidget):
         if not self.getPlotItem().getViewBox().sceneBoundingRect().contains(scene_pos):
             return
         x, z = self._view_point(scene_pos)
+        self.pointer = (x, z)
         self.hoverText.emit(self.describe_point(x, z))
         if self._mode == "draw" and self.editor.drawn:
             self.outline_layer.show_sketch(self.editor.drawn + [self.snap(x, z)])
@@ -290,6 +309,9 @@ class SectionCanvas(pg.PlotWidget):
         self.editor.on_click(x, z, ev.button(), ev.double(), ev.screenPos())
 
     def keyPressEvent(self, ev):
+        if self._mode == "draw" and ev.text() and ev.text() in STARTS:
+            self.typedStart.emit(ev.text())
+            return
         if not self.editor.on_key(ev.key()):
             super().keyPressEvent(ev)
 
@@ -298,6 +320,11 @@ class SectionCanvas(pg.PlotWidget):
         units = self._doc.units
         sol = self._solution
         text = f"x {units.fmt_length(x)}   z {units.fmt_length(z)}"
+        if self._mode == "draw":  # where a click would put the vertex
+            sx, sz = self.snap(x, z)
+            text = (f"x {format_entered(units.length(sx))} {units.length_unit}   "
+                    f"z {format_entered(units.length(sz))} {units.length_unit}   "
+                    f"(snap {self.snap_grid.text() if self.snap_enabled else 'off'})")
         if sol is None:
             return text
         depth = sol.level - z

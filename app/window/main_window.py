@@ -30,6 +30,7 @@ from wetline.app.model.document import UNDO_LIMIT, Document
 from wetline.app.window import dialogs
 from wetline.app.window.canvas import SectionCanvas
 from wetline.app.window.chart import LoadChart
+from wetline.app.window.draw_input import DrawInput
 from wetline.app.window.files import Transfer
 from wetline.app.window.panels import FillPanel, LiquidPanel, TotalsPanel, parse_number
 from wetline.app.window.tables import EdgesTable, PartsTable, VerticesPane, VerticesTable
@@ -136,6 +137,9 @@ class MainWindow(QMainWindow):
 
         self.hover = QLabel()
         self.statusBar().addWidget(self.hover, 1)
+        # While drawing: the next vertex, typed (coordinates, or a length and a way).
+        self.draw_input = DrawInput(self.canvas)
+        self.statusBar().addPermanentWidget(self.draw_input)
         self._build_menus()
         self._build_toolbar()
 
@@ -380,6 +384,8 @@ class MainWindow(QMainWindow):
     def _status(self, text):
         if text:
             self.statusBar().showMessage(text, 8000)
+        else:  # a hint that no longer holds (the drawing hint once drawn)
+            self.statusBar().clearMessage()
 
     def _on_pathChanged(self):
         if self.doc.path:
