@@ -12,7 +12,7 @@ edge by edge (right-click an edge, or the vertex table).
 
 from __future__ import annotations
 
-from PySide6.QtWidgets import QFrame, QHBoxLayout, QLabel, QPushButton
+from PySide6.QtWidgets import QFrame, QHBoxLayout, QLabel, QPushButton, QVBoxLayout
 
 from wetline.app.model import editing
 from wetline.app.render.geometry import edges_words
@@ -42,16 +42,21 @@ class PartsProposal(QFrame):
         self.setObjectName("partsProposal")
         self.setStyleSheet("#partsProposal { background: #fff8e1; border: 1px solid #e0c878; "
                            "border-radius: 3px; }")
-        lay = QHBoxLayout(self)
-        lay.setContentsMargins(8, 4, 4, 4)
+        lay = QVBoxLayout(self)
+        lay.setContentsMargins(8, 4, 6, 4)
+        lay.setSpacing(3)
         self.text = QLabel()
+        self.text.setWordWrap(True)
         lay.addWidget(self.text)
+        row = QHBoxLayout()
+        lay.addLayout(row)
         self.keep = QPushButton("Keep")
         self.closed = QPushButton("Top closed (roof)")
         self.walls = QPushButton("All walls")
         for b in (self.keep, self.closed, self.walls):
             b.setAutoDefault(False)
-            lay.addWidget(b)
+            row.addWidget(b)
+        row.addStretch(1)
         self.keep.clicked.connect(self.hide)
         self.closed.clicked.connect(self.close_top)
         self.walls.clicked.connect(self.all_walls)
@@ -64,8 +69,10 @@ class PartsProposal(QFrame):
         self._parts = tuple(parts)
         self.text.setText(proposal_text(parts))
         self.closed.setEnabled(OPEN in parts)
+        room = max(self.parentWidget().width() - 80, 260)
+        self.setFixedWidth(min(max(self.sizeHint().width(), 320), room))
         self.adjustSize()
-        self.move(56, 30)
+        self.move(60, 30)
         self.show()
         self.raise_()
 
