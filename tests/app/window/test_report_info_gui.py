@@ -67,3 +67,27 @@ def test_figures_are_one_undo_step_and_every_view_follows(make_window, monkeypat
     settle(w)
     assert figures() == 4 and floor_down() == before
     assert editing.set_report_info(w.doc, ReportInfo(significant_figures=4)) is False
+
+
+def test_the_window_and_the_sheet_write_the_same_numbers(make_window, settle, qapp):
+    # One policy: at 5 figures the totals panel and the sheet print the same
+    # floor force and liquid weight (and neither at 4).
+    import io
+
+    import pypdf
+
+    from wetline.app.render.sheet import report_pdf_bytes
+    from wetline.core.numbers import format_number
+
+    w = make_window()
+    editing.set_report_info(w.doc, ReportInfo(significant_figures=5))
+    settle(w)
+    case, sol = w.doc.case, w.doc.solution
+    text = " ".join(" ".join(p.extract_text().split()) for p in
+                    pypdf.PdfReader(io.BytesIO(report_pdf_bytes(case))).pages)
+    for key, value in (("floor", sol.floor_force), ("weight", sol.fluid_weight)):
+        shown = w.totals.values[key].text().split()[0]
+        assert shown == format_number(value / 1000, 5)
+        assert f"{shown} kN/m" in text
+    floor4 = format_number(sol.floor_force / 1000, 4)
+    assert floor4 != format_number(sol.floor_force / 1000, 5) and floor4 not in text.split()
