@@ -104,8 +104,9 @@ class ReportInfoDialog(QDialog):
         rl = QVBoxLayout(revs)
         form = QFormLayout()
         self.revision = QLineEdit(report.revision)
-        self.revision.setPlaceholderText("the last revision below")
-        self.revision.setMaximumWidth(120)
+        self.revision.setPlaceholderText("the last row below")
+        self.revision.setMaximumWidth(
+            self.revision.fontMetrics().horizontalAdvance("the last row below") + 24)
         form.addRow("Current revision", self.revision)
         rl.addLayout(form)
         self.history = QTableWidget(0, len(_HEADERS))
