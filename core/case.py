@@ -16,6 +16,7 @@ from .fill import FillError, capacity, level_for_volume
 from .hydrostatics import solve
 from .liquids import Liquid, fresh_water
 from .number_input import range_text
+from .numbers import DEFAULT_DIGITS, FIGURES_RANGE
 from .section import Section
 from .uplift import DEFAULT_REQUIRED_FACTOR, PartResistance
 
@@ -23,26 +24,178 @@ if TYPE_CHECKING:  # pragma: no cover - types only
     from .hydrostatics import Solution
     from .uplift import UpliftResult
 
-__all__ = ["Case", "CaseError", "ReportInfo"]
+__all__ = ["Case", "CaseError", "ReportInfo", "Revision", "REVISION_KEYS", "REPORT_KEYS"]
+
+
+REVISION_KEYS = ("revision", "date", "description", "prepared", "checked", "approved")
+"""The fields of one row of a sheet's revision history, in order."""
+
+_REPORT_TEXT_KEYS = ("project", "job_reference", "prepared_by", "calculation_reference",
+                     "revision", "checked_by", "approved_by")
+
+REPORT_KEYS = (*_REPORT_TEXT_KEYS, "revisions", "significant_figures")
+"""The keys of a section file's ``report`` object (docs/section-format-v2.md)."""
+
+
+@dataclass(frozen=True)
+class Revision:
+    """One row of a calculation sheet's revision history (all text).
+
+    Attributes
+    ----------
+    revision : str
+        The revision's mark ("A", "P1", "0") [].
+    date : str
+        When it was issued (ISO 8601 by habit, any text allowed).
+    description : str
+        What changed ("first issue", "levels to the new survey").
+    prepared, checked, approved : str
+        Who prepared, checked and approved it (initials or names).
+    """
+
+    revision: str = ""
+    date: str = ""
+    description: str = ""
+    prepared: str = ""
+    checked: str = ""
+    approved: str = ""
+
+    def __post_init__(self) -> None:
+        for name in REVISION_KEYS:
+            if not isinstance(getattr(self, name), str):
+                raise CaseError(f"revision {name} must be text")
+
+    @property
+    def is_empty(self) -> bool:
+        """True if no field is filled in."""
+        return not any(getattr(self, k) for k in REVISION_KEYS)
 
 
 @dataclass(frozen=True)
 class ReportInfo:
-    """Fields of a calculation sheet's header, kept with the case."""
+    """Fields of a calculation sheet's header and document control, and the
+    precision policy of the document's numbers; kept with the case.
+
+    Attributes
+    ----------
+    project, job_reference, prepared_by : str
+        Header fields of every page.
+    calculation_reference : str
+        The sheet's own reference in the calculation package.
+    revision : str
+        The current revision; empty: the last row of ``revisions``.
+    checked_by, approved_by : str
+        Sign-off fields beside ``prepared_by``.
+    revisions : tuple of Revision
+        The revision history, oldest first.
+    significant_figures : int
+        Significant figures of every result shown to people (tables,
+        labels, the sheet), within
+        :data:`wetline.core.numbers.FIGURES_RANGE`; default 4. Coordinates
+        and dimensions are shown as entered whatever this says, and files
+        and CSV keep full precision.
+    """
 
     project: str = ""
     job_reference: str = ""
     prepared_by: str = ""
+    calculation_reference: str = ""
+    revision: str = ""
+    checked_by: str = ""
+    approved_by: str = ""
+    revisions: tuple[Revision, ...] = ()
+    significant_figures: int = DEFAULT_DIGITS
 
     def __post_init__(self) -> None:
-        for name in ("project", "job_reference", "prepared_by"):
+        for name in _REPORT_TEXT_KEYS:
             if not isinstance(getattr(self, name), str):
                 raise CaseError(f"report {name.replace('_', ' ')} must be text")
+        revs = tuple(self.revisions)
+        for r in revs:
+            if not isinstance(r, Revision):
+                raise CaseError("report revisions must be Revision values")
+        object.__setattr__(self, "revisions", revs)
+        n = self.significant_figures
+        lo, hi = FIGURES_RANGE
+        if isinstance(n, bool) or not isinstance(n, int) or not lo <= n <= hi:
+            raise CaseError(f"report significant figures must be a whole number from {lo} "
+                            f"to {hi}, not {n!r}")
 
     @property
     def is_empty(self) -> bool:
-        """True if no header field is filled in."""
-        return not (self.project or self.job_reference or self.prepared_by)
+        """True if no field is filled in and the precision is the default."""
+        return (not any(getattr(self, k) for k in _REPORT_TEXT_KEYS) and not self.revisions
+                and self.significant_figures == DEFAULT_DIGITS)
+
+    @property
+    def current_revision(self) -> str:
+        """The revision the sheet is at: ``revision``, else the last
+        history row's mark, else empty."""
+        if self.revision:
+            return self.revision
+        return self.revisions[-1].revision if self.revisions else ""
+
+    def to_dict(self) -> dict[str, Any]:
+        """The section file's ``report`` object (format version 2): only
+        the keys that are filled in or differ from the default, in the
+        order of the format's description (``docs/section-format-v2.md``)."""
+        out: dict[str, Any] = {k: getattr(self, k) for k in _REPORT_TEXT_KEYS
+                               if getattr(self, k)}
+        if self.revisions:
+            out["revisions"] = [{k: getattr(r, k) for k in REVISION_KEYS if getattr(r, k)}
+                                for r in self.revisions]
+        if self.significant_figures != DEFAULT_DIGITS:
+            out["significant_figures"] = self.significant_figures
+        return out
+
+    @classmethod
+    def from_dict(cls, data: object) -> ReportInfo:
+        """The fields of a section file's ``report`` object, checked: every
+        key known, texts text, ``revisions`` a list of objects of
+        :data:`REVISION_KEYS`, ``significant_figures`` a whole number in
+        range; CaseError naming the key otherwise ("report.revisions[1]:
+        unknown key 'dte'").
+
+        >>> ReportInfo.from_dict({"checked_by": "RS", "revisions": [{"revision": "A"}]}
+        ...                      ).current_revision
+        'A'
+        """
+        if not isinstance(data, dict):
+            raise CaseError("report must be an object")
+        for key in data:
+            if key not in REPORT_KEYS:
+                raise CaseError(f"report: unknown key {key!r}")
+        values: dict[str, Any] = {}
+        for key in _REPORT_TEXT_KEYS:
+            if key in data:
+                if not isinstance(data[key], str):
+                    raise CaseError(f"report.{key} must be text")
+                values[key] = data[key]
+        rows = data.get("revisions", [])
+        if not isinstance(rows, list):
+            raise CaseError("report.revisions must be a list")
+        revs = []
+        for k, row in enumerate(rows):
+            where = f"report.revisions[{k}]"
+            if not isinstance(row, dict):
+                raise CaseError(f"{where} must be an object")
+            for key, v in row.items():
+                if key not in REVISION_KEYS:
+                    raise CaseError(f"{where}: unknown key {key!r}")
+                if not isinstance(v, str):
+                    raise CaseError(f"{where}.{key} must be text")
+            revs.append(Revision(**row))
+        values["revisions"] = tuple(revs)
+        if "significant_figures" in data:
+            n = data["significant_figures"]
+            if isinstance(n, float) and n.is_integer():
+                n = int(n)
+            lo, hi = FIGURES_RANGE
+            if isinstance(n, bool) or not isinstance(n, int) or not lo <= n <= hi:
+                raise CaseError(f"report.significant_figures must be a whole number from "
+                                f"{lo} to {hi}, not {n!r}")
+            values["significant_figures"] = n
+        return cls(**values)
 
 
 class CaseError(ValueError):

@@ -29,7 +29,7 @@ from dataclasses import dataclass
 
 import numpy as np
 
-from .numbers import DEFAULT_DIGITS, format_number, is_noise
+from .numbers import format_number, is_noise
 
 __all__ = ["ForceScope", "force_scope", "force_scale", "resistance_quantity", "RUN_LENGTHS"]
 
@@ -79,13 +79,13 @@ class ForceScope:
         (float or numpy array)."""
         return newtons / self.divisor
 
-    def number(self, newtons, digits: int = DEFAULT_DIGITS, scale: float | None = None) -> str:
+    def number(self, newtons, digits: int | None = None, scale: float | None = None) -> str:
         """``"12.35"``: the value in the display unit, for people. ``scale``
         [N]: the case's largest force; round-off below it shows as 0."""
         v = 0.0 if is_noise(newtons, scale) else self.to_display(newtons)
         return format_number(v, digits)
 
-    def text(self, newtons, digits: int = DEFAULT_DIGITS, scale: float | None = None) -> str:
+    def text(self, newtons, digits: int | None = None, scale: float | None = None) -> str:
         """``"12.35 kN/m"``: :meth:`number` and the unit."""
         return f"{self.number(newtons, digits, scale)} {self.label}"
 

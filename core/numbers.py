@@ -17,12 +17,74 @@ smaller than :data:`NOISE` of it prints as ``0``.
 
 from __future__ import annotations
 
+import contextlib
+import contextvars
 import math
+from collections.abc import Iterator
 
-__all__ = ["DEFAULT_DIGITS", "NOISE", "format_number", "is_noise", "nice_step"]
+__all__ = ["DEFAULT_DIGITS", "ENTERED_DIGITS", "FIGURES_RANGE", "NOISE", "Entered", "figures",
+           "format_entered", "format_number", "is_noise", "nice_step", "round_to_step",
+           "set_figures", "using_figures"]
 
 DEFAULT_DIGITS = 4
-"""Significant figures of a number shown to people."""
+"""Significant figures of a result shown to people, unless the document says
+otherwise (:func:`figures`)."""
+
+FIGURES_RANGE = (3, 6)
+"""Significant figures a document may ask for its results (inclusive)."""
+
+ENTERED_DIGITS = 12
+"""Significant figures a coordinate or dimension is echoed with at most
+(:func:`format_entered`): enough for anything typed, few enough to hide the
+last binary digits of a unit conversion (2.3 ft is 0.70104 m, which reads
+back as 2.3000000000000003 ft)."""
+
+_FIGURES: contextvars.ContextVar[int] = contextvars.ContextVar("wetline_figures",
+                                                              default=DEFAULT_DIGITS)
+
+
+def _checked_figures(n: int) -> int:
+    lo, hi = FIGURES_RANGE
+    if isinstance(n, bool) or not isinstance(n, int) or not lo <= n <= hi:
+        raise ValueError(f"significant figures must be a whole number from {lo} to {hi}, "
+                         f"not {n!r}")
+    return n
+
+
+def figures() -> int:
+    """The significant figures results are shown with now: the document's
+    precision policy (:func:`using_figures`), :data:`DEFAULT_DIGITS` unless set.
+
+    >>> figures()
+    4
+    """
+    return _FIGURES.get()
+
+
+def set_figures(n: int) -> contextvars.Token[int]:
+    """Make ``n`` significant figures the policy of this thread from now on
+    (the desktop program, for its open document); returns the token that
+    :meth:`contextvars.ContextVar.reset` takes. ValueError outside
+    :data:`FIGURES_RANGE`."""
+    return _FIGURES.set(_checked_figures(n))
+
+
+@contextlib.contextmanager
+def using_figures(n: int) -> Iterator[int]:
+    """Within the block, results are shown with ``n`` significant figures
+    (a sheet or a table of a document whose policy says so).
+
+    >>> with using_figures(5):
+    ...     format_number(2 / 3)
+    '0.66667'
+    >>> format_number(2 / 3)
+    '0.6667'
+    """
+    token = _FIGURES.set(_checked_figures(n))
+    try:
+        yield n
+    finally:
+        _FIGURES.reset(token)
 
 NOISE = 1e-12
 """A value smaller than this fraction of its scale is round-off: shown as 0."""
@@ -43,7 +105,7 @@ def is_noise(value, scale: float | None):
     return abs(value) < NOISE * abs(scale)
 
 
-def format_number(value: float | str | None, digits: int = DEFAULT_DIGITS, *,
+def format_number(value: float | str | None, digits: int | None = None, *,
                   scale: float | None = None) -> str:
     """``value`` with ``digits`` significant figures, for people.
 
@@ -51,8 +113,9 @@ def format_number(value: float | str | None, digits: int = DEFAULT_DIGITS, *,
     ----------
     value : float, str or None
         The number; text is passed through, None and NaN give ``-``.
-    digits : int
-        Significant figures, >= 1.
+    digits : int, optional
+        Significant figures, >= 1; default the precision policy in force
+        (:func:`figures`, 4 unless the document says otherwise).
     scale : float, optional
         The largest value of the same kind in the case [same unit as
         ``value``]: a value smaller than :data:`NOISE` of it is round-off
@@ -88,7 +151,7 @@ def format_number(value: float | str | None, digits: int = DEFAULT_DIGITS, *,
         return "inf" if v > 0 else "-inf"
     if v == 0 or is_noise(v, scale):
         return "0"
-    digits = max(int(digits), 1)
+    digits = max(int(figures() if digits is None else digits), 1)
     mantissa, exponent = f"{v:.{digits - 1}e}".split("e")
     e = int(exponent)
     if e in _PLAIN_EXPONENTS:
@@ -125,3 +188,61 @@ def nice_step(value: float, *, down: bool = False) -> float:
         if m * 10.0 ** e >= value - tol:
             return m * 10.0 ** e
     return 10.0 ** (e + 1) * 2.0
+
+
+def format_entered(value: float | str | None) -> str:
+    """A coordinate or dimension as it was entered: the shortest decimal
+    text that gives ``value`` back when rounded to :data:`ENTERED_DIGITS`
+    significant figures, in plain notation where
+    :func:`format_number` uses it; ``-`` for None or NaN.
+
+    Unlike a result, an input is not rounded to the policy's figures: a
+    vertex typed at 2.34567 m must not read as 2.346 m. Points drawn with
+    the mouse are rounded where they are made (to the snap spacing), so
+    they read as round numbers here.
+
+    >>> format_entered(2.34567), format_entered(0.70104 / 0.3048), format_entered(1500.0)
+    ('2.34567', '2.3', '1500')
+    >>> format_entered(-0.0), format_entered(1e-7), format_entered(None)
+    ('0', '1e-07', '-')
+    """
+    if value is None or isinstance(value, str):
+        return format_number(value)
+    v = float(value)
+    if not math.isfinite(v) or v == 0:
+        return format_number(v)
+    target = float(f"{v:.{ENTERED_DIGITS - 1}e}")
+    for digits in range(1, ENTERED_DIGITS + 1):
+        text = f"{v:.{digits - 1}e}"
+        if float(f"{float(text):.{ENTERED_DIGITS - 1}e}") == target:
+            return format_number(float(text), digits)
+    return format_number(target, ENTERED_DIGITS)  # pragma: no cover - the loop ends there
+
+
+class Entered(float):
+    """A float that is a coordinate or dimension (an input, not a result):
+    a table cell holding one is written by :func:`format_entered`, at every
+    figure it was given, instead of the policy's figures.
+
+    >>> Entered(2.34567) == 2.34567, format_entered(Entered(2.34567))
+    (True, '2.34567')
+    """
+
+    __slots__ = ()
+
+
+def round_to_step(value: float, step: float) -> float:
+    """``value`` rounded to the nearest whole multiple of ``step`` (> 0),
+    computed in decimals so the result is the float nearest that multiple
+    (round(23 x 0.1) is 2.3, not 2.3000000000000003); ``value`` as it is
+    for a step that is not a positive finite number.
+
+    >>> round_to_step(2.2999, 0.1), round_to_step(-0.26, 0.05), round_to_step(7.0, 0.0)
+    (2.3, -0.25, 7.0)
+    """
+    if not (step > 0 and math.isfinite(step) and math.isfinite(value)):
+        return float(value)
+    from decimal import Decimal
+
+    n = round(value / step)
+    return float(Decimal(n) * Decimal(repr(float(step)))) + 0.0

@@ -28,7 +28,7 @@ import numpy as np
 
 from .force_scope import force_scale, force_scope
 from .level_table import level_table
-from .numbers import format_number, is_noise
+from .numbers import Entered, format_entered, format_number, is_noise
 
 if TYPE_CHECKING:
     from .case import Case
@@ -51,14 +51,20 @@ class Table:
 
 def cell_text(v):
     """A table cell as text for people: whole numbers (edge indices) as
-    they are, other numbers by :func:`wetline.core.numbers.format_number`,
-    ``-`` where a value is not defined, text as it is.
+    they are, coordinates (:class:`wetline.core.numbers.Entered`) as they
+    were entered, other numbers (results) by
+    :func:`wetline.core.numbers.format_number` at the precision policy's
+    figures, ``-`` where a value is not defined, text as it is.
 
     >>> cell_text(3), cell_text(44129.925), cell_text(None), cell_text("floor")
     ('3', '44130', '-', 'floor')
+    >>> cell_text(Entered(2.34567)), cell_text(2.34567)
+    ('2.34567', '2.346')
     """
     if isinstance(v, (bool, int)):
         return str(v)
+    if isinstance(v, Entered):
+        return format_entered(v)
     return format_number(v)
 
 
@@ -72,6 +78,12 @@ def _num(v):
         return None
     v = float(v)
     return None if math.isnan(v) else v + 0.0
+
+
+def _entered(v):
+    """A coordinate for a table: shown as entered (None for NaN)."""
+    v = _num(v)
+    return None if v is None else Entered(v)
 
 
 def _shown(values, divisor, scale):
@@ -106,9 +118,9 @@ def totals_table(solution, units, length_unit="m"):
          u.label("pressure"), ""),
     ]
     if s.is_open:
-        rows.append(("spill level", _num(u.to_display(s.spill_level, "length")), L, ""))
+        rows.append(("spill level", _entered(u.to_display(s.spill_level, "length")), L, ""))
     else:
-        rows.append(("top of closed section", _num(u.to_display(s.z_max, "length")), L, ""))
+        rows.append(("top of closed section", _entered(u.to_display(s.z_max, "length")), L, ""))
     return Table("Totals", ("quantity", "value", "unit", "note"), tuple(rows))
 
 
@@ -158,8 +170,8 @@ def edges_table(solution, units, length_unit="m"):
         cp = u.to_display(solution.centre_of_pressure, "length")
     for i in range(n):
         j = (i + 1) % n
-        row = [i, s.parts[i], _num(pts[i, 0]), _num(pts[i, 1]), _num(pts[j, 0]),
-               _num(pts[j, 1]), _num(wl[i]), _num(p0[i]), _num(p1[i])]
+        row = [i, s.parts[i], _entered(pts[i, 0]), _entered(pts[i, 1]), _entered(pts[j, 0]),
+               _entered(pts[j, 1]), _num(wl[i]), _num(p0[i]), _num(p1[i])]
         if axi:
             row += [_num(fz[i]), _num(h0[i]), _num(h1[i])]
         else:

@@ -48,7 +48,7 @@ import numpy as np
 
 from . import STANDARD_GRAVITY, limits
 from .atomic_write import write_atomically
-from .case import Case, CaseError, ReportInfo
+from .case import REPORT_KEYS, Case, CaseError, ReportInfo
 from .fill import FillError
 from .hydrostatics import POCKET_MODES, VENTED
 from .liquids import Liquid, LiquidError, liquid_from_spec, liquid_to_spec
@@ -98,7 +98,7 @@ _FILL_KEYS = {"level", "volume"}
 _V2_KEYS = {"uplift", "report"}
 _UPLIFT_KEYS = {"required_factor", "parts"}
 _RESISTANCE_KEYS = ("self_weight", "holding_down")  # checked in this order
-_REPORT_KEYS = {"project", "job_reference", "prepared_by"}
+_REPORT_KEYS = set(REPORT_KEYS)
 _V3_KEYS = {"structure", "ground", "cases"}
 _STRUCTURE_KEYS = {"outline", "parts", "unit_weight", "extra_weight", "anchorage"}
 _GROUND_KEYS = {"level", "unit_weight_dry", "unit_weight_saturated"}
@@ -442,10 +442,10 @@ def _read_resistance(name: str, obj: object, section: Section) -> PartResistance
 
 def _read_report(report: object) -> ReportInfo:
     report = _object(report, _REPORT_KEYS, "report.")
-    for key, v in report.items():
-        if not isinstance(v, str):
-            raise SectionFileError(f"report.{key} must be text")
-    return ReportInfo(**report)
+    try:
+        return ReportInfo.from_dict(report)
+    except CaseError as exc:
+        raise SectionFileError(str(exc)) from None
 
 
 # ------------------------------------------------------------------ version 3
@@ -749,9 +749,7 @@ def case_to_dict(case: Case) -> dict[str, Any]:
                                for name, r in case.resistances}
         data["uplift"] = uplift
         if not case.report.is_empty:
-            r = case.report
-            data["report"] = {"project": r.project, "job_reference": r.job_reference,
-                              "prepared_by": r.prepared_by}
+            data["report"] = case.report.to_dict()
     return data
 
 

@@ -42,7 +42,7 @@ from typing import TYPE_CHECKING, Any, overload
 import numpy as np
 import numpy.typing as npt
 
-from .numbers import DEFAULT_DIGITS, format_number
+from .numbers import format_number
 
 if TYPE_CHECKING:  # pragma: no cover - types only
     import pint
@@ -360,7 +360,7 @@ class DisplayUnits:
         """
         return to_si_exactly(value, self.unit(quantity).factor)
 
-    def text(self, value_si: float, quantity: str, digits: int = DEFAULT_DIGITS) -> str:
+    def text(self, value_si: float, quantity: str, digits: int | None = None) -> str:
         """`value_si` in this system's unit of `quantity` with its label, for
         people (:func:`wetline.core.numbers.format_number`).
 

@@ -105,3 +105,14 @@ def pytest_generate_tests(metafunc):
     if "sample_path" in metafunc.fixturenames:
         paths = sample_paths()
         metafunc.parametrize("sample_path", paths, ids=[p.name.split(".")[0] for p in paths])
+
+
+@pytest.fixture(autouse=True)
+def _default_precision_policy():
+    """Every test starts and ends with the default precision policy (a
+    window on a document that asks for 5 figures sets it for its thread)."""
+    from wetline.core.numbers import DEFAULT_DIGITS, set_figures
+
+    set_figures(DEFAULT_DIGITS)
+    yield
+    set_figures(DEFAULT_DIGITS)

@@ -251,6 +251,7 @@ def _load(path, level=None, volume=None, case=None):
     text): ``(design, resolved)``, the design holding the override."""
     from dataclasses import replace
 
+    from wetline.core.numbers import set_figures
     from wetline.core.section_file import read_design
 
     volume_m3 = None if volume is None else _decimal(volume, "--volume")
@@ -259,6 +260,8 @@ def _load(path, level=None, volume=None, case=None):
     if volume_m3 is not None and volume_m3 < 0:
         raise CommandError(f"--volume must be a number >= 0, not {volume.strip()}")
     design = read_design(path)
+    # The file's precision policy (report.significant_figures) for every table.
+    set_figures(design.case.report.significant_figures)
     index = 0 if case is None else design.index(case)  # names the cases if unknown
     if level is not None or volume_m3 is not None:
         fill = ({"fill_level": _level_in_metres(level, design.case.length_unit),

@@ -60,6 +60,7 @@ from wetline.core.force_scope import ForceScope, force_scale
 from wetline.core.hydrostatics import Solution
 from wetline.core.level_table import LevelTable, level_table
 from wetline.core.load_cases import Design, Envelope, LoadCase, LoadCaseError, SolvedCase
+from wetline.core.numbers import set_figures
 from wetline.core.section import Section, SectionError
 from wetline.core.structure import Ground, Structure, StructureError
 
@@ -235,6 +236,7 @@ class Document(QObject):
         self._design = design
         self._active = 0
         self._case = _active_case(design, 0)
+        set_figures(design.case.report.significant_figures)  # the precision policy
         self._saved_design: Design | None = design if saved else None
         self._path: str | None = None if path is None else str(path)
         self._units = DisplayChoice()
@@ -560,6 +562,10 @@ class Document(QObject):
             self.upliftInputsChanged.emit()
         if old_case.report != case.report:
             self.reportChanged.emit()
+            if old_case.report.significant_figures != case.report.significant_figures:
+                # The precision policy: every view writes its numbers again.
+                set_figures(case.report.significant_figures)
+                self.unitsChanged.emit()
         solve = (section_changed or liquid_changed or fill_changed or structure_changed
                  or active_changed or outside_changed
                  or (factor_changed and design.structure is not None))
@@ -591,6 +597,7 @@ class Document(QObject):
         self._design = design
         self._active = 0
         self._case = _active_case(design, 0)
+        set_figures(design.case.report.significant_figures)  # the precision policy
         self.envelope = None
         self.envelope_cases = ()
         self.draftChanged.emit()

@@ -43,7 +43,8 @@ from .gravity import format_gravity, gravity_label
 
 __all__ = [
     "apply_outline", "move_vertex", "insert_vertex", "delete_vertex", "set_edge_part",
-    "draw_outline", "replace_section", "start_new_section", "import_section", "set_kind",
+    "set_parts", "propose_parts", "draw_outline", "replace_section", "start_new_section",
+    "import_section", "set_kind",
     "set_width", "rename", "set_liquid", "set_gravity", "fill_to_level", "fill_to_volume",
     "fill_to_percent", "fill_to_word", "set_resistance", "set_required_factor",
     "set_report_info", "set_units", "set_diagram_scale", "discard_draft", "RESISTANCE_FIELDS",
@@ -140,10 +141,55 @@ def set_edge_part(doc: Document, edge: int, name: str) -> bool:
     return apply_outline(doc, outline, parts, f"Set part of edge {edge} to {name}")
 
 
-def draw_outline(doc: Document, points: ArrayLike, part: str = "wall",
+def set_parts(doc: Document, parts: Sequence[str], text: str = "Set parts") -> bool:
+    """Give every edge its part (one undo step; the draft if core refuses)."""
+    outline, old = doc.working_outline()
+    parts = tuple(str(p).strip() for p in parts)
+    if len(parts) != len(old) or not all(parts):
+        raise ValueError("one part name (not empty) for every edge")
+    if parts == tuple(old):
+        return True
+    return apply_outline(doc, outline, parts, text)
+
+
+def propose_parts(points: ArrayLike, kind: str = "plane") -> tuple[str, ...]:
+    """Parts for an outline drawn vertex by vertex: the lowest horizontal
+    edge(s) ``floor``, the highest horizontal edge(s) ``open`` (a shape open
+    at its top), edges on the axis x = 0 of an axisymmetric section ``axis``,
+    every other edge ``wall``. Level is within a billionth of the outline's
+    size; an edge that is both lowest and highest (a flat outline) is a floor.
+
+    >>> propose_parts([[0, 0], [3, 0], [3, 2], [0, 2]])
+    ('floor', 'wall', 'open', 'wall')
+    >>> propose_parts([[0, 0], [1, 0], [1.5, 2], [0, 2]], "axisymmetric")
+    ('floor', 'wall', 'open', 'axis')
+    """
+    pts = np.asarray(points, dtype=np.float64).reshape(-1, 2)
+    n = len(pts)
+    if n < 3:
+        return ("wall",) * n
+    nxt = np.roll(pts, -1, axis=0)
+    size = float(max(np.ptp(pts[:, 0]), np.ptp(pts[:, 1]), 1e-300))
+    tol = 1e-9 * size
+    flat = np.abs(nxt[:, 1] - pts[:, 1]) <= tol
+    z_lo, z_hi = float(pts[:, 1].min()), float(pts[:, 1].max())
+    parts = ["wall"] * n
+    for i in range(n):
+        if kind == "axisymmetric" and abs(pts[i, 0]) <= tol and abs(nxt[i, 0]) <= tol:
+            parts[i] = "axis"
+        elif flat[i] and abs(pts[i, 1] - z_lo) <= tol:
+            parts[i] = "floor"
+        elif flat[i] and abs(pts[i, 1] - z_hi) <= tol:
+            parts[i] = "open"
+    return tuple(parts)
+
+
+def draw_outline(doc: Document, points: ArrayLike, part: str | None = None,
                  text: str = "Draw new outline") -> bool:
-    """A new outline drawn vertex by vertex (every edge ``part``), keeping
-    the section's kind, width and name; the draft if core refuses it.
+    """A new outline drawn vertex by vertex, keeping the section's kind,
+    width and name; its parts as :func:`propose_parts` proposes (or every
+    edge ``part``, if given; all walls where the proposal is refused); the
+    draft if core refuses the outline.
 
     Returns
     -------
@@ -152,25 +198,43 @@ def draw_outline(doc: Document, points: ArrayLike, part: str = "wall",
     """
     old = doc.section
     outline = np.array(points, dtype=np.float64).reshape(-1, 2)
-    parts = (part,) * len(outline)
-    try:
-        section = Section.build(outline, parts=parts, kind=old.kind, width=old.width,
-                                name=old.name)
-    except SectionError as exc:
-        # A new untitled section still, shown as the invalid outline to fix.
-        start_new_section(doc, doc.case, text)
-        doc.set_draft(Draft(outline, parts, exc))
-        return False
-    replace_section(doc, section, text=text)
-    return True
+    proposals = [(part,) * len(outline)] if part is not None else [
+        propose_parts(outline, old.kind), ("wall",) * len(outline)]
+    error: SectionError | None = None
+    for parts in proposals:
+        try:
+            section = Section.build(outline, parts=parts, kind=old.kind, width=old.width,
+                                    name=old.name)
+        except SectionError as exc:
+            error = error or exc
+            continue
+        replace_section(doc, section, text=text)
+        return True
+    # A new untitled section still, shown as the invalid outline to fix.
+    assert error is not None  # every proposal was refused
+    start_new_section(doc, doc.case, text)
+    doc.set_draft(Draft(outline, proposals[0], error))
+    return False
+
+
+def _kept_inputs(case: Case, section: Section) -> Case:
+    """``case`` with ``section``, keeping the uplift inputs of the parts the
+    section still has (a resistance for a part that is gone is dropped)."""
+    case = case.with_section(section)
+    names = set(section.loaded_part_names)
+    for name, _ in case.resistances:
+        if name not in names:
+            case = case.with_resistance(name, None)
+    return case
 
 
 def replace_section(doc: Document, section: Section, level: float | None = None,
                     text: str = "New section") -> None:
     """A whole new section (template, drawn outline), optionally refilled:
     an untitled document (see :func:`start_new_section`). The active case's
-    liquid and gravity and the uplift inputs carry over."""
-    case = doc.case.with_section(section)
+    liquid and gravity and the uplift inputs of the parts it still has carry
+    over."""
+    case = _kept_inputs(doc.case, section)
     if level is not None:
         case = case.with_level(level)
     start_new_section(doc, case, text)
@@ -667,12 +731,17 @@ def set_required_factor(doc: Document, factor: float) -> None:
 
 
 _REPORT_WORDS = (("project", "project"), ("job_reference", "job reference"),
-                 ("prepared_by", "prepared by"))
+                 ("prepared_by", "prepared by"),
+                 ("calculation_reference", "calculation reference"),
+                 ("revision", "revision"), ("checked_by", "checked by"),
+                 ("approved_by", "approved by"), ("revisions", "revision history"),
+                 ("significant_figures", "significant figures"))
 
 
 def set_report_info(doc: Document, report: ReportInfo) -> bool:
-    """Set the calculation sheet's header fields ("Sheet header: project,
-    job reference"); nothing if they are unchanged.
+    """Set the calculation sheet's header, document control and precision
+    policy ("Sheet header: project, checked by"); one undo step, nothing if
+    they are unchanged.
 
     Returns
     -------

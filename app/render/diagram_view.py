@@ -16,11 +16,12 @@ import numpy as np
 from PySide6.QtCore import QPointF, QRectF
 from PySide6.QtGui import QColor, QFontMetricsF
 
-from wetline.app.render import load_layers, section_layers
-from wetline.app.render.geometry import axis_edges
+from wetline.app.render import load_layers, section_layers, sketch_layers
+from wetline.app.render.geometry import axis_edges, dimension_levels, outer_wetted_edges
 from wetline.app.render.label_painter import LabelPainter
 from wetline.app.render.style import INK, LEFT, MUTED, TOP, WRAP
 from wetline.app.render.text_blocks import text_height
+from wetline.core.numbers import format_entered
 
 __all__ = ["DiagramView", "ORDINATE_SHARE"]
 
@@ -52,17 +53,41 @@ class DiagramView:
         pad = 0.9 * f
         self.scale_height = 3.6 * f
         self.inner = area.adjusted(pad, pad, -pad, -pad)
+        self.text_h = QFontMetricsF(fonts.label).height()
         kind = "half-section" if scene.axisymmetric else "cross-section"
         self.caption = (f"Gauge pressure on the walls of the {kind}, drawn outward from the "
-                        f"wall; resultants point at the wall they load.")
+                        f"wall; resultants point at the wall they load. Vertex numbers at the "
+                        f"corners, edge numbers boxed (edge i runs from vertex i to i + 1); "
+                        f"dimensions in {scene.units.label('length')}.")
+        # A figure of the calculation sheet has its caption on the page.
+        self.show_caption = not scene.figure
         self.caption_height = (1.35 * f + text_height(fonts.small, self.inner.width(),
-                                                      self.caption) + 0.3 * f)
+                                                      self.caption) + 0.3 * f
+                               if self.show_caption else 0.0)
         s, sol = scene.section, scene.solution
         pts = s.outline
-        size = max(float(np.ptp(pts[:, 0])), float(np.ptp(pts[:, 1])))
-        self.pressure_scale = (ORDINATE_SHARE * size / sol.max_pressure
-                               if sol.max_pressure > 0 else 0.0)
+        st = scene.structure
+        self.outer_wetted = None
+        if st is not None and scene.groundwater_level is not None:
+            self.outer_wetted = outer_wetted_edges(st, s, scene.groundwater_level,
+                                                   scene.groundwater_density, sol.gravity)
+        every = pts if st is None else np.vstack([pts, st.outline])
+        size = max(float(np.ptp(every[:, 0])), float(np.ptp(every[:, 1])))
+        peak = sol.max_pressure
+        w = self.outer_wetted
+        if w is not None and w.index.size:
+            peak = max(peak, float(w.pa.max()), float(w.pb.max()))
+        self.pressure_scale = ORDINATE_SHARE * size / peak if peak > 0 else 0.0
         self.axis_extension = 0.06 * max(s.z_max - s.z_min, 1e-12)
+        self.levels = dimension_levels(s, sol, groundwater=scene.groundwater_level,
+                                       ground=scene.ground_level,
+                                       interfaces=scene.interfaces)
+        du = scene.units
+        fm = QFontMetricsF(fonts.label)
+        self.level_text_w = max(
+            (fm.horizontalAdvance(f"{lv.name} {format_entered(du.to_display(lv.z, 'length'))} "
+                                  f"{du.label('length')}") for lv in self.levels), default=0.0)
+        self.width_spans = 1 if st is None else 2
         self._fit(size)
         self.labels = LabelPainter(self.inner.adjusted(0, self.caption_height, 0,
                                                        -self.scale_height), 0.35 * f)
@@ -73,39 +98,60 @@ class DiagramView:
         self.labels.avoid_lines(self.outline_px)
 
     def _fit(self, size):
-        """One scale for x and z that fits everything drawn into the plot area."""
+        """One scale for x and z that fits everything drawn into the plot
+        area, with room left of it for the levels' dimension line and below
+        it for the widths'."""
         sc = self.scene
         s, sol, w = sc.section, sc.solution, sc.wetted
         k = self.pressure_scale
         pts = s.outline
         bx = [float(pts[:, 0].min()), float(pts[:, 0].max())]
         bz = [s.z_min, s.z_max]
+        st = sc.structure
+        if st is not None:
+            bx += [float(st.outline[:, 0].min()), float(st.outline[:, 0].max())]
+            bz += [float(st.outline[:, 1].min()), float(st.outline[:, 1].max())]
         if sc.axisymmetric:
-            bx.append(-bx[1])
-        if w.index.size:
-            bx += [float((w.ax + w.nx * k * w.pa).min()), float((w.ax + w.nx * k * w.pa).max()),
-                   float((w.bx + w.nx * k * w.pb).min()), float((w.bx + w.nx * k * w.pb).max())]
-            bz += [float((w.az + w.nz * k * w.pa).min()), float((w.az + w.nz * k * w.pa).max()),
-                   float((w.bz + w.nz * k * w.pb).min()), float((w.bz + w.nz * k * w.pb).max())]
+            bx.append(-max(bx))
+        for ww in (w, self.outer_wetted):
+            if ww is None or not ww.index.size:
+                continue
+            for xs, zs, ps in ((ww.ax, ww.az, ww.pa), (ww.bx, ww.bz, ww.pb)):
+                bx += [float((xs + ww.nx * k * ps).min()), float((xs + ww.nx * k * ps).max())]
+                bz += [float((zs + ww.nz * k * ps).min()), float((zs + ww.nz * k * ps).max())]
+        bz += [lv.z for lv in self.levels]
         if sol.head_above_top > 0:
             bz.append(sol.level)
         if sol.spill_level is not None:
             bz.append(sol.spill_level)
+        if st is not None:  # the ground and groundwater lines run past the structure
+            reach = 0.08 * (max(bx) - min(bx))
+            bx += [min(bx) - reach, max(bx) + reach]
         if sc.axisymmetric:  # room for the centre line past both ends
             bz += [min(bz) - self.axis_extension, max(bz) + self.axis_extension]
         f = self.f
         label_w = QFontMetricsF(self.fonts.label).horizontalAdvance(
             "0000.0 " + sc.units.label("pressure")) + f
         inner = self.inner
-        plot = QRectF(inner.left() + label_w, inner.top() + self.caption_height + 3.0 * f,
-                      inner.width() - 2 * label_w,
-                      inner.height() - self.caption_height - self.scale_height - 4.8 * f)
+        rail_band = self.level_text_w + 1.6 * f
+        dims_band = self.width_spans * 2.1 * self.text_h + 1.2 * f
+        top = 3.0 * f if self.show_caption else 1.5 * f
+        plot = QRectF(inner.left() + rail_band + label_w,
+                      inner.top() + self.caption_height + top,
+                      inner.width() - rail_band - 2 * label_w,
+                      inner.height() - self.caption_height - self.scale_height - top
+                      - 1.8 * f - dims_band)
         wx = max(max(bx) - min(bx), 1e-9 * max(size, 1e-9))
         wz = max(max(bz) - min(bz), 1e-9 * max(size, 1e-9))
         scale = min(plot.width() / wx, plot.height() / wz)
         self.px_per_m = scale
         self._ox = plot.center().x() - scale * 0.5 * (max(bx) + min(bx))
         self._oz = plot.center().y() + scale * 0.5 * (max(bz) + min(bz))
+        self.drawing_left = self._ox + scale * min(bx)
+        self.drawing_right = self._ox + scale * max(bx)
+        self.drawing_bottom = self._oz - scale * min(bz)
+        self.rail_x = inner.left() + self.level_text_w + 1.2 * f
+        self.width_y = self.drawing_bottom + 1.6 * f
 
     def to_px(self, x, z):
         """The page point [px] of the section point (x, z) [m]."""
@@ -120,23 +166,30 @@ class DiagramView:
     def draw(self, p):
         """Paint the caption and every layer of the drawing."""
         f, inner = self.f, self.inner
-        p.setFont(self.fonts.bold)
-        p.setPen(QColor(INK))
-        p.drawText(QRectF(inner.left(), inner.top(), inner.width(), 1.4 * f), LEFT | TOP,
-                   "PRESSURE DIAGRAM")
-        p.setFont(self.fonts.small)
-        p.setPen(QColor(MUTED))
-        p.drawText(QRectF(inner.left(), inner.top() + 1.35 * f, inner.width(),
-                          self.caption_height), LEFT | TOP | WRAP, self.caption)
+        if self.show_caption:
+            p.setFont(self.fonts.bold)
+            p.setPen(QColor(INK))
+            p.drawText(QRectF(inner.left(), inner.top(), inner.width(), 1.4 * f), LEFT | TOP,
+                       "PRESSURE DIAGRAM")
+            p.setFont(self.fonts.small)
+            p.setPen(QColor(MUTED))
+            p.drawText(QRectF(inner.left(), inner.top() + 1.35 * f, inner.width(),
+                              self.caption_height), LEFT | TOP | WRAP, self.caption)
         p.save()
-        p.setClipRect(self.area.adjusted(0, self.caption_height + 0.9 * f, 0, 0))
+        p.setClipRect(self.area.adjusted(0, self.caption_height + (0.9 * f if self.show_caption
+                                                                   else 0.0), 0, 0))
+        sketch_layers.draw_structure(p, self)
         if self.scene.axisymmetric:
             section_layers.draw_mirror(p, self)
         section_layers.draw_liquid(p, self)
+        sketch_layers.draw_outer_diagram(p, self)
         load_layers.draw_diagrams(p, self)
         section_layers.draw_outline(p, self)
+        sketch_layers.draw_dimensions(p, self)
         section_layers.draw_surface(p, self)
-        load_layers.draw_resultants(p, self)
+        load_layers.draw_resultant_arrows(p, self)
+        sketch_layers.draw_numbers(p, self)
+        load_layers.draw_resultant_labels(p, self)
         load_layers.draw_pressure_values(p, self)
         section_layers.draw_scales(p, self, QRectF(inner.left(),
                                                    inner.bottom() - self.scale_height,

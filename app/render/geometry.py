@@ -22,6 +22,8 @@ from wetline.core.section import AXIS, OPEN
 __all__ = ["CORNER_COS", "is_corner", "WettedEdges", "wetted_edges", "auto_scale",
            "diagram_polygons", "chain_starts", "carrying_edges", "axis_edges",
            "pressure_arrows", "arrow_strokes", "PartRun", "part_runs", "run_resultants",
+           "LoadMark", "load_marks", "edges_words", "Level", "dimension_levels",
+           "numbered", "outer_wetted_edges",
            "surface_spans", "liquid_rings", "PressureSite", "pressure_sites",
            "envelope_wetted_edges", "soil_blocks"]
 
@@ -285,12 +287,121 @@ def run_resultants(solution, runs, w=None):
         cx = float(np.average(cp[:, 0], weights=mag))
         cz = float(np.average(cp[:, 1], weights=mag))
         f2 = fx * fx + fz * fz
-        if f2 > 0:
+        # Forces that (nearly) cancel have no line of action: keep the
+        # force-weighted centre of the edges' centres of pressure.
+        if f2 > (1e-9 * float(mag.sum())) ** 2:
             moment = float(np.sum(cp[:, 0] * solution.fz[idx] - cp[:, 1] * solution.fx[idx]))
             t = (moment - (cx * fz - cz * fx)) / f2
             cx, cz = cx + t * fz, cz - t * fx
         out.append((run, fx, fz, cx, cz))
     return out
+
+
+@dataclass(frozen=True)
+class LoadMark:
+    """A force to label on a drawing: a part's total or one run of it.
+
+    Attributes
+    ----------
+    part : str
+    edges : tuple of int
+        The edges the force acts on (the run's, or every edge of the part).
+    fx, fz : float
+        The force [N] (fx NaN on an axisymmetric section).
+    x, z : float
+        Where it acts [m] (see :func:`run_resultants`).
+    total : bool
+        True: the part's total; False: one run of a part that has several.
+    arrow : bool
+        Draw an arrow for it: every run, and the total of a part loaded on
+        one run only (there the run is the part). The total of a part loaded
+        on several runs is a label at its resultant, without an arrow.
+    """
+
+    part: str
+    edges: tuple
+    fx: float
+    fz: float
+    x: float
+    z: float
+    total: bool
+    arrow: bool
+
+    @property
+    def magnitude(self):
+        """|F| [N]."""
+        return math.hypot(0.0 if math.isnan(self.fx) else self.fx, self.fz)
+
+    def is_uplift(self, biggest):
+        """True if the force points up (more than round-off of ``biggest`` [N])."""
+        return self.fz > 1e-9 * biggest
+
+    def text(self, value, biggest):
+        """The label for people with the force written ``value`` ("72.35
+        kN/m"): ``floor: 131.8 kN/m`` for a part loaded on one run,
+        ``roof: total uplift 35.69 kN/m`` for the total of a part loaded on
+        several runs, ``edge 2: uplift 17.85 kN/m`` for one of its runs."""
+        up = "uplift " if self.is_uplift(biggest) else ""
+        if self.total:
+            return f"{self.part}: {'' if self.arrow else 'total '}{up}{value}"
+        return f"{edges_words(self.edges)}: {up}{value}"
+
+
+def edges_words(edges):
+    """``"edge 2"``, ``"edges 2, 3"``, ``"edges 5 to 9"``: the edges of a run, in order."""
+    edges = tuple(int(e) for e in edges)
+    if len(edges) == 1:
+        return f"edge {edges[0]}"
+    if len(edges) == 2:
+        return f"edges {edges[0]}, {edges[1]}"
+    return f"edges {edges[0]} to {edges[-1]}"
+
+
+def load_marks(solution, runs, w=None):
+    """What a drawing labels of the loads, in order of importance: each
+    part's total once, then the runs of the parts loaded on several runs.
+
+    A part loaded on one run (its other runs dry, or it has one) gives one
+    mark, its total, with an arrow at the run's resultant. A part loaded on
+    several runs (a tank's two side walls, a roof either side of a riser)
+    gives its total at the resultant of all its wetted edges, without an
+    arrow (the line of action of the sum; the force-weighted centre where
+    the runs cancel), and one mark per run, with an arrow, named by its
+    edges. Totals come largest first, then the runs largest first.
+
+    Parameters
+    ----------
+    solution : wetline.core.hydrostatics.Solution
+    runs : list of PartRun
+    w : WettedEdges, optional
+
+    Returns
+    -------
+    list of LoadMark
+    """
+    if w is None:
+        w = wetted_edges(solution)
+    loaded = [(run, fx, fz, x, z) for run, fx, fz, x, z in run_resultants(solution, runs, w)
+              if math.hypot(0.0 if math.isnan(fx) else fx, fz) > 0]
+    by_part = {}
+    for item in loaded:
+        by_part.setdefault(item[0].part, []).append(item)
+    totals, pieces = [], []
+    for part, items in by_part.items():
+        if len(items) == 1:
+            run, fx, fz, x, z = items[0]
+            totals.append(LoadMark(part, run.edges, fx, fz, x, z, total=True, arrow=True))
+            continue
+        edges = tuple(e for run, *_ in items for e in run.edges)
+        (_, fx, fz, x, z), = run_resultants(solution, [PartRun(part, edges)], w) or [
+            (None, 0.0, 0.0, float(np.mean([i[3] for i in items])),
+             float(np.mean([i[4] for i in items])))]
+        totals.append(LoadMark(part, edges, fx, fz, x, z, total=True, arrow=False))
+        pieces += [LoadMark(part, run.edges, rfx, rfz, rx, rz, total=False, arrow=True)
+                   for run, rfx, rfz, rx, rz in items]
+    totals.sort(key=lambda m: -m.magnitude)
+    pieces.sort(key=lambda m: -m.magnitude)
+    return totals + pieces
 
 
 def surface_spans(section, level):
@@ -430,6 +541,107 @@ def pressure_sites(w, n_vertices, limit=16):
         sites.append(PressureSite(float(px[starts[g]]), float(pz[starts[g]]), float(at[g]),
                                   tuple((float(w.nx[k]), float(w.nz[k])) for k in ks)))
     return sites
+
+
+@dataclass(frozen=True)
+class Level:
+    """A level a drawing dimensions: its height [m] and what is there
+    (``"floor"``, ``"free surface"`` ... joined by " = " where they meet)."""
+
+    z: float
+    name: str
+
+
+def dimension_levels(section, solution, *, groundwater=None, ground=None, interfaces=()):
+    """The levels that matter, lowest first: the floor (the section's lowest
+    point), the free surface, the spill level (open) or the top (closed),
+    liquid interfaces, the groundwater and the ground surface where there
+    are any. Levels within a millionth of the section's height of each other
+    are one, named by all.
+
+    Parameters
+    ----------
+    section : Section
+    solution : Solution
+    groundwater : float, optional
+        Groundwater level [m].
+    ground : float, optional
+        Ground surface level [m].
+    interfaces : sequence of (str, float)
+        Interfaces between liquid layers: (name, level [m]).
+
+    Returns
+    -------
+    list of Level
+    """
+    size = max(section.z_max - section.z_min, 1e-12)
+    found = [(section.z_min, "floor")]
+    if solution.level > section.z_min:
+        found.append((solution.level, "free surface (standpipe)" if solution.head_above_top > 0
+                      else "free surface"))
+    if section.is_open:
+        found.append((section.spill_level, "spill level"))
+        if section.z_max > section.spill_level + 1e-6 * size:
+            found.append((section.z_max, "top"))
+    else:
+        found.append((section.z_max, "top"))
+    found += [(float(z), str(name)) for name, z in interfaces]
+    if groundwater is not None:
+        found.append((float(groundwater), "groundwater"))
+    if ground is not None:
+        found.append((float(ground), "ground"))
+    found.sort(key=lambda zn: zn[0])
+    out = []
+    for z, name in found:
+        if out and abs(z - out[-1].z) <= 1e-6 * size:
+            if name not in out[-1].name.split(" = "):
+                out[-1] = Level(out[-1].z, f"{out[-1].name} = {name}")
+            continue
+        out.append(Level(float(z), name))
+    return out
+
+
+def numbered(section, limit=48):
+    """The vertices and edges a sketch numbers: all of them up to ``limit``,
+    else every k-th (k = ceil(n / limit)) and every corner (walls meeting at
+    more than 10 degrees), vertex 0 and edge 0 always.
+
+    Returns
+    -------
+    vertices, edges : numpy.ndarray of int
+        Indices, ascending.
+    """
+    n = section.n_edges
+    if n <= limit:
+        every = np.arange(n)
+        return every, every
+    k = math.ceil(n / limit)
+    geo = section.geometry
+    corner = is_corner(np.roll(geo.nx, 1), np.roll(geo.nz, 1), geo.nx, geo.nz)
+    picks = np.zeros(n, dtype=bool)
+    picks[::k] = True
+    vertices = np.flatnonzero(picks | corner)
+    if vertices.size > 2 * limit:  # a jagged outline: every k-th only
+        vertices = np.flatnonzero(picks)
+    return vertices, np.flatnonzero(picks)
+
+
+def outer_wetted_edges(structure, cavity, level, density, gravity):
+    """:class:`WettedEdges` of the groundwater on the outer face of a
+    structure (a :class:`wetline.core.structure.Structure` around
+    ``cavity``) standing at ``level`` [m]: the pressure rho g (level - z)
+    on every outer edge below it, with the normals pointing away from the
+    structure, so its diagram is drawn outside the structure, in the ground.
+
+    Returns
+    -------
+    WettedEdges
+    """
+    from wetline.core.hydrostatics import solve
+
+    outer = structure.section(cavity)
+    return wetted_edges(solve(outer, float(level), float(density), float(gravity)),
+                        np.ones(outer.n_edges, dtype=bool) & ~axis_edges(outer))
 
 
 def envelope_wetted_edges(solutions, factors, carries=None):

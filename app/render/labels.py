@@ -6,7 +6,8 @@ with ``x0 <= x1`` and ``y0 <= y1`` (y up on the canvas, down in an image:
 the engine does not care). Labels are placed in order of importance (the
 caller asks for resultants first, then the free surface and spill level,
 then pressure values, deepest first); each takes the first free place among
-its candidates, or is left out, or (if it must show) is placed anyway.
+its candidates (a label that must show is offered many more), or is left
+out: no two labels ever overlap, and none leaves the bounds.
 
 What a label keeps off:
 
@@ -41,7 +42,8 @@ PAD = 2.0
 """Clear space kept between two labels [px] (by default)."""
 
 OFFSETS = ((0, 1), (0, -1), (1, 0), (-1, 0), (0, 2), (0, -2), (1, 1), (-1, 1),
-           (1, -1), (-1, -1), (2, 0), (-2, 0), (0, 3), (0, -3))
+           (1, -1), (-1, -1), (2, 0), (-2, 0), (0, 3), (0, -3), (2, 1), (-2, 1),
+           (2, -1), (-2, -1), (1, 2), (-1, 2), (1, -2), (-1, -2), (0, 4))
 """Steps tried by :meth:`LabelLayout.place_anchored`, in label heights (y)
 and half widths (x), when a label that must show is in the way of another."""
 
@@ -56,8 +58,7 @@ MAX_WIDE = 256
 MAX_ITEMS = 20000
 """Obstacles and lines kept at most (more are ignored)."""
 MAX_LABELS = 400
-"""Labels placed at most; a later optional label is left out, a required
-one is placed where asked without tests."""
+"""Labels placed at most; any later label is left out."""
 
 
 def label_box(x, y, width, height, anchor):
@@ -141,6 +142,9 @@ class LabelLayout:
         self._wide = []
         self._kept = 0
         self._placed = []  # (key, x, y) of labels placed with a key
+        self.dropped = []
+        """Keys (or None) of the labels that had to show but found no free
+        place, so were left out rather than laid over another."""
 
     # ----------------------------------------------------------- grid
     def _cells(self, box):
@@ -287,15 +291,16 @@ class LabelLayout:
     def place(self, candidates, required=False, ignore=None, key=None):
         """Take the first free box of ``candidates`` (at most
         :data:`MAX_CANDIDATES` are tried): clear of the soft lines if one
-        is, else crossing them. If none is free, a ``required`` label takes
-        the first candidate; an optional one is left out.
+        is, else crossing them. If none is free the label is left out: a
+        ``required`` one is recorded in :attr:`dropped`. A label never
+        covers another, an obstacle, or the edge of the bounds.
 
         Parameters
         ----------
         candidates : sequence of (x0, y0, x1, y1)
             Places in order of preference [px].
         required : bool
-            The label must show.
+            The label should show: recorded in :attr:`dropped` if it cannot.
         ignore : box, optional
             An obstacle (from :meth:`add_obstacle`) the label may cover: its
             own arrow.
@@ -310,17 +315,18 @@ class LabelLayout:
         boxes = list(candidates[:MAX_CANDIDATES])
         if not boxes:
             return None
-        if len(self.boxes) >= MAX_LABELS:
-            return self._take(boxes[0], key) if required else None
-        for lines in (True, False):
-            for box in boxes:
-                self.candidates_tried += 1
-                if self.is_free(box, ignore, lines):
-                    return self._take(box, key)
-        return self._take(boxes[0], key) if required else None
+        if len(self.boxes) < MAX_LABELS:
+            for lines in (True, False):
+                for box in boxes:
+                    self.candidates_tried += 1
+                    if self.is_free(box, ignore, lines):
+                        return self._take(box, key)
+        if required:
+            self.dropped.append(key)
+        return None
 
     def place_anchored(self, x, y, width, height, anchor, required=False, margin=0.0,
-                       key=None):
+                       key=None, offsets=None):
         """Place a label anchored at (x, y) [px, y up]; return the (dx, dy)
         shift [px] it takes, or None if it is skipped.
 
@@ -328,8 +334,12 @@ class LabelLayout:
         :func:`label_box`); the ``margin`` around its text inside that box
         may overlap others. An optional label is placed only where asked
         and only if that is free; a required one tries the :data:`OFFSETS`
-        in turn and, if every place is taken, is placed where asked.
+        in turn and, if every place is taken, is left out (and recorded in
+        :attr:`dropped`).
         ``key`` is recorded for :meth:`seen_near` with the anchor (x, y).
+        ``offsets``: how many of the :data:`OFFSETS` a required label tries
+        (default all; the first ten stay within a label's height and half
+        its width of the place asked).
         """
         x0, y0, x1, y1 = label_box(x, y, width, height, anchor)
         box = (x0 + margin, y0 + margin, x1 - margin, y1 - margin)
@@ -338,7 +348,7 @@ class LabelLayout:
             w, h = width - 2 * margin, height - 2 * margin
             candidates += [(box[0] + kx * 0.5 * w, box[1] + ky * (h + self.pad),
                             box[2] + kx * 0.5 * w, box[3] + ky * (h + self.pad))
-                           for kx, ky in OFFSETS]
+                           for kx, ky in OFFSETS[:offsets]]
         taken = self.place(candidates, required=required)
         if taken is None:
             return None

@@ -19,15 +19,24 @@ from PySide6.QtGui import QColor, QPainterPath, QPen, QPolygonF
 
 from wetline.app.render.geometry import (
     diagram_polygons,
+    load_marks,
     pressure_arrows,
     pressure_sites,
-    run_resultants,
 )
 from wetline.app.render.label_painter import Label
 from wetline.app.render.marks import draw_arrow
-from wetline.app.render.style import DIAGRAM_FILL, DIAGRAM_LINE, DIAGRAM_TEXT, LOAD, UPLIFT
+from wetline.app.render.style import (
+    DIAGRAM_FILL,
+    DIAGRAM_LINE,
+    DIAGRAM_TEXT,
+    LOAD,
+    LOAD_EDGE,
+    UPLIFT,
+    UPLIFT_EDGE,
+)
 
-__all__ = ["draw_diagrams", "draw_resultants", "draw_pressure_values", "MAX_PRESSURE_VALUES",
+__all__ = ["draw_diagrams", "draw_resultants", "draw_resultant_arrows",
+           "draw_resultant_labels", "draw_pressure_values", "MAX_PRESSURE_VALUES",
            "MAX_HATCH_LINES"]
 
 MAX_PRESSURE_VALUES = 40
@@ -108,46 +117,81 @@ def _room_behind(view, head, direction):
 
 
 def draw_resultants(p, view):
-    """One arrow per run of a loaded part (a tank's two side walls get one
-    each), pointing at the wall it loads, at the point of
-    :func:`wetline.app.render.geometry.run_resultants`; upward ones in the
-    uplift colour. The labels keep off every arrow but their own."""
+    """:func:`draw_resultant_arrows` and then :func:`draw_resultant_labels`."""
+    draw_resultant_arrows(p, view)
+    draw_resultant_labels(p, view)
+
+
+def draw_resultant_arrows(p, view):
+    """An arrow per run of a loaded part, pointing at the wall it loads, at
+    the point of :func:`wetline.app.render.geometry.load_marks`; upward ones
+    in the uplift colour. Each part's total is labelled once (bold, framed):
+    at its arrow if the part is loaded on one run, else at the resultant of
+    all its edges; the runs of such a part are labelled in a lighter style,
+    named by their edges ("edge 2: 72.35 kN/m"). The labels keep off every
+    arrow but their own: the labels wait in ``view.pending`` for
+    :func:`draw_resultant_labels` (so that other marks may be placed between
+    the arrows and their labels, clear of both)."""
     sc = view.scene
     f = view.f
-    loads = []
-    for run, fx, fz, px, pz in run_resultants(sc.solution, sc.runs, sc.wetted):
-        gx = 0.0 if math.isnan(fx) else fx
-        mag = math.hypot(gx, fz)
-        if mag > 0:
-            loads.append((run.part, gx, fz, mag, (px, pz)))
-    if not loads:
+    view.pending = []
+    marks = load_marks(sc.solution, sc.runs, sc.wetted)
+    if not marks:
         return
-    biggest = max(m for _, _, _, m, _ in loads)
+    biggest = max(m.magnitude for m in marks)
     bounds = view.labels.bounds
     full = max(4.5 * f, 0.1 * min(bounds.width(), bounds.height()))
-    drawn = []
-    for part, gx, gz, mag, where in loads:
+    drawn, totals = [], []
+    for m in marks:
+        mag = m.magnitude
+        up = m.is_uplift(biggest)
+        value = sc.force(mag)
+        text = m.text(value, biggest)
+        if not m.arrow:
+            if mag > 1e-9 * biggest:
+                totals.append((text, UPLIFT if up else LOAD, m))
+            continue
         if mag < 1e-9 * biggest:
             continue
-        up = gz > 1e-9 * mag
-        colour = UPLIFT if up else LOAD
-        head = view.to_px(*where)
-        ux, uy = gx / mag, -gz / mag  # screen direction of the force
+        colour = (UPLIFT if up else LOAD) if m.total else (UPLIFT_EDGE if up else LOAD_EDGE)
+        head = view.to_px(m.x, m.z)
+        gx = 0.0 if math.isnan(m.fx) else m.fx
+        ux, uy = gx / mag, -m.fz / mag  # screen direction of the force
         # Short enough to stay inside a narrow cavity (a riser).
         room = _room_behind(view, head, (-ux, -uy))
         length = max(min(full, 0.42 * room), 3.2 * f)
         tail = QPointF(head.x() - ux * length, head.y() - uy * length)
         p.save()
-        draw_arrow(p, tail, head, QColor(colour), 2.2 * view.lw, 1.1 * f)
+        draw_arrow(p, tail, head, QColor(colour), (2.2 if m.total else 1.6) * view.lw,
+                   (1.1 if m.total else 0.9) * f)
         p.restore()
-        value = sc.force(mag)
-        text = f"{part}: uplift {value}" if up else f"{part}: {value}"
         own = view.labels.reserve(QRectF(tail, head).normalized().adjusted(
             -0.3 * f, -0.3 * f, 0.3 * f, 0.3 * f))
-        drawn.append((text, colour, tail, head, (-ux, -uy), own))
-    for text, colour, tail, head, direction, own in drawn:
-        _label_arrow(p, view, Label(text, view.fonts.label_bold, colour, frame=colour),
-                     tail, head, direction, own)
+        if m.total:
+            label = Label(text, view.fonts.label_bold, colour, frame=colour)
+        else:
+            label = Label(text, view.fonts.label, colour)
+        drawn.append((label, tail, head, (-ux, -uy), own))
+    view.pending = (drawn, totals)
+
+
+def draw_resultant_labels(p, view):
+    """The labels of :func:`draw_resultant_arrows`: the parts' totals first
+    (bold, framed), then the runs' values."""
+    drawn, totals = getattr(view, "pending", None) or ([], [])
+    view.pending = []
+    f = view.f
+    for label, tail, head, direction, own in [d for d in drawn if d[0].frame]:
+        _label_arrow(p, view, label, tail, head, direction, own)
+    for text, colour, m in totals:
+        at = view.to_px(m.x, m.z)
+        cands = [(at, (0.0, -1.0), -0.5 * view.text_h)]  # centred on the resultant
+        cands += [(at, d, g) for g in (0.6 * f, 1.8 * f, 3.2 * f)
+                  for d in ((0, -1), (0, 1), (1, 0), (-1, 0), (1, -1), (-1, 1))]
+        view.labels.place(p, Label(text, view.fonts.label_bold, colour, frame=colour),
+                          cands, force=True)
+    for label, tail, head, direction, own in [d for d in drawn if not d[0].frame]:
+        _label_arrow(p, view, label, tail, head, direction, own)
 
 
 def _label_arrow(p, view, label, tail, head, direction, own):
@@ -161,13 +205,24 @@ def _label_arrow(p, view, label, tail, head, direction, own):
     other = (-side[0], -side[1])
     vertical = (0.0, 1.0 if dy > 0 else -1.0)
     horizontal = (1.0 if dx > 0 else -1.0, 0.0)
+    beyond = (-dx, -dy)  # past the head, across the wall it loads
+    h = view.labels.rect_for(label, mid, (0.0, -1.0), 0.0).height()
+    on_shaft = [(QPointF(tail.x() + t * (head.x() - tail.x()),
+                         tail.y() + t * (head.y() - tail.y())), (0.0, -1.0), -0.5 * h)
+                for t in (0.5, 0.3, 0.7, 0.15)]
     view.labels.place(p, label, [
         (mid, side, 0.6 * f), (mid, other, 0.6 * f),
         (tail, vertical, 0.3 * f), (tail, horizontal, 0.3 * f),
         (tail, (dx, dy), 0.3 * f),
         (tail, (dx + side[0], dy + side[1]), 0.5 * f),
         (tail, (dx + other[0], dy + other[1]), 0.5 * f),
+        (head, beyond, 1.0 * f), (head, beyond, 3.0 * f), (head, beyond, 5.5 * f),
+        (head, beyond, 8.5 * f),
+        (head, (beyond[0] + side[0], beyond[1] + side[1]), 2.0 * f),
+        (head, (beyond[0] + other[0], beyond[1] + other[1]), 2.0 * f),
+        *on_shaft,  # on its own arrow, on a white box
         (tail, (dx, dy), 2.5 * f), (tail, (dx, dy), 4.5 * f),
+        (mid, side, 2.5 * f), (mid, other, 2.5 * f),
     ], force=True, ignore=own)
 
 

@@ -35,13 +35,14 @@ from __future__ import annotations
 
 import math
 
+import numpy as np
 from PySide6.QtCore import QLineF, QRectF, Qt
 from PySide6.QtGui import QColor, QPainter, QPen
 
 from wetline.app.render.diagram_view import DiagramView
 from wetline.app.render.geometry import part_runs, wetted_edges
 from wetline.app.render.output import ExportError, date_text
-from wetline.app.render.style import INK, part_colours
+from wetline.app.render.style import INK, Fonts, part_colours
 from wetline.app.render.title_block import TitleBlock
 from wetline.core.force_scope import force_scale, force_scope
 from wetline.core.numbers import is_noise
@@ -64,19 +65,48 @@ class DiagramScene:
         Width and height the scene is laid out for [px].
     date : datetime.date or str or None
         Date in the title block (default today).
+    structure : wetline.core.structure.StructureLoads, optional
+        The structure around the cavity in this case: drawn hatched, with
+        the ground and groundwater lines and the groundwater's pressure on
+        its outer face.
+    figure : bool
+        Lay out a figure for a page of text (the calculation sheet): the
+        drawing over the whole size and a legend along its foot, no title
+        block (the sheet's tables say what it would).
+    font_px : float, optional
+        Body text size [px] (default from the size: 8.7 pt on an A4 page
+        at 300 dpi); never shrunk below it.
+    case_name : str, optional
+        The load case drawn, named in the title block.
     """
 
-    def __init__(self, case, solution, units, size, date):
+    def __init__(self, case, solution, units, size, date, *, structure=None, figure=False,
+                 font_px=None, case_name=None):
         self.case = case
         self.solution = solution
         self.section = solution.section
         self.units = display_units(units)
         self.width, self.height = size
         self.date = date_text(date)
+        self.figure = figure
+        self.case_name = case_name
         d = min(self.width / math.sqrt(2.0), float(self.height))
-        self.base_font = max(12.0, 0.0135 * d)
-        """Body text size [px]; the title block may shrink it to fit."""
-        self.line_width = max(1.1, d / 900.0)
+        self.base_font = font_px if font_px is not None else max(12.0, 0.0147 * d)
+        """Body text size [px]: 36 px on an A4 page at 300 dpi (8.7 pt, its
+        smallest text 7.5 pt); the title block may shrink it, not below
+        :attr:`min_font`."""
+        self.min_font = self.base_font if font_px is not None else min(self.base_font,
+                                                                       0.0138 * d)
+        self.structure_loads = structure
+        self.structure = None if structure is None else structure.structure
+        gw = None if structure is None else structure.groundwater
+        self.groundwater_level = None if gw is None else gw.level
+        self.groundwater_density = None if gw is None else gw.density
+        ground = None if structure is None else structure.ground
+        self.ground_level = None if ground is None else ground.level
+        self.interfaces = _interfaces(solution)
+        self.line_width = (self.base_font / 13.0 if font_px is not None
+                           else max(1.1, d / 900.0))
         """Unit line width [px]."""
         self.margin = max(8.0, 0.02 * d)
         self.colours = part_colours(self.section.part_names)
@@ -135,6 +165,9 @@ class DiagramScene:
             p.fillRect(QRectF(0, 0, self.width, self.height), QColor("white"))
             m = self.margin
             frame = QRectF(m, m, self.width - 2 * m, self.height - 2 * m)
+            if self.figure:
+                self._draw_figure(p, frame)
+                return
             panel, columns, fonts, beside = self.title_block.fit(frame)
             if beside:
                 area = QRectF(frame.left(), frame.top(), frame.width() - panel.width(),
@@ -148,6 +181,43 @@ class DiagramScene:
         finally:
             p.restore()
 
+    def _draw_figure(self, p, frame):
+        """The drawing over ``frame`` with the legend beside it (a drawing
+        taller than the frame's shape) or in columns along its foot."""
+        fonts = Fonts(self.base_font)
+        legend = self.title_block.legend_block()
+        pad = 0.9 * fonts.base
+        gap = 1.2 * fonts.base
+        pts = self.section.outline if self.structure is None else self.structure.outline
+        wide = float(np.ptp(pts[:, 0])) * (2.0 if self.axisymmetric else 1.0)
+        tall = max(float(np.ptp(pts[:, 1])), 1e-12)
+        side_w = 15.5 * fonts.base
+        columns = max(2, min(4, int(frame.width() // (16 * fonts.base))))
+        cw = (frame.width() - 2 * pad - gap * (columns - 1)) / columns
+        below_h = max(b.measure(fonts, cw) for b in legend.split(columns)) + 2 * pad
+        # The legend beside a tall drawing, below a wide one: where the
+        # drawing comes out larger.
+        beside = (min((frame.width() - side_w) / wide, frame.height() / tall)
+                  > min(frame.width() / wide, (frame.height() - below_h) / tall))
+        if beside:
+            cw = side_w - 2 * pad
+            parts = legend.split(1)
+            area = QRectF(frame.left(), frame.top(), frame.width() - side_w, frame.height())
+            parts[0].draw(p, fonts, area.right() + pad, frame.top() + pad, cw)
+            rule = QLineF(area.right(), frame.top(), area.right(), frame.bottom())
+        else:
+            parts = legend.split(columns)
+            area = QRectF(frame.left(), frame.top(), frame.width(), frame.height() - below_h)
+            for k, block in enumerate(parts):
+                block.draw(p, fonts, frame.left() + pad + k * (cw + gap), area.bottom() + pad,
+                           cw)
+            rule = QLineF(frame.left(), area.bottom(), frame.right(), area.bottom())
+        DiagramView(self, area, fonts).draw(p)
+        p.setBrush(Qt.BrushStyle.NoBrush)
+        p.setPen(QPen(QColor(INK), 1.0 * self.line_width))
+        p.drawRect(frame)
+        p.drawLine(rule)
+
     def _draw_frame(self, p, frame, panel, beside):
         """The frame and the rule between drawing and title block, drawn last."""
         p.setBrush(Qt.BrushStyle.NoBrush)
@@ -158,3 +228,18 @@ class DiagramScene:
             p.drawLine(QLineF(panel.left(), panel.top(), panel.left(), panel.bottom()))
         else:
             p.drawLine(QLineF(panel.left(), panel.top(), panel.right(), panel.top()))
+
+
+def _interfaces(solution):
+    """(name, level [m]) of the interfaces between liquid layers of a
+    solution that has them (the top of every layer but the last)."""
+    layers = getattr(solution, "layers", None) or ()
+    out = []
+    for layer in list(layers)[:-1]:
+        if isinstance(layer, dict):
+            top, name = layer.get("top"), layer.get("name")
+        else:
+            top, name = getattr(layer, "top", None), getattr(layer, "name", None)
+        if top is not None:
+            out.append((f"top of {name}" if name else "interface", float(top)))
+    return out

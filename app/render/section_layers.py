@@ -123,8 +123,9 @@ def draw_outline(p, view):
 
 def draw_surface(p, view):
     """The free surface across the cavity (dashed above a closed section's
-    roof, with the standpipe head as a dimension), its mark and its label;
-    then the spill level if the liquid stands below it."""
+    roof, with the standpipe head as a dimension) and its mark; then the
+    spill level if the liquid stands below it. Their heights are written on
+    the levels' dimension line."""
     sc = view.scene
     s, sol = sc.section, sc.solution
     f, lw = view.f, view.lw
@@ -159,17 +160,10 @@ def draw_surface(p, view):
     size = 0.5 * f
     draw_surface_mark(p, apex, size, colour, 1.1 * lw)
     p.restore()
-    text = f"free surface {sc.length(sol.level)}"
-    if standpipe:
-        text = f"free surface (standpipe head) {sc.length(sol.level)}"
-    elif sol.spill_level is not None and sol.requested_level > sol.level + 1e-12:
-        text += ", capped at spill level"
-    lift = QPointF(apex.x(), apex.y() - 1.5 * size)
+    # Its level is written on the levels' dimension line
+    # (:func:`wetline.app.render.sketch_layers.draw_dimensions`); the mark
+    # keeps its place.
     view.labels.reserve(QRectF(apex.x() - size, apex.y() - 1.5 * size, 2 * size, 2.5 * size))
-    view.labels.place(p, Label(text, view.fonts.label_bold, SURFACE),
-                      [(lift, (1, -0.25), 0.5 * f), (lift, (-1, -0.25), 0.5 * f),
-                       (lift, (0, -1), 0.5 * f), (lift, (1, -1), 1.5 * f),
-                       (apex, (1, 1), 1.5 * f)], force=True)
     if sol.spill_level is not None and sol.spill_level > sol.level + 1e-9 * max(
             s.z_max - s.z_min, 1e-12):
         draw_spill(p, view)
@@ -194,8 +188,8 @@ def _draw_head(p, view, colour):
 
 
 def draw_spill(p, view):
-    """A short dashed line and the spill level at the lowest point of the
-    open edges."""
+    """A short dashed line at the lowest point of the open edges: the spill
+    level (its height is on the levels' dimension line)."""
     sc = view.scene
     s = sc.section
     f = view.f
@@ -219,10 +213,6 @@ def draw_spill(p, view):
     p.setPen(pen)
     p.drawLine(QLineF(pt.x() - 0.4 * f, pt.y(), pt.x() + length, pt.y()))
     p.restore()
-    view.labels.place(p, Label(f"spill level {sc.length(z)}", view.fonts.label, MUTED),
-                      [(QPointF(pt.x() + length, pt.y()), (1, 0), 0.3 * f),
-                       (QPointF(pt.x(), pt.y()), (0.3, -1), 0.3 * f),
-                       (QPointF(pt.x(), pt.y()), (-1, -1), 0.3 * f)])
 
 
 def draw_scales(p, view, band):

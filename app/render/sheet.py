@@ -37,6 +37,7 @@ from __future__ import annotations
 
 import html
 
+import numpy as np
 from PySide6.QtCore import QBuffer, QByteArray, QIODevice, QLineF, QMarginsF, QRectF, QSizeF, Qt
 from PySide6.QtGui import (
     QColor,
@@ -60,8 +61,17 @@ from wetline.app.render.output import (
 )
 from wetline.app.render.scene import DiagramScene
 from wetline.app.render.style import INK, MUTED, NOT_OK_COLOUR, OK_COLOUR, RULE, point_font
+from wetline.core.case import REVISION_KEYS
 from wetline.core.force_scope import force_scale, force_scope, resistance_quantity
-from wetline.core.numbers import format_number
+from wetline.core.load_cases import envelope
+from wetline.core.numbers import (
+    DEFAULT_DIGITS,
+    Entered,
+    figures,
+    format_entered,
+    format_number,
+    using_figures,
+)
 from wetline.core.report_tables import (
     cell_text,
     edges_table,
@@ -82,7 +92,7 @@ DPI = 300
 MAX_OUTLINE_ROWS = 80
 """Outlines with more vertices are listed only with the per-edge results."""
 
-_EDGE_PT = 6.5  # font size of the per-edge table [pt]
+_EDGE_PT = 7.2  # font size of the per-edge table [pt] (no text on the sheet is smaller)
 _MM = DPI / 25.4  # device units per millimetre
 _PAGE_W, _PAGE_H = 210.0, 297.0  # A4 portrait [mm]
 _LEFT_MM, _RIGHT_MM = 18.0, 15.0
@@ -158,18 +168,68 @@ li {{ margin-bottom: 2px; }}
 
 
 # --------------------------------------------------------------- content
-class _Sheet:
-    """The content of one calculation sheet, as HTML and figure data."""
+def _loads_at(design, solved, solution):
+    """The structure's loads of ``solved``'s case with the liquid at
+    ``solution`` (a sheet at a level of its own)."""
+    from wetline.core.structure import exterior_loads
 
-    def __init__(self, case, level, units, date):
-        self.case = case
-        self.sol = case.solve(level)
+    r = solved.resolved
+    return exterior_loads(design.structure, design.section, groundwater=r.groundwater,
+                          ground=design.ground, liquid_solution=solution,
+                          required_factor=design.required_factor, geometry=design.exterior)
+
+
+def _replace_solved(solved, solution, structure):
+    from wetline.core.load_cases import SolvedCase
+
+    return SolvedCase(resolved=solved.resolved, solution=solution, structure=structure)
+
+
+def _as_design(subject):
+    """A :class:`wetline.core.load_cases.Design` of a Design or a Case."""
+    from wetline.core.case import Case
+    from wetline.core.load_cases import Design
+
+    if isinstance(subject, Design):
+        return subject
+    if isinstance(subject, Case):
+        return Design(subject)
+    raise TypeError(f"a calculation sheet is of a Design or a Case, not {type(subject).__name__}")
+
+
+class _Sheet:
+    """The content of one calculation sheet, as HTML and figure data.
+
+    ``design`` is a :class:`wetline.core.load_cases.Design`: a file without
+    load cases and without a structure gives the sheet of one case, as
+    before; with cases (or a structure) the sheet also has the load-case
+    table, each case's results with characteristic and design values side
+    by side, the structure and flotation, and the envelope.
+    """
+
+    def __init__(self, design, level, units, date):
+        self.design = design
+        self.file_case = design.case
+        self.multi = bool(design.cases) or design.structure is not None
+        if level is not None and design.cases:
+            raise ReportError("a level for the sheet is for a file without load cases; "
+                              "the cases give their own levels")
+        self.solved = design.solve_all()
+        first = self.solved[0]
+        self.case = first.resolved.case  # the first case's liquid and fill, as numbers
+        self.sol = self.case.solve(level) if level is not None else first.solution
+        self.structure = first.structure
+        if level is not None and design.structure is not None:
+            self.structure = _loads_at(design, first, self.sol)
+            self.solved = (_replace_solved(first, self.sol, self.structure),)
+        self.case_name = first.name if design.cases else None
         self.level_given = level is not None
         self.du = display_units(units)
         self.date = date_text(date)
         self.section = self.sol.section
-        self.scope = force_scope(self.section, self.du, case.length_unit)
+        self.scope = force_scope(self.section, self.du, self.case.length_unit)
         self.force_scale = force_scale(self.sol)
+        self.envelope = envelope(self.solved) if self.multi else None
 
     # ------------------------------------------------------------ units
     def length(self, m):
@@ -182,18 +242,125 @@ class _Sheet:
         """For which width the forces are, in words."""
         return self.scope.words
 
+    def unit_weight(self, n_m3):
+        """A unit weight [N/m3] as entered: kN/m3 (and lbf/ft3 in US units)."""
+        text = f"{format_entered(n_m3 / 1000.0)} kN/m3"
+        if self.du.name == "us":
+            per = self.du.factor("force") / self.du.factor("volume")
+            text += f" ({format_number(n_m3 / per, 5)} lbf/ft3)"
+        return text
+
+    def pressure(self, pa):
+        return self.du.text(pa, "pressure")
+
     def title(self):
         s = self.section
         name = s.name.strip() or "Untitled section"
         kind = ("axisymmetric section" if s.is_axisymmetric else "plane section")
+        if self.design.cases:
+            what = (f"in {len(self.solved)} load case{'s' if len(self.solved) > 1 else ''} "
+                    "and their envelope")
+        else:
+            what = f"at a liquid level of {_e(self.length(self.sol.level))}"
         return (f"<h1>Hydrostatic loads: {_e(name)}</h1>"
-                f'<p class="sub">Calculation sheet for a {kind} at a liquid level of '
-                f"{_e(self.length(self.sol.level))}; forces {_e(self.force_scope())}.</p>")
+                f'<p class="sub">Calculation sheet for a {kind} {what}; forces '
+                f"{_e(self.force_scope())}.</p>" + self.document_control()
+                + (self._cases_inputs() if self.multi else ""))
+
+    def document_control(self):
+        """The sheet's reference, revision, sign-off, revision history and
+        the precision of its numbers."""
+        info = self.file_case.report
+        rows = [("Calculation reference", _e(info.calculation_reference or "-")),
+                ("Revision", f"<b>{_e(info.current_revision or '-')}</b>"),
+                ("Prepared by", _e(info.prepared_by or "-")),
+                ("Checked by", _e(info.checked_by or "-")),
+                ("Approved by", _e(info.approved_by or "-"))]
+        out = ["<h2>Document control</h2>", _kv_html(rows), "<h3>Revision history</h3>"]
+        if info.revisions:
+            out.append(_table_html(
+                ("revision", "date", "description", "prepared", "checked", "approved"),
+                [tuple(getattr(r, k) or "-" for k in REVISION_KEYS) for r in info.revisions],
+                align=["left"] * 6, widths=[10, 13, 41, 12, 12, 12]))
+        else:
+            out.append('<p class="note">No revision recorded.</p>')
+        out.append(f'<p class="note">{_e(self.precision_text())}</p>')
+        return "".join(out)
+
+    @staticmethod
+    def precision_text():
+        """The precision policy, in words, as the sheet follows it."""
+        n = figures()
+        default = " (the program's default)" if n == DEFAULT_DIGITS else " (set for this document)"
+        return (f"Numbers: results to {n} significant figures{default}; coordinates, "
+                "dimensions and levels as entered (points drawn with the mouse rounded to "
+                "the snap spacing); inputs echoed with the figures that identify them. The "
+                "same numbers appear in the program, its command-line tables and this sheet; "
+                "CSV files carry full precision.")
 
     def inputs(self):
-        """Section 1: the section, the liquid and gravity, the fill, the uplift inputs."""
-        return ("<h2>1 Inputs</h2>" + self._section_inputs() + self._liquid_inputs()
-                + self._fill_inputs() + self._uplift_inputs())
+        """Section 1: the section, the liquid and gravity, the fill, the uplift
+        inputs; the structure and ground, and the load cases, where there are."""
+        out = ("<h2>1 Inputs</h2>" + self._section_inputs() + self._liquid_inputs()
+               + self._fill_inputs() + self._uplift_inputs())
+        if self.design.structure is not None:
+            out += self._structure_inputs()
+        return out
+
+    def _structure_inputs(self):
+        d, du = self.design, self.du
+        st = d.structure
+        L = du.label("length")
+        loads = self.structure
+        q = resistance_quantity(self.section)
+        per = "totals" if self.section.is_axisymmetric else "per unit width"
+        rows = [("Outline", f"{st.n_edges} vertices around the cavity; parts "
+                            f"{_e(', '.join(st.part_names))}"),
+                ("Unit weight", _e(self.unit_weight(st.unit_weight))),
+                ("Self-weight", _e(self.force(loads.self_weight)) + " (between the outlines)"),
+                ("Extra weight", _e(du.text(st.extra_weight, q)) + f" ({per})"),
+                ("Anchorage", _e(du.text(st.anchorage, q)) + f" ({per})")]
+        g = d.ground
+        if g is not None:
+            rows += [("Ground surface", _e(self.length(g.level))),
+                     ("Soil unit weight", _e(f"dry {self.unit_weight(g.unit_weight_dry)}, "
+                                        f"saturated {self.unit_weight(g.unit_weight_saturated)}"))]
+        out = ["<h3>1.5 Structure and ground</h3>", _kv_html(rows)]
+        pts = du.to_display(st.outline, "length")
+        if st.n_edges <= MAX_OUTLINE_ROWS:
+            xl = "r" if self.section.is_axisymmetric else "x"
+            out.append(_table_html(("outer vertex", f"{xl} [{L}]", f"z [{L}]", "edge i part"),
+                                   [(i, Entered(float(pts[i, 0])), Entered(float(pts[i, 1])),
+                                     st.parts[i]) for i in range(st.n_edges)],
+                                   align=["right", "right", "right", "left"],
+                                   widths=[16, 21, 21, 42]))
+        return "".join(out)
+
+    def _cases_inputs(self):
+        du = self.du
+        L = du.label("length")
+        rows = []
+        for sc in self.solved:
+            r = sc.resolved
+            liq = r.case.liquid
+            level = Entered(float(du.to_display(r.level, "length")))
+            fill = {"spill": "spill level", "empty": "empty"}.get(r.fill or "", "")
+            if not fill and r.case.fill_volume is not None:
+                fill = f"volume {du.text(r.case.fill_volume, 'volume')}"
+            gw = r.groundwater
+            rows.append((sc.name, f"{liq.name}, {format_number(liq.density, 5)} kg/m3",
+                         level if not fill else f"{format_entered(level)} ({fill})",
+                         "none" if gw is None else Entered(float(du.to_display(gw.level,
+                                                                                  "length"))),
+                         sc.load_factor))
+        header = ("case", "liquid", f"level [{L}]", f"groundwater [{L}]", "load factor")
+        return ("<h2>Load cases</h2>"
+                '<p class="note">Each case starts from the file-level liquid and fill above '
+                "and changes what it names. Design values are the characteristic liquid and "
+                "groundwater loads times the case's load factor (self-weight, soil and "
+                "anchorage are not factored).</p>"
+                + _table_html(header, rows, align=["left", "left", "right", "right", "right"],
+                              widths=[24, 30, 18, 16, 12]))
 
     def _section_inputs(self):
         s, du, case = self.section, self.du, self.case
@@ -335,6 +502,22 @@ class _Sheet:
                                   "force: down on the part named floor; support reaction: down "
                                   "on all other wetted parts; check: floor force + support "
                                   "reaction = W (computed independently, not assumed)"),
+        ]
+        if self.design.structure is not None:
+            rows += [
+                ("Groundwater", "<b>p = ρ<sub>w</sub> g (z<sub>w</sub> − z)</b> on the outer "
+                                "face below the groundwater level z<sub>w</sub>; its upward sum "
+                                "is the buoyancy ρ<sub>w</sub> g V<sub>submerged</sub> "
+                                "(Archimedes)"),
+                ("Flotation", "<b>factor = R / U</b>, R = self-weight γ<sub>c</sub> × (area or "
+                              "volume between the outlines) + extra weight + soil on the "
+                              "ledges + anchorage, U the upward groundwater force; design: "
+                              "R / (γ<sub>F</sub> U), γ<sub>F</sub> the case's load factor"),
+                ("Base slab", "net upward pressure = groundwater pressure under the base − "
+                              "liquid pressure on the floor above it, the largest along each "
+                              "floor edge"),
+            ]
+        rows += [
             ("Uplift", "<b>factor = (G + R) / U</b>, U the upward load of the liquid on the "
                        "part, G its self-weight, R the holding-down resistance; at the current "
                        "level and at the worst level of the fill range (empty to the spill "
@@ -364,6 +547,9 @@ class _Sheet:
         return "".join(out)
 
     def results(self):
+        return self._multi_results() if self.multi else self._single_results()
+
+    def _single_results(self):
         s, sol, du, case = self.section, self.sol, self.du, self.case
         out = ["<h2>3 Results</h2>",
                f"<h3>3.1 Totals</h3><p>Forces {_e(self.force_scope())}.</p>"]
@@ -408,6 +594,120 @@ class _Sheet:
             out.append(f"<p>{_e(text)}</p>")
         return "".join(out)
 
+    def _multi_results(self):
+        out = ["<h2>3 Results</h2>",
+               f"<p>Forces {_e(self.force_scope())}. Each case gives its characteristic "
+               "values (the loads as computed) beside its design values (times the case's "
+               "load factor); the envelope over all cases is in design values.</p>"]
+        n = len(self.solved)
+        for k, sc in enumerate(self.solved, start=1):
+            out.append(self._case_results(k, sc))
+        out.append(self._envelope_html(n + 1))
+        return "".join(out)
+
+    def _case_results(self, k, sc):
+        du, lu = self.du, self.case.length_unit
+        sol, gamma = sc.solution, sc.load_factor
+        scope, scale = self.scope, force_scale(sol)
+        out = [f"<h3>3.{k} Case {_e(sc.name)} (load factor {_e(format_number(gamma))})</h3>"]
+        loads = {"fluid weight", "floor force", "support reaction", "max pressure"}
+        rows = []
+        for name, value, unit, note in totals_table(sol, du, lu).rows:
+            design = value * gamma if name in loads and value is not None else None
+            rows.append((name, with_note(value, note), "-" if design is None
+                         else cell_text(design), unit))
+        out.append(_table_html(("quantity", "characteristic", "design", "unit"), rows,
+                               align=["left", "right", "right", "left"],
+                               widths=[34, 24, 24, 18]))
+        parts = parts_table(sol, du, lu)
+        if parts.rows:
+            F = scope.label
+            prow = [(r[0], r[1], r[2], r[3], None if r[3] is None else r[3] * gamma, r[4])
+                    for r in parts.rows]
+            out.append(_table_html(("part", f"fx [{F}]", f"fz [{F}]", f"down [{F}]",
+                                    f"design down [{F}]", "note"), prow))
+        up = uplift_table(sc.resolved.case, du, sol)
+        if up.rows:
+            out.append(_table_html(up.header, up.rows, verdict_col=len(up.header) - 1,
+                                   align=["left"] + ["right"] * (len(up.header) - 2)
+                                   + ["center"]))
+        st = sc.structure
+        if st is not None:
+            fl = st.flotation
+            r_text = (f"self-weight {scope.text(st.self_weight, scale=scale)} + extra "
+                      f"{scope.text(st.extra_weight, scale=scale)} + soil "
+                      f"{scope.text(st.soil_weight, scale=scale)} + anchorage "
+                      f"{scope.text(st.anchorage, scale=scale)}")
+            design_factor = (None if fl.factor is None or not fl.uplift > 0
+                             else fl.resistance / (gamma * fl.uplift))
+            verdict = ("OK" if design_factor is None or design_factor >= fl.required
+                       else "NOT OK")
+            out.append(_table_html(
+                ("flotation", f"uplift U [{scope.label}]", f"resistance R [{scope.label}]",
+                 "factor R / U", "design R / (γ U)", "required", "verdict"),
+                [("whole structure", scope.to_display(fl.uplift),
+                  scope.to_display(fl.resistance), fl.factor, design_factor, fl.required,
+                  verdict)],
+                verdict_col=6, align=["left"] + ["right"] * 5 + ["center"]))
+            out.append(f'<p class="note">R = {_e(r_text)}; the liquid inside is not counted. '
+                       "No factor where nothing lifts the structure.</p>")
+            top = st.base_net_max
+            if top is not None:
+                P = du.label("pressure")
+                x, z = (format_entered(v) for v in du.to_display(np.array(top.point),
+                                                                     "length"))
+                out.append(_table_html(
+                    ("base slab", f"net upward [{P}]", f"design [{P}]", "floor edge",
+                     f"at (x, z) [{du.label('length')}]"),
+                    [("groundwater - liquid", du.to_display(top.net, "pressure"),
+                      du.to_display(gamma * top.net, "pressure"), top.index, f"{x}, {z}")],
+                    align=["left", "right", "right", "right", "right"]))
+        return "".join(out)
+
+    def _envelope_html(self, k):
+        env, du = self.envelope, self.du
+        scope = self.scope
+        F = scope.label
+        scale = max(force_scale(sc.solution) for sc in self.solved)
+        out = [f"<h3>3.{k} Envelope of the {len(self.solved)} cases (design values)</h3>"]
+        rows = [(name, scope.to_display(0.0 if abs(e.max_down) < 1e-12 * scale
+                                        else e.max_down), e.max_down_case or "-",
+                 scope.to_display(0.0 if abs(e.max_up) < 1e-12 * scale else e.max_up),
+                 e.max_up_case or "-") for name, e in env.parts.items()]
+        out.append(_table_html(("part", f"largest down [{F}]", "governing case",
+                                f"largest uplift [{F}]", "governing case"), rows,
+                               align=["left", "right", "left", "right", "left"]))
+        i = int(np.argmax(env.edge_max_pressure)) if env.edge_max_pressure.size else None
+        lines = []
+        if i is not None:
+            pmax, case = env.edge(i)
+            lines.append(("Largest pressure", f"{_e(du.text(pmax, 'pressure'))} on edge {i}"
+                          + (f", case {_e(case)}" if case else "")))
+        fl = env.flotation
+        if fl is not None:
+            if fl.factor is None:
+                lines.append(("Flotation", "no case lifts the structure: <b>OK</b>"))
+            else:
+                colour = OK_COLOUR if fl.ok else NOT_OK_COLOUR
+                lines.append(("Lowest flotation factor",
+                              f"<b>{_e(format_number(fl.factor))}</b> in case {_e(fl.case)} "
+                              f"against {_e(format_number(fl.required))} required: "
+                              f'<b><span style="color: {colour};">'
+                              f"{'OK' if fl.ok else 'NOT OK'}</span></b>"))
+        b = env.base
+        if b is not None:
+            if b.case is None:
+                lines.append(("Base slab", "never lifted (net upward pressure 0)"))
+            else:
+                x, z = (format_entered(v) for v in du.to_display(np.array(b.point), "length"))
+                lines.append(("Governing base pressure",
+                              f"<b>{_e(du.text(b.net_upward_pressure, 'pressure'))}</b> net "
+                              f"upward, case {_e(b.case)}, floor edge {b.index} at ({x}, {z}) "
+                              f"{_e(du.label('length'))}"))
+        if lines:
+            out.append(_kv_html(lines))
+        return "".join(out)
+
     def _factor_source(self):
         f = self.case.required_uplift_factor
         if f == DEFAULT_REQUIRED_FACTOR:
@@ -417,14 +717,23 @@ class _Sheet:
     def notes(self):
         sol = self.sol
         out = ["<h2>4 Warnings, assumptions and cautions</h2>", "<h3>Warnings</h3>"]
-        if sol.warnings:
+        if self.multi:
+            items = [f"case {sc.name}: {w}" for sc in self.solved for w in sc.warnings]
+            out.append("<ul>" + "".join(f"<li>{_e(w)}</li>" for w in items) + "</ul>" if items
+                       else "<p>None in any case.</p>")
+        elif sol.warnings:
             out.append("<ul>" + "".join(f"<li>{_e(w)}</li>" for w in sol.warnings) + "</ul>")
         else:
             out.append("<p>None at this level.</p>")
         out.append("<h3>Assumptions</h3><ul>"
                    + "".join(f"<li>{_e(a)}</li>" for a in ASSUMPTIONS)
                    + "<li>forces are what the liquid exerts on the wall; x to the right, "
-                     "z up</li></ul>")
+                     "z up</li>"
+                   + ("<li>groundwater acts on the structure's outer face with p = ρ<sub>w</sub> "
+                      "g (z<sub>w</sub> − z); soil stands on its ledges and roof (vertical "
+                      "effective stress); <b>lateral earth pressure is not computed</b></li>"
+                      if self.design.structure is not None else "")
+                   + "</ul>")
         out.append("<h3>Cautions</h3>")
         out.append(f'<table width="100%" cellpadding="6" cellspacing="0" border="1" '
                    f'style="border-collapse: collapse; border-color: {NOT_OK_COLOUR};">'
@@ -547,7 +856,7 @@ def _header(p, rect, sheet, page, pages):
     case, s = sheet.case, sheet.section
     info = case.report
     lw = 0.25 * _MM
-    label_font, value_font = point_font(6.5), point_font(8.5, bold=True)
+    label_font, value_font = point_font(7.2), point_font(8.0, bold=True)
     dev = p.device()
     lfm, vfm = QFontMetricsF(label_font, dev), QFontMetricsF(value_font, dev)
     title_h = 5.0 * _MM
@@ -562,10 +871,12 @@ def _header(p, rect, sheet, page, pages):
                Qt.AlignmentFlag.AlignRight | Qt.AlignmentFlag.AlignVCenter, program_name())
     grid = QRectF(rect.left(), rect.top() + title_h, rect.width(), rect.height() - title_h)
     cells = [("Project", info.project or "-"), ("Job reference", info.job_reference or "-"),
-             ("Date", sheet.date),
+             ("Calc. reference", info.calculation_reference or "-"),
+             ("Revision", info.current_revision or "-"), ("Date", sheet.date),
              ("Section", s.name.strip() or "untitled"),
-             ("Prepared by", info.prepared_by or "-"), ("Sheet", f"Page {page} of {pages}")]
-    widths = [0.46, 0.32, 0.22]
+             ("Prepared by", info.prepared_by or "-"), ("Checked by", info.checked_by or "-"),
+             ("Approved by", info.approved_by or "-"), ("Sheet", f"Page {page} of {pages}")]
+    widths = [0.33, 0.16, 0.19, 0.16, 0.16]
     rh = grid.height() / 2
     pad = 1.4 * _MM
     p.setPen(QPen(QColor(INK), lw))
@@ -575,7 +886,7 @@ def _header(p, rect, sheet, page, pages):
     for col, w in enumerate(widths):
         cw = w * grid.width()
         for row in range(2):
-            label, value = cells[row * 3 + col]
+            label, value = cells[row * len(widths) + col]
             r = QRectF(x, grid.top() + row * rh, cw, rh)
             p.setPen(QPen(QColor(RULE), lw))
             p.drawRect(r)
@@ -598,7 +909,7 @@ def _footer(p, rect, sheet, page, pages):
     lw = 0.2 * _MM
     p.setPen(QPen(QColor(RULE), lw))
     p.drawLine(QLineF(rect.left(), rect.top(), rect.right(), rect.top()))
-    p.setFont(point_font(6.5))
+    p.setFont(point_font(7.2))
     p.setPen(QColor(MUTED))
     r = rect.adjusted(0, 1.2 * _MM, 0, 0)
     p.drawText(r, Qt.AlignmentFlag.AlignLeft | Qt.AlignmentFlag.AlignTop,
@@ -608,64 +919,129 @@ def _footer(p, rect, sheet, page, pages):
                f"{sheet.date}  ·  page {page} of {pages}")
 
 
+def _caption(p, body, y, title, note):
+    """A figure's title and note at ``y``; returns the y below them."""
+    f = 3.3 * _MM  # title height
+    p.setPen(QColor(INK))
+    p.setFont(point_font(8.5, bold=True))
+    p.drawText(QRectF(body.left(), y, body.width(), f + _MM),
+               Qt.AlignmentFlag.AlignLeft | Qt.AlignmentFlag.AlignTop, title)
+    p.setPen(QColor(MUTED))
+    p.setFont(point_font(7.5))
+    flags = int(Qt.AlignmentFlag.AlignLeft | Qt.AlignmentFlag.AlignTop) | int(
+        Qt.TextFlag.TextWordWrap)
+    r = p.boundingRect(QRectF(body.left(), y + f + 0.6 * _MM, body.width(), 20 * _MM), flags,
+                       note)
+    p.drawText(r, flags, note)
+    return r.bottom() + 1.5 * _MM
+
+
+_SKETCH_NOTE = ("The section with its vertex and edge numbers (as in every table), its "
+                "dimensions and levels, and the gauge pressure on each wetted wall drawn "
+                "outward from the wall; each part's total is labelled once, the runs of a part "
+                "loaded on several runs by their edges; characteristic values to {n} "
+                "significant figures, as in the tables.")
+
+
+def _case_title(sheet, k, sc):
+    if sheet.design.cases:
+        return (f"Figure {k}. Case {sc.name}: sketch and pressure diagram (load factor "
+                f"{format_number(sc.load_factor)})")
+    return f"Figure {k}. Sketch and pressure diagram"
+
+
 def _figures(p, body, sheet, units):
-    """Section 5 on one page: the pressure diagram and the loads chart."""
-    f = 3.3 * _MM  # heading height
+    """Section 5, first page: the sketch and pressure diagram of the first
+    case over the whole page."""
     y = body.top()
     p.setPen(QColor(INK))
     p.setFont(point_font(11, bold=True))
     p.drawText(QRectF(body.left(), y, body.width(), 6 * _MM),
                Qt.AlignmentFlag.AlignLeft | Qt.AlignmentFlag.AlignTop, "5 Figures")
     y += 8 * _MM
-    cap_font = point_font(8.5, bold=True)
-    note_font = point_font(7.5)
+    first = sheet.solved[0]
+    y = _caption(p, body, y, _case_title(sheet, 1, first), _SKETCH_NOTE.format(n=figures()))
+    # The figure over the body, laid out in points (one unit of the scene is
+    # 1 pt on the page), so its text is as large as it reads here.
+    rect = QRectF(body.left(), y, body.width(), body.bottom() - y)
+    _paint_figure(p, rect, sheet, units, sheet.case, sheet.sol, sheet.structure,
+                  sheet.case_name)
 
-    def caption(y, title, note):
-        p.setPen(QColor(INK))
-        p.setFont(cap_font)
-        p.drawText(QRectF(body.left(), y, body.width(), f + _MM),
-                   Qt.AlignmentFlag.AlignLeft | Qt.AlignmentFlag.AlignTop, title)
-        p.setPen(QColor(MUTED))
-        p.setFont(note_font)
-        r = p.boundingRect(QRectF(body.left(), y + f + 0.6 * _MM, body.width(), 20 * _MM),
-                           int(Qt.AlignmentFlag.AlignLeft | Qt.AlignmentFlag.AlignTop)
-                           | int(Qt.TextFlag.TextWordWrap), note)
-        p.drawText(r, int(Qt.AlignmentFlag.AlignLeft | Qt.AlignmentFlag.AlignTop)
-                   | int(Qt.TextFlag.TextWordWrap), note)
-        return r.bottom() + 1.5 * _MM
 
-    y = caption(y, "Figure 1. Pressure diagram",
-                "Gauge pressure on each wetted wall drawn outward from the wall, with the "
-                "resultant of each part and the key totals (values to 4 significant figures, as "
-                "in the tables).")
-    # The diagram scene, laid out for a small logical size (so its text is
-    # legible at this scale) and painted as vectors.
-    logical = (700, 500)
-    h1 = body.width() * logical[1] / logical[0]
-    rect = QRectF(body.left(), y, body.width(), h1)
+def _chart_page(p, body, sheet, units, items):
+    """Section 5, second page: the loads against level of the first case,
+    then the sketch of the next case, if any (``items``)."""
+    first = sheet.solved[0]
+    what = f" (case {first.name})" if sheet.design.cases else ""
+    y = _caption(p, body, body.top(), f"Figure 2. Loads against level{what}",
+                 "Downward load on the floor and on the supports, the liquid weight and each "
+                 "part's load as the free surface rises from empty; the current level is "
+                 "marked.")
+    bottom = body.top() + (0.42 if items else 0.6) * body.height()
+    level = sheet.sol.level if sheet.level_given else None
+    paint_level_chart(p, QRectF(body.left(), y + 1 * _MM, body.width(), bottom - y - _MM),
+                      sheet.case, level=level, units=units, font_px=8.2 / 72 * DPI)
+    y = bottom + 6 * _MM
+    for k, sc in items:
+        y = _caption(p, body, y, _case_title(sheet, k, sc), _SKETCH_NOTE.format(n=figures()))
+        _paint_figure(p, QRectF(body.left(), y, body.width(), body.bottom() - y), sheet, units,
+                      sc.resolved.case, sc.solution, sc.structure, sc.name)
+
+
+def _case_figures(p, body, sheet, units, items):
+    """A further page of section 5: the sketches of up to two more cases,
+    ``items`` (figure number, SolvedCase)."""
+    y = body.top()
+    share = (body.bottom() - y) / 2
+    for k, sc in items:
+        top = y
+        y = _caption(p, body, y, _case_title(sheet, k, sc), _SKETCH_NOTE.format(n=figures()))
+        rect = QRectF(body.left(), y, body.width(), top + share - y - 4 * _MM)
+        _paint_figure(p, rect, sheet, units, sc.resolved.case, sc.solution, sc.structure,
+                      sc.name)
+        y = top + share
+
+
+FIGURE_FONT_PT = 8.7
+"""Body text of the sheet's figures [pt]; their smallest text is 0.86 of it
+(7.5 pt), never less than 7 pt at print size."""
+
+
+MAX_CASE_FIGURES = 12
+"""Cases drawn at most (the first this many); the tables give every case."""
+
+
+def _paint_figure(p, rect, sheet, units, case, solution, structure=None, case_name=None):
+    """The sketch and pressure diagram of ``solution`` into ``rect`` (device
+    units of the PDF), at :data:`FIGURE_FONT_PT`."""
+    pt = DPI / 72.0  # device units per point
+    logical = (rect.width() / pt, rect.height() / pt)
     p.save()
     p.translate(rect.topLeft())
-    p.scale(rect.width() / logical[0], rect.height() / logical[1])
+    p.scale(pt, pt)
     p.setClipRect(QRectF(0, 0, *logical))
-    DiagramScene(sheet.case, sheet.sol, units, logical, sheet.date).draw(p)
+    DiagramScene(case, solution, units, logical, sheet.date, structure=structure, figure=True,
+                 font_px=FIGURE_FONT_PT, case_name=case_name).draw(p)
     p.restore()
-    y = rect.bottom() + 6 * _MM
-    y = caption(y, "Figure 2. Loads against level",
-                "Downward load on the floor and on the supports, the liquid weight and each "
-                "part's load as the free surface rises from empty; the current level is "
-                "marked.")
-    rect = QRectF(body.left(), y, body.width(), body.bottom() - y)
-    p.setPen(QPen(QColor(RULE), 0.2 * _MM))
-    p.setBrush(Qt.BrushStyle.NoBrush)
-    level = sheet.sol.level if sheet.level_given else None
-    paint_level_chart(p, rect.adjusted(0, 1 * _MM, 0, 0), sheet.case, level=level, units=units,
-                      font_px=7.5 / 72 * DPI)
 
 
-def report_pdf_bytes(case, *, level=None, units="si", date=None, progress=None):
-    """The calculation sheet of ``case`` as PDF bytes (see :func:`write_report`)."""
+def report_pdf_bytes(subject, *, level=None, units="si", date=None, progress=None, case=None):
+    """The calculation sheet of ``subject`` as PDF bytes (see :func:`write_report`)."""
     level = check_level(level, ReportError)
     du = display_units(units)
+    design = _as_design(subject)
+    if case is not None:
+        try:
+            chosen = design.cases[design.index(case)] if design.cases else None
+        except ValueError as exc:
+            raise ReportError(str(exc)) from None
+        if chosen is not None:
+            design = design.with_cases([chosen])
+    with using_figures(design.case.report.significant_figures):
+        return _pdf(design, level, du, date, progress)
+
+
+def _pdf(design, level, du, date, progress):
     ensure_app()
     steps = 4
 
@@ -674,7 +1050,7 @@ def report_pdf_bytes(case, *, level=None, units="si", date=None, progress=None):
             progress(k, steps, text)
 
     tell(0, "solving")
-    sheet = _Sheet(case, level, du.name, date)
+    sheet = _Sheet(design, level, du.name, date)
     data = QByteArray()
     buffer = QBuffer(data)
     buffer.open(QIODevice.OpenModeFlag.WriteOnly)
@@ -682,15 +1058,18 @@ def report_pdf_bytes(case, *, level=None, units="si", date=None, progress=None):
     writer.setResolution(DPI)
     geo, wide = _Pages(), _Pages(landscape=True)
     writer.setPageLayout(geo.layout)
-    name = case.section.name.strip() or "Untitled section"
+    name = design.section.name.strip() or "Untitled section"
     writer.setTitle(f"Hydrostatic loads: {name}")
     writer.setCreator(program_name())
     tell(1, "laying out the text")
     main = _document(sheet.main_html(), writer, geo.body)
     edges = _document(sheet.edges_html(writer, wide.body), writer, wide.body)
     n_main, n_edges = main.pageCount(), edges.pageCount()
-    total = n_main + 1 + n_edges
+    more = [(k, sc) for k, sc in enumerate(sheet.solved[1:MAX_CASE_FIGURES], start=3)]
+    pairs = [more[k:k + 2] for k in range(1, len(more), 2)]
+    total = n_main + 2 + len(pairs) + n_edges
     plan = ([("doc", main, k, geo) for k in range(n_main)] + [("figures", None, 0, geo)]
+            + [("chart", more[:1], 0, geo)] + [("cases", pair, 0, geo) for pair in pairs]
             + [("doc", edges, k, wide) for k in range(n_edges)])
     tell(2, f"painting {total} pages")
     p = QPainter()
@@ -709,6 +1088,10 @@ def report_pdf_bytes(case, *, level=None, units="si", date=None, progress=None):
             _header(p, geo_.header, sheet, number, total)
             if kind == "figures":
                 _figures(p, geo_.body, sheet, du.name)
+            elif kind == "chart":
+                _chart_page(p, geo_.body, sheet, du.name, doc)
+            elif kind == "cases":
+                _case_figures(p, geo_.body, sheet, du.name, doc)
             else:
                 body = geo_.body
                 h = body.height()
@@ -724,18 +1107,25 @@ def report_pdf_bytes(case, *, level=None, units="si", date=None, progress=None):
     return bytes(data.data())
 
 
-def write_report(case, path, *, level=None, units="si", date=None, progress=None):
-    """Write the calculation sheet of ``case`` to a PDF file, atomically.
+def write_report(subject, path, *, level=None, units="si", date=None, progress=None,
+                 case=None):
+    """Write the calculation sheet of ``subject`` to a PDF file, atomically.
 
     Parameters
     ----------
-    case : wetline.core.case.Case
-        The section, liquid, gravity, fill, uplift inputs and the header
-        fields (``case.report``).
+    subject : wetline.core.load_cases.Design or wetline.core.case.Case
+        Every design situation of a section file (a plain Case is
+        ``Design(case)``: one case): the section, liquid, gravity, fill,
+        uplift inputs, the structure and ground, the load cases, and the
+        header, document control and precision policy
+        (``design.case.report``). With load cases the sheet has the
+        load-case table, every case's results (characteristic and design
+        values) and sketch, and the envelope.
     path : str or os.PathLike
         The PDF to write; replaced if it exists.
     level : float, optional
-        Free-surface height [m] for this sheet instead of the case's fill.
+        Free-surface height [m] for this sheet instead of the case's fill
+        (a file without load cases only).
     units : str
         ``"si"`` (m, kPa, kN) or ``"us"`` (ft, psi, lbf).
     date : datetime.date or str, optional
@@ -743,15 +1133,19 @@ def write_report(case, path, *, level=None, units="si", date=None, progress=None
     progress : callable, optional
         Called as ``progress(step, steps, text)`` as the work goes on
         (``step`` from 0 to ``steps - 1``), e.g. to move a progress bar.
+    case : str, optional
+        The sheet of this load case only (its name); default every case.
 
     Raises
     ------
     ReportError
-        For a bad level, or a path that cannot be written (missing folder,
-        a folder in the way, no permission, disk full); nothing is left
-        behind. A ValueError, like every input error.
+        For a bad level (or a level with load cases), an unknown case, or a
+        path that cannot be written (missing folder, a folder in the way, no
+        permission, disk full); nothing is left behind. A ValueError, like
+        every input error.
     core.units.UnitError
         For an unknown unit system.
     """
     write_output(path, "the PDF", lambda: report_pdf_bytes(
-        case, level=level, units=units, date=date, progress=progress), error=ReportError)
+        subject, level=level, units=units, date=date, progress=progress, case=case),
+        error=ReportError)

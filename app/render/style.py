@@ -17,7 +17,9 @@ from wetline.core.section import AXIS, FLOOR, OPEN
 
 __all__ = [
     "INK", "MUTED", "RULE", "LIQUID", "LIQUID_GHOST", "SURFACE", "DIAGRAM_FILL",
-    "DIAGRAM_LINE", "DIAGRAM_TEXT", "LOAD", "UPLIFT", "OPEN_EDGE", "FLOOR_COLOUR",
+    "DIAGRAM_LINE", "DIAGRAM_TEXT", "LOAD", "UPLIFT", "LOAD_EDGE", "UPLIFT_EDGE",
+    "OPEN_EDGE", "FLOOR_COLOUR", "DIMENSION", "STRUCTURE_FILL", "GROUND", "GROUNDWATER",
+    "GROUNDWATER_FILL",
     "LEVEL_SERIES", "LEVEL_MARK",
     "PART_COLOURS", "part_colours", "OK_COLOUR", "NOT_OK_COLOUR",
     "FONT_FAMILY", "Fonts", "pixel_font", "point_font",
@@ -46,6 +48,20 @@ LOAD = "#a61e2d"
 """A resultant pressing a part outward or down."""
 UPLIFT = "#5a2fa6"
 """A resultant lifting a part."""
+LOAD_EDGE = "#b8646c"
+"""The value of one run of a part's edges (lighter than a part's total)."""
+UPLIFT_EDGE = "#8a6fbd"
+"""The value of one run lifting a part (lighter than a part's total)."""
+DIMENSION = "#3d4856"
+"""Dimension lines, their ticks and extension lines."""
+STRUCTURE_FILL = "#eceff2"
+"""The structure's section between its outline and the cavity (hatched over)."""
+GROUND = "#7a5c3a"
+"""The ground surface and its soil mark."""
+GROUNDWATER = "#1f7f9e"
+"""The groundwater line, its mark and its pressure on the outer face."""
+GROUNDWATER_FILL = (86, 170, 196, 70)
+"""Fill of the groundwater's pressure diagram (RGBA)."""
 OPEN_EDGE = "#8c96a1"
 """Open edges (no wall) and the axis."""
 FLOOR_COLOUR = "#6b4a2b"

@@ -9,18 +9,21 @@ with a QPainter, in the pixel fonts of :class:`wetline.app.render.style.Fonts`;
 from __future__ import annotations
 
 from PySide6.QtCore import QLineF, QPointF, QRectF, Qt
-from PySide6.QtGui import QColor, QFontMetricsF, QPen, QPolygonF
+from PySide6.QtGui import QBrush, QColor, QFontMetricsF, QPen, QPolygonF
 
 from wetline.app.render.marks import draw_arrow, draw_surface_mark
 from wetline.app.render.style import (
     DIAGRAM_FILL,
     DIAGRAM_LINE,
+    GROUNDWATER_FILL,
+    HCENTER,
     INK,
     LEFT,
     LOAD,
     MUTED,
     RIGHT,
     RULE,
+    STRUCTURE_FILL,
     SURFACE,
     TOP,
     VCENTER,
@@ -188,24 +191,50 @@ class Table(Block):
 
 class Legend(Block):
     """Symbol and text, one item a line: kinds line, dash, dashdot, fill,
-    diagram, surface, arrow_down, arrow_up."""
+    diagram, surface, arrow_down, arrow_up, arrow_side, arrow_edge, vertex,
+    edge, dimension, structure, ground, groundwater, groundwater_diagram."""
 
     def __init__(self, items):
         self.items = items  # (kind, colour, text)
 
+    def split(self, columns):
+        """The items in ``columns`` legends of about equal length, in order."""
+        n = len(self.items)
+        per = -(-n // max(int(columns), 1))
+        return [Legend(self.items[k:k + per]) for k in range(0, n, per)] or [Legend([])]
+
     def _sym(self, fonts):
         return 2.6 * fonts.base
 
+    @staticmethod
+    def _columns(fonts, width):
+        """Two columns where the block is wide enough, else one."""
+        return 2 if width >= 26 * fonts.base else 1
+
+    def _halves(self, fonts, width):
+        cols = self._columns(fonts, width)
+        if cols == 1:
+            return [self.items], width
+        per = -(-len(self.items) // 2)
+        gap = 1.0 * fonts.base
+        return [self.items[:per], self.items[per:]], (width - gap) / 2
+
     def measure(self, fonts, width):
-        tw = width - self._sym(fonts) - 0.6 * fonts.base
-        return sum(max(text_height(fonts.body, tw, t), 1.2 * fonts.base) + 0.2 * fonts.base
-                   for _, _, t in self.items)
+        groups, cw = self._halves(fonts, width)
+        tw = cw - self._sym(fonts) - 0.6 * fonts.base
+        return max(sum(max(text_height(fonts.body, tw, t), 1.2 * fonts.base) + 0.2 * fonts.base
+                       for _, _, t in items) for items in groups)
 
     def draw(self, p, fonts, x, y, width):
+        groups, cw = self._halves(fonts, width)
+        for k, items in enumerate(groups):
+            self._draw_items(p, fonts, x + k * (width - cw), y, cw, items)
+
+    def _draw_items(self, p, fonts, x, y, width, items):
         sym = self._sym(fonts)
         tw = width - sym - 0.6 * fonts.base
         lw = max(1.2, fonts.base / 8)
-        for kind, colour, text in self.items:
+        for kind, colour, text in items:
             h = max(text_height(fonts.body, tw, text), 1.2 * fonts.base)
             cy = y + 0.62 * QFontMetricsF(fonts.body).height()
             c = QColor(colour)
@@ -241,8 +270,48 @@ class Legend(Block):
                 p.setPen(QPen(QColor(DIAGRAM_LINE), lw * 1.2))
                 p.setBrush(Qt.BrushStyle.NoBrush)
                 p.drawPolygon(poly)
-            elif kind in ("arrow_down", "arrow_up", "arrow_side"):
-                if kind == "arrow_side":
+            elif kind in ("vertex", "edge"):
+                r = QRectF(x + 0.5 * sym - 0.55 * fonts.base, cy - 0.55 * fonts.base,
+                           1.1 * fonts.base, 1.1 * fonts.base)
+                p.setPen(QPen(c, lw * 0.7) if kind == "edge" else Qt.PenStyle.NoPen)
+                p.setBrush(QColor("white"))
+                p.drawRoundedRect(r, 0.15 * fonts.base, 0.15 * fonts.base)
+                p.setFont(fonts.small)
+                p.setPen(c)
+                p.drawText(r, HCENTER | VCENTER, "3")
+            elif kind == "dimension":
+                p.setPen(QPen(c, lw * 0.7))
+                p.drawLine(QLineF(x, cy, x + sym, cy))
+                for xx in (x + 0.15 * sym, x + 0.85 * sym):
+                    s = 0.3 * fonts.base
+                    p.drawLine(QLineF(xx - s, cy + s, xx + s, cy - s))
+            elif kind == "structure":
+                r = QRectF(x, cy - 0.45 * fonts.base, sym, 0.9 * fonts.base)
+                p.fillRect(r, QColor(STRUCTURE_FILL))
+                p.fillRect(r, QBrush(c, Qt.BrushStyle.BDiagPattern))
+                p.setPen(QPen(QColor(INK), lw * 0.8))
+                p.drawRect(r)
+            elif kind == "ground":
+                p.setPen(QPen(c, lw * 1.2))
+                p.drawLine(QLineF(x, cy, x + sym, cy))
+                xx = x + 0.3 * fonts.base
+                while xx < x + sym:
+                    p.drawLine(QLineF(xx, cy, xx - 0.4 * fonts.base, cy + 0.4 * fonts.base))
+                    xx += 0.9 * fonts.base
+            elif kind == "groundwater":
+                pen = QPen(c, lw)
+                pen.setStyle(Qt.PenStyle.DashLine)
+                p.setPen(pen)
+                p.drawLine(QLineF(x, cy, x + sym, cy))
+                draw_surface_mark(p, QPointF(x + 0.6 * sym, cy), 0.42 * fonts.base, c, lw)
+            elif kind == "groundwater_diagram":
+                r = QRectF(x, cy - 0.5 * fonts.base, sym, fonts.base)
+                poly = QPolygonF([r.topLeft(), r.bottomLeft(), QPointF(r.right(), r.bottom())])
+                p.setPen(QPen(c, lw * 0.8))
+                p.setBrush(QColor(*GROUNDWATER_FILL))
+                p.drawPolygon(poly)
+            elif kind in ("arrow_down", "arrow_up", "arrow_side", "arrow_edge"):
+                if kind in ("arrow_side", "arrow_edge"):
                     a, b = QPointF(x, cy), QPointF(x + sym, cy)
                 else:
                     mid = x + 0.5 * sym

@@ -15,8 +15,13 @@ from PySide6.QtCore import QRectF
 from wetline.app.render.output import program_name
 from wetline.app.render.style import (
     DIAGRAM_LINE,
+    DIMENSION,
+    GROUND,
+    GROUNDWATER,
+    INK,
     LIQUID,
     LOAD,
+    LOAD_EDGE,
     MUTED,
     OPEN_EDGE,
     SURFACE,
@@ -55,6 +60,8 @@ class TitleBlock:
             sub = "Axisymmetric section, revolved about the axis x = 0 (x is the radius)"
         else:
             sub = f"Plane section, {self.scene.length(s.width)} wide out of the drawing"
+        if self.scene.case_name:
+            sub = f"Load case {self.scene.case_name}. {sub}"
         return [Title(name, sub)]
 
     def _liquid(self):
@@ -132,6 +139,10 @@ class TitleBlock:
         return [Heading("Loads by part"), Table(header, table), Note(note)]
 
     def _legend(self):
+        return [Heading("Legend"), self.legend_block()]
+
+    def legend_block(self):
+        """The legend's items as one :class:`Legend` block."""
         sc = self.scene
         s = sc.section
         items = [("line", sc.colours[part], part) for part in s.loaded_part_names]
@@ -142,9 +153,21 @@ class TitleBlock:
         items += [("fill", LIQUID, "liquid"),
                   ("surface", SURFACE, "free surface"),
                   ("diagram", DIAGRAM_LINE, "pressure on the wall, drawn outward"),
-                  ("arrow_down", LOAD, "resultant on a part"),
-                  ("arrow_up", UPLIFT, "resultant lifting a part (uplift)")]
-        return [Heading("Legend"), Legend(items)]
+                  ("arrow_down", LOAD, "resultant on a part (its total, bold)"),
+                  ("arrow_up", UPLIFT, "resultant lifting a part (uplift)"),
+                  ("arrow_edge", LOAD_EDGE, "one run of a part, named by its edges"),
+                  ("vertex", INK, "vertex number"),
+                  ("edge", MUTED, "edge number (edge i: vertex i to i + 1)"),
+                  ("dimension", DIMENSION, "dimension line, level")]
+        if sc.structure is not None:
+            items.append(("structure", MUTED, "structure around the cavity"))
+            if sc.ground_level is not None:
+                items.append(("ground", GROUND, "ground surface"))
+            if sc.groundwater_level is not None:
+                items += [("groundwater", GROUNDWATER, "groundwater level"),
+                          ("groundwater_diagram", GROUNDWATER,
+                           "groundwater pressure on the outer face")]
+        return Legend(items)
 
     def footer(self):
         """The blocks at the foot of the last column: caution, units, date, program."""
@@ -219,7 +242,8 @@ class TitleBlock:
                       for ph in sorted({max(ph0, s * frame.height()) for s in _BELOW_SHARES})]
         fonts = Fonts(base)
         panel = next((r for r in panels if self.flow(fonts, r, columns)), panels[-1])
-        while base > 7.0 and not self.flow(fonts, panel, columns):
+        floor = max(7.0, self.scene.min_font)
+        while base * 0.93 >= floor and not self.flow(fonts, panel, columns):
             base *= 0.93
             fonts = Fonts(base)
         return panel, columns, fonts, beside

@@ -35,12 +35,16 @@ from PySide6.QtCore import Qt, QTimer, Signal
 from wetline.app.render.geometry import auto_scale
 from wetline.app.window.canvas_editing import RESERVED_PART_CHOICES, OutlineEditor
 from wetline.app.window.canvas_labels import CanvasLabels
+from wetline.app.window.draw_input import STARTS
 from wetline.app.window.grid import LightGrid
 from wetline.app.window.load_layer import LoadLayer
 from wetline.app.window.outline_layer import OutlineLayer
+from wetline.app.window.parts_proposal import PartsProposal
+from wetline.app.window.snap import SnapGrid
 from wetline.app.window.structure_layer import StructureLayer
 from wetline.app.window.vertex_handles import MAX_HANDLES, VertexHandles
 from wetline.app.window.view_range import smallest_span, usable_range
+from wetline.core.numbers import format_entered
 
 __all__ = ["SectionCanvas", "RESERVED_PART_CHOICES"]
 
@@ -53,15 +57,21 @@ class SectionCanvas(pg.PlotWidget):
     message = Signal(str)
     """A short message for the status bar (an edit that was refused ...)."""
     modeChanged = Signal(str)
+    typedStart = Signal(str)
+    """A number key typed on the canvas while drawing: the typed-vertex
+    field (:class:`wetline.app.window.draw_input.DrawInput`) takes it."""
 
     def __init__(self, document, parent=None):
         super().__init__(parent, background="w")
         self._doc = document
         self._mode = "edit"
-        self.snap_enabled = False
-        self.snap_spacing = 0.1
-        """Snap grid spacing [m]."""
+        u = document.units
+        self.snap_grid = SnapGrid(u.length_unit, float(u.length_si(1.0)))
+        """Where points made with the mouse land (on by default, a round
+        number of the display unit)."""
         self._solution = None
+        self.pointer = None
+        """Where the pointer last was over the view (x, z) [m], or None."""
         self._first_fit = True
         self._outline_dirty = True
         self.confirm_new_section = lambda: True
@@ -76,6 +86,8 @@ class SectionCanvas(pg.PlotWidget):
         self.labels.view_obstacles = self._legend_box
         self.editor = OutlineEditor(self, document)
         self.handles = VertexHandles(self.editor.pick_vertex)
+        self.proposal = PartsProposal(self, document)
+        """The parts proposed for an outline just drawn, with one click to change."""
         vb.addItem(self.handles)
         # The structure's vertices: square, grey, under the cavity's handles.
         self.structure_handles = VertexHandles(self.editor.pick_structure_vertex)
@@ -90,6 +102,7 @@ class SectionCanvas(pg.PlotWidget):
         self._redraw_timer.setInterval(0)
         self._redraw_timer.timeout.connect(self.redraw)
         self._connect(document)
+        self._apply_units()
         self.schedule(outline=True)
 
     def _set_up_view(self):
@@ -131,6 +144,11 @@ class SectionCanvas(pg.PlotWidget):
     def mode(self):
         return self._mode
 
+    @property
+    def display_units(self):
+        """The document's display units (:class:`wetline.app.model.display.DisplayChoice`)."""
+        return self._doc.units
+
     def set_mode(self, mode):
         """``"edit"`` (drag, select, insert) or ``"draw"`` (click a new outline)."""
         if mode not in ("edit", "draw"):
@@ -138,9 +156,12 @@ class SectionCanvas(pg.PlotWidget):
         if mode != self._mode:
             self._mode = mode
             self.editor.clear_drawing()
+            if mode == "draw":
+                self.proposal.hide()
             self.modeChanged.emit(mode)
-            self.message.emit("Click the vertices of the new outline; double-click or Enter "
-                              "closes it, Esc cancels" if mode == "draw" else "")
+            self.message.emit("Click the vertices of the new outline, or type each in the "
+                              "Next vertex field; double-click or Enter closes it, Esc "
+                              "cancels" if mode == "draw" else "")
 
     def fit(self):
         """Show the whole section with its diagrams and resultants."""
@@ -178,12 +199,30 @@ class SectionCanvas(pg.PlotWidget):
         """Fit the view once the next results are drawn (a file opened)."""
         self._first_fit = True
 
+    @property
+    def snap_enabled(self):
+        """True if points made with the mouse snap to the grid."""
+        return self.snap_grid.enabled
+
+    @snap_enabled.setter
+    def snap_enabled(self, on):
+        self.snap_grid.enabled = bool(on)
+
+    @property
+    def snap_spacing(self):
+        """Snap grid spacing [m] (a round number of the display unit)."""
+        return self.snap_grid.spacing
+
+    @snap_spacing.setter
+    def snap_spacing(self, metres):
+        self.snap_grid.set_spacing(metres)
+
     def snap(self, x, z):
-        """(x, z) [m] on the snap grid, if snapping is on."""
-        if self.snap_enabled and self.snap_spacing > 0:
-            s = self.snap_spacing
-            return round(x / s) * s, round(z / s) * s
-        return x, z
+        """(x, z) [m] of a point made with the mouse: on the snap grid if
+        snapping is on, else rounded to the 1-2-5 step of the display unit
+        under one screen pixel (:class:`wetline.app.window.snap.SnapGrid`)."""
+        px = self.getPlotItem().getViewBox().viewPixelSize()
+        return self.snap_grid.point(x, z, pixel=min(px) if px[0] > 0 and px[1] > 0 else None)
 
     def schedule(self, outline=False):
         """Redraw at the next event-loop turn (the outline too, if asked)."""
@@ -208,7 +247,25 @@ class SectionCanvas(pg.PlotWidget):
         self.schedule()
 
     def _on_unitsChanged(self):
+        self._apply_units()
         self.schedule()
+
+    def _apply_units(self):
+        """The axes, their grid and the snap spacing in the display length
+        unit (ft or in in US): the view stays in metres, the ticks are
+        round numbers of the unit shown."""
+        u = self._doc.units
+        per_m = float(u.length(1.0))  # display units per metre
+        plot = self.getPlotItem()
+        r = "r" if self._doc.section.is_axisymmetric else "x"
+        for name, text in (("bottom", f"{r} [{u.length_unit}]"),
+                           ("left", f"z [{u.length_unit}]")):
+            axis = plot.getAxis(name)
+            axis.enableAutoSIPrefix(False)
+            axis.setScale(per_m)
+            axis.setLabel(text)
+        self._grid.set_scale(per_m, per_m)
+        self.snap_grid.follow_units(u)
 
     def _on_diagramScaleChanged(self):
         self.schedule()
@@ -326,6 +383,7 @@ class SectionCanvas(pg.PlotWidget):
         if not self.getPlotItem().getViewBox().sceneBoundingRect().contains(scene_pos):
             return
         x, z = self._view_point(scene_pos)
+        self.pointer = (x, z)
         self.hoverText.emit(self.describe_point(x, z))
         if self._mode == "draw" and self.editor.drawn:
             self.outline_layer.show_sketch(self.editor.drawn + [self.snap(x, z)])
@@ -337,6 +395,9 @@ class SectionCanvas(pg.PlotWidget):
         self.editor.on_click(x, z, ev.button(), ev.double(), ev.screenPos())
 
     def keyPressEvent(self, ev):
+        if self._mode == "draw" and ev.text() and ev.text() in STARTS:
+            self.typedStart.emit(ev.text())
+            return
         if not self.editor.on_key(ev.key()):
             super().keyPressEvent(ev)
 
@@ -345,6 +406,11 @@ class SectionCanvas(pg.PlotWidget):
         units = self._doc.units
         sol = self._solution
         text = f"x {units.fmt_length(x)}   z {units.fmt_length(z)}"
+        if self._mode == "draw":  # where a click would put the vertex
+            sx, sz = self.snap(x, z)
+            text = (f"x {format_entered(units.length(sx))} {units.length_unit}   "
+                    f"z {format_entered(units.length(sz))} {units.length_unit}   "
+                    f"(snap {self.snap_grid.text() if self.snap_enabled else 'off'})")
         if sol is None:
             return text
         depth = sol.level - z

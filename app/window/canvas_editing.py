@@ -7,9 +7,12 @@ results on release, one undo step),
 click to select a vertex or an edge, double-click an edge to insert a vertex
 there, Delete removes the selected vertex, arrow keys nudge it by the snap
 spacing (or a hundredth of the section), right-click an edge to set its
-part. Mode "draw": click vertices of a new outline; double-click, Enter or a
+part. Mode "draw": click vertices of a new outline (on the snap grid) or
+type them (:mod:`wetline.app.window.draw_input`); double-click, Enter or a
 click on the first vertex closes it, Backspace takes the last one back, Esc
-cancels. Every edit is made by :mod:`wetline.app.model.editing`.
+cancels. A closed outline gets proposed parts (floor, open top, walls) with
+one click to keep or change them (:mod:`wetline.app.window.parts_proposal`).
+Every edit is made by :mod:`wetline.app.model.editing`.
 """
 
 from __future__ import annotations
@@ -217,6 +220,12 @@ class OutlineEditor:
         if double:
             self.finish_drawing()
             return
+        self.add_point(*p)
+
+    def add_point(self, x, z):
+        """Add (x, z) [m] to the outline being drawn, as it is (a typed
+        vertex: no snapping)."""
+        p = (float(x), float(z))
         if not self.drawn or self.drawn[-1] != p:
             self.drawn.append(p)
         self._canvas.outline_layer.show_sketch(self.drawn)
@@ -236,6 +245,7 @@ class OutlineEditor:
             self._canvas.message.emit(f"Invalid outline: {self._doc.draft.error}")
             self._canvas.schedule(outline=True)
             return False
+        self._canvas.proposal.offer(self._doc.section.parts)
         return True
 
     def cancel_drawing(self):

@@ -3,13 +3,15 @@ loads are drawn, laid out in pixels by the one layout engine
 (:class:`wetline.app.render.labels.LabelLayout`) and shown with a small pool
 of ``pyqtgraph.TextItem``.
 
-The most important are asked for first (resultants, largest first; the free
-surface and spill level; pressure values, deepest first). A label that
-would cover another, a resultant's shaft or (on small outlines) a vertex
-handle steps aside if it must show, or is left out. The layout is made again
-when the view zooms or pans, since it is in pixels. Its work per label is
-bounded: arrows and handles far off the view are clipped or dropped, so a
-vertex dragged a million sizes away costs no more than one near by.
+The most important are asked for first (each part's total, largest first;
+the runs of parts loaded on several runs; the free surface and spill level;
+pressure values, deepest first). A label that would cover another, a
+resultant's shaft or (on small outlines) a vertex handle steps aside if it
+must show, or is left out; no label reaches past the edge of the view (it
+would be cut). The layout is made again when the view zooms or pans, since
+it is in pixels. Its work per label is bounded: arrows and handles off the
+view are clipped or dropped, so a vertex dragged a million sizes away costs
+no more than one near by.
 """
 
 from __future__ import annotations
@@ -22,7 +24,7 @@ from PySide6.QtGui import QFont, QFontMetricsF
 from wetline.app.render.labels import LabelLayout
 
 __all__ = ["CanvasLabels", "LABEL_MARGIN", "MAX_HANDLE_OBSTACLES", "SAME_VALUE_PX",
-           "SHAFT_CLEARANCE"]
+           "SHAFT_CLEARANCE", "VIEW_EDGE", "NEAR_OFFSETS"]
 
 MAX_HANDLE_OBSTACLES = 120
 """Up to this many vertices, labels keep off the vertex handles."""
@@ -34,6 +36,10 @@ SAME_VALUE_PX = 150.0
 """A pressure value already labelled this near [px] is not labelled again."""
 SHAFT_CLEARANCE = 4.0
 """Labels keep this far [px] off a resultant's shaft."""
+NEAR_OFFSETS = 10
+"""Places a label asked ``near`` tries beside its own (within its height)."""
+VIEW_EDGE = 2.0
+"""Labels keep this far [px] inside the view's edge."""
 _SIZE_CACHE = 2000
 """Text sizes kept before the cache starts again."""
 
@@ -85,12 +91,14 @@ class CanvasLabels:
         """Keep labels off the arrow shaft (x0, z0)-(x1, z1) [m]."""
         self._shafts.append((x0, z0, x1, z1))
 
-    def ask(self, x, z, text, colour, anchor, bold=False, optional=False, once=False):
+    def ask(self, x, z, text, colour, anchor, bold=False, optional=False, once=False,
+            near=False):
         """Ask for ``text`` at (x, z) [m], in order of importance: shown
         unless (``optional``) the place is taken; a label that must show
-        steps aside instead. ``once``: not shown if the same text is already
-        shown nearby. ``anchor`` as for ``pyqtgraph.TextItem``."""
-        self.requests.append((x, z, text, colour, anchor, bold, optional, once))
+        steps aside instead (``near``: only close by, else it is left out).
+        ``once``: not shown if the same text is already shown nearby.
+        ``anchor`` as for ``pyqtgraph.TextItem``."""
+        self.requests.append((x, z, text, colour, anchor, bold, optional, once, near))
 
     def _on_rangeChanged(self, *_):
         if self.requests:
@@ -104,12 +112,11 @@ class CanvasLabels:
         px = vb.viewPixelSize()
         self.px = (px[0] or 1e-9, px[1] or 1e-9)
         sx, sz = self.px
-        # The view and as much again around it: obstacles and arrows far off
-        # the view are dropped or clipped.
+        # Labels stay inside the view (a label past its edge is cut);
+        # obstacles and arrows off the view are dropped or clipped.
         (x0, x1), (z0, z1) = vb.viewRange()
-        bx0, bx1, bz0, bz1 = x0 / sx, x1 / sx, z0 / sz, z1 / sz
-        wx, wz = bx1 - bx0, bz1 - bz0
-        self.layout = LabelLayout(bounds=(bx0 - wx, bz0 - wz, bx1 + wx, bz1 + wz))
+        e = VIEW_EDGE
+        self.layout = LabelLayout(bounds=(x0 / sx + e, z0 / sz + e, x1 / sx - e, z1 / sz - e))
         for vx, vz in np.asarray(self._handles).reshape(-1, 2) / self.px:
             self.layout.add_obstacle(vx - 5, vz - 5, vx + 5, vz + 5)
         for a, b, c, d in self.view_obstacles():
@@ -118,10 +125,10 @@ class CanvasLabels:
             self.layout.add_line(a / sx, b / sz, c / sx, d / sz, clearance=SHAFT_CLEARANCE,
                                  soft=False)
         self.used = 0
-        for x, z, text, colour, anchor, bold, optional, once in self.requests:
+        for x, z, text, colour, anchor, bold, optional, once, near in self.requests:
             if once and self.layout.seen_near(text, x / sx, z / sz, SAME_VALUE_PX):
                 continue
-            self._place(x, z, text, colour, anchor, bold, optional)
+            self._place(x, z, text, colour, anchor, bold, optional, near)
         for item in self.items[self.used:]:
             if item.isVisible():
                 item.hide()
@@ -146,11 +153,11 @@ class CanvasLabels:
             self._sizes[key] = size
         return size
 
-    def _place(self, x, z, text, colour, anchor, bold, optional):
+    def _place(self, x, z, text, colour, anchor, bold, optional, near=False):
         width, height = self._text_size(text, bold)
         shift = self.layout.place_anchored(x / self.px[0], z / self.px[1], width, height,
                                            anchor, required=not optional, margin=LABEL_MARGIN,
-                                           key=text)
+                                           key=text, offsets=NEAR_OFFSETS if near else None)
         if shift is None:
             return None
         item = self._item()

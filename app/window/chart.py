@@ -16,6 +16,8 @@ level, named.
 
 from __future__ import annotations
 
+import math
+
 import pyqtgraph as pg
 from PySide6.QtCore import Qt
 
@@ -23,6 +25,7 @@ from wetline.app.model import editing
 from wetline.app.model.document import fill_range
 from wetline.app.render.style import FLOOR_COLOUR, LEVEL_MARK, LEVEL_SERIES, part_colours
 from wetline.app.window.grid import LightGrid
+from wetline.app.window.outer_legend import legend_outside
 from wetline.app.window.view_range import smallest_span, usable_range
 from wetline.core.section import FLOOR
 
@@ -31,6 +34,8 @@ __all__ = ["LoadChart"]
 CURSOR_COLOUR = LEVEL_MARK
 FLOOR_FORCE_COLOUR = FLOOR_COLOUR
 """The floor force curve's colour (the floor part's envelope marks)."""
+LEGEND_ROWS = 6
+"""Entries per column of the legend right of the curves."""
 
 
 class LoadChart(pg.PlotWidget):
@@ -43,7 +48,8 @@ class LoadChart(pg.PlotWidget):
         self._grid = LightGrid(plot.getViewBox())
         plot.setMenuEnabled(False)
         plot.hideButtons()
-        self._legend = plot.addLegend(offset=(8, 8), labelTextSize="8pt")
+        # Right of the curves, outside the data (never over a curve).
+        self._legend = legend_outside(plot, "right")
         # The ranges are set from the level table (never left to pyqtgraph's
         # auto-range, which hands a view the empty range of constant data).
         plot.getViewBox().disableAutoRange()
@@ -161,6 +167,8 @@ class LoadChart(pg.PlotWidget):
                 plot.removeItem(c)
             self._curves = [plot.plot(name=name, pen=pg.mkPen(colour, width=2, style=style))
                             for _, name, colour, style in series]
+            # One column of up to six entries beside the curves, then more columns.
+            self._legend.fit_columns(math.ceil(len(series) / LEGEND_ROWS))
             self._series_key = key
         scope = self._doc.force_scope(section)
         ys = [scope.to_display(y) for y, *_rest in series]

@@ -27,17 +27,28 @@ class LightGrid(pg.PlotCurveItem):
         super().__init__(connect="pairs", skipFiniteCheck=True, pen=pg.mkPen(colour, width=1))
         self.setZValue(-100)
         self._vb = viewbox
+        self.scale = (1.0, 1.0)
+        """Display units per view unit in x and y: the lines fall on round
+        numbers of the unit shown on the axes (feet on a view in metres)."""
         viewbox.addItem(self, ignoreBounds=True)
         viewbox.sigRangeChanged.connect(self._on_rangeChanged)
         self._on_rangeChanged()
 
     def _on_rangeChanged(self, *_):
         (x0, x1), (y0, y1) = self._vb.viewRange()
-        xs = self._lines(x0, x1)
-        ys = self._lines(y0, y1)
+        kx, ky = self.scale
+        xs = self._lines(x0 * kx, x1 * kx) / kx
+        ys = self._lines(y0 * ky, y1 * ky) / ky
         x = np.concatenate([np.repeat(xs, 2), np.tile([x0, x1], ys.size)])
         y = np.concatenate([np.tile([y0, y1], xs.size), np.repeat(ys, 2)])
         self.setData(x, y)
+
+    def set_scale(self, kx, ky):
+        """Round lines in display units: ``kx``, ``ky`` display units per
+        view unit."""
+        if (kx, ky) != self.scale:
+            self.scale = (float(kx), float(ky))
+            self._on_rangeChanged()
 
     @staticmethod
     def _lines(a, b):

@@ -24,14 +24,23 @@ from wetline.app.render.geometry import (
     diagram_polygons,
     envelope_wetted_edges,
     liquid_rings,
+    load_marks,
     part_runs,
     pressure_arrows,
     pressure_sites,
-    run_resultants,
     surface_spans,
     wetted_edges,
 )
-from wetline.app.render.style import DIAGRAM_FILL, DIAGRAM_LINE, DIAGRAM_TEXT, LOAD, MUTED, SURFACE
+from wetline.app.render.style import (
+    DIAGRAM_FILL,
+    DIAGRAM_LINE,
+    DIAGRAM_TEXT,
+    LOAD,
+    LOAD_EDGE,
+    MUTED,
+    SURFACE,
+    UPLIFT_EDGE,
+)
 from wetline.app.render.style import UPLIFT as UPLIFT_COLOUR
 from wetline.app.window.canvas_items import (
     add_item,
@@ -72,6 +81,7 @@ class LoadLayer:
         self.envelope_edges = None
         """The WettedEdges of the envelope diagram last drawn (None in case view)."""
         self._parts_key = self._carries = self._runs = None
+        self._shafts = []
 
     def polygon(self, section):
         """The cavity of ``section`` as a shapely polygon (kept per section)."""
@@ -98,9 +108,18 @@ class LoadLayer:
         self.diagram.setPath(path)
         tx, tz, px, pz = pressure_arrows(w, scale)
         self.arrows.setData(*arrow_strokes(tx, tz, px, pz, 0.02 * size))
-        self._draw_resultants(solution, w, runs, size, scope, labels)
+        totals, pieces = self._draw_resultants(solution, w, runs, size, scope)
+        for shaft in self._shafts:
+            labels.keep_off_shaft(*shaft)
+        # In order of importance: the parts' totals, the free surface and
+        # spill level, the runs' values (near their arrows), the totals of
+        # parts whose runs cancel (where there is room), the pressures.
+        for args, kw in totals:
+            labels.ask(*args, **kw)
         for ask in surface_labels:
             labels.ask(*ask)
+        for args, kw in pieces:
+            labels.ask(*args, **kw)
         self._ask_pressures(w, scale, section.n_edges, units, labels)
 
     def draw_envelope(self, solved, scale, units, labels):
@@ -194,42 +213,58 @@ class LoadLayer:
             self.spill.setData([], [])
         return asks
 
-    def _draw_resultants(self, solution, w, runs, size, scope, labels):
-        """One arrow per run of a part from the point where it acts, longer
-        for larger loads; labelled largest first, the arrows kept clear."""
-        res = run_resultants(solution, runs, w)
-        if not res:
+    def _draw_resultants(self, solution, w, runs, size, scope):
+        """An arrow per run of a part from the point where it acts, longer
+        for larger loads; each part's total labelled once (bold, at its
+        resultant), the runs of a part loaded on several runs named by their
+        edges in a lighter style (:func:`wetline.app.render.geometry.load_marks`);
+        the arrows kept clear of the labels. Returns the labels to ask for:
+        (totals, the rest), each a list of (args, keywords) of
+        :meth:`wetline.app.window.canvas_labels.CanvasLabels.ask`."""
+        self._shafts = []
+        marks = load_marks(solution, runs, w)
+        if not marks:
             self.down.setData([], [])
             self.up.setData([], [])
-            return
-        mags = np.array([np.hypot(0.0 if np.isnan(fx) else fx, fz) for _, fx, fz, _, _ in res])
-        biggest = float(mags.max()) or 1.0
-        down_t, up_t, asked = [], [], []
-        for k in np.argsort(-mags, kind="stable"):  # the largest first
-            run, fx, fz, cx, cz = res[k]
-            mag = mags[k]
-            if not mag > 1e-9 * biggest:
-                continue
-            ux, uz = (0.0 if np.isnan(fx) else fx) / mag, fz / mag
-            length = size * (0.12 + 0.13 * mag / biggest)
-            uplift = fz > 1e-9 * biggest
-            tip = (cx + length * ux, cz + length * uz)
-            (up_t if uplift else down_t).append((cx, cz, *tip))
-            labels.keep_off_shaft(cx, cz, *tip)
-            if len(asked) < MAX_RESULTANT_LABELS:
-                asked.append((run.part, mag, uplift, tip, ux, uz))
-        for part, mag, uplift, tip, ux, uz in asked:
-            text = f"{part}: {scope.text(mag)}" + (" uplift" if uplift else "")
-            # The tip on the box's edge facing back along the arrow.
-            m = max(abs(ux), abs(uz))
-            labels.ask(tip[0], tip[1], text, UPLIFT_COLOUR if uplift else LOAD,
-                       (0.5 - 0.5 * ux / m, 0.5 + 0.5 * uz / m), bold=True)
-        for item, arrows in ((self.down, down_t), (self.up, up_t)):
-            if arrows:
-                a = np.array(arrows)
+            return [], []
+        biggest = max(m.magnitude for m in marks) or 1.0
+        arrows = [m for m in marks if m.arrow and m.magnitude > 1e-9 * biggest]
+        top = max((m.magnitude for m in arrows), default=1.0) or 1.0
+        down_t, up_t, tips = [], [], {}
+        for m in arrows:
+            mag = m.magnitude
+            ux, uz = (0.0 if np.isnan(m.fx) else m.fx) / mag, m.fz / mag
+            length = size * (0.12 + 0.13 * mag / top)
+            tip = (m.x + length * ux, m.z + length * uz)
+            (up_t if m.is_uplift(biggest) else down_t).append((m.x, m.z, *tip))
+            self._shafts.append((m.x, m.z, *tip))
+            tips[id(m)] = (tip, ux, uz)
+        totals, pieces, cancelled = [], [], []
+        for m in marks[:MAX_RESULTANT_LABELS]:
+            up = m.is_uplift(biggest)
+            text = m.text(scope.text(m.magnitude, scale=biggest), biggest)
+            if m.total:
+                colour = UPLIFT_COLOUR if up else LOAD
+            else:
+                colour = UPLIFT_EDGE if up else LOAD_EDGE
+            cancels = m.magnitude <= 1e-9 * biggest  # a total whose runs cancel
+            if id(m) in tips:
+                tip, ux, uz = tips[id(m)]
+                # The tip on the box's edge facing back along the arrow.
+                k = max(abs(ux), abs(uz))
+                ask = ((tip[0], tip[1], text, colour, (0.5 - 0.5 * ux / k, 0.5 + 0.5 * uz / k)),
+                       {"bold": m.total, "near": not m.total})
+            else:  # a part's total on several runs: at its resultant, no arrow
+                ask = ((m.x, m.z, text, colour, (0.5, 0.5)),
+                       {"bold": True, "optional": cancels})
+            (cancelled if cancels else totals if m.total else pieces).append(ask)
+        for item, arrows_ in ((self.down, down_t), (self.up, up_t)):
+            if arrows_:
+                a = np.array(arrows_)
                 item.setData(*arrow_strokes(a[:, 0], a[:, 1], a[:, 2], a[:, 3], 0.045 * size))
             else:
                 item.setData([], [])
+        return totals, pieces + cancelled
 
     @staticmethod
     def _ask_pressures(w, scale, n_vertices, units, labels):

@@ -31,13 +31,15 @@ from wetline.app.window import dialogs
 from wetline.app.window.canvas import SectionCanvas
 from wetline.app.window.case_list import CaseListPanel
 from wetline.app.window.chart import LoadChart
+from wetline.app.window.draw_input import DrawInput
 from wetline.app.window.files import Transfer
 from wetline.app.window.flotation_panel import FlotationPanel
 from wetline.app.window.panels import FillPanel, LiquidPanel, TotalsPanel, parse_number
 from wetline.app.window.tables import EdgesTable, PartsTable, VerticesPane, VerticesTable
 from wetline.app.window.uplift_panel import UpliftPanel
 from wetline.core.load_cases import LoadCaseError
-from wetline.core.numbers import format_number
+from wetline.core.number_input import parse_decimal
+from wetline.core.numbers import format_entered, format_number
 from wetline.core.results import CAUTION
 from wetline.core.section import SectionError
 from wetline.core.section_file import SectionFileError, read_design, write_design
@@ -150,6 +152,9 @@ class MainWindow(QMainWindow):
 
         self.hover = QLabel()
         self.statusBar().addWidget(self.hover, 1)
+        # While drawing: the next vertex, typed (coordinates, or a length and a way).
+        self.draw_input = DrawInput(self.canvas)
+        self.statusBar().addPermanentWidget(self.draw_input)
         self._build_menus()
         self._build_toolbar()
 
@@ -225,8 +230,9 @@ class MainWindow(QMainWindow):
             "Replace the outline by a list of x, z (and part) in the display length unit")
         a["import_csv"].setIconText("Import CSV")
         a["report_info"] = self._action(
-            "Calculation sheet &header...", self.edit_report_info, None,
-            "Project, job reference and prepared by, printed on every page of the sheet")
+            "Calculation sheet &header and precision...", self.edit_report_info, None,
+            "Project, references, sign-off, revision history and the significant figures of "
+            "results, printed on the sheet")
         a["quit"] = self._action("&Quit", self.close, S.Quit)
         a["preferences"] = self._action(
             "Pre&ferences...", self.edit_preferences, None,
@@ -370,7 +376,8 @@ class MainWindow(QMainWindow):
         tb.addWidget(self.view_combo)
         tb.addSeparator()
         self.snap_box = QCheckBox("Snap")
-        self.snap_box.setToolTip("Snap vertices to a grid")
+        self.snap_box.setToolTip("Snap vertices to a grid of round numbers of the display unit")
+        self.snap_box.setChecked(self.canvas.snap_enabled)
         self.snap_spacing = QLineEdit()
         self.snap_spacing.setMaximumWidth(70)
         self.snap_spacing.setToolTip("Snap grid spacing (display length unit)")
@@ -412,6 +419,8 @@ class MainWindow(QMainWindow):
     def _status(self, text):
         if text:
             self.statusBar().showMessage(text, 8000)
+        else:  # a hint that no longer holds (the drawing hint once drawn)
+            self.statusBar().clearMessage()
 
     def _on_pathChanged(self):
         if self.doc.path:
@@ -451,7 +460,7 @@ class MainWindow(QMainWindow):
             w.blockSignals(True)
         self.units_combo.setCurrentIndex(i)
         self.actions_by_name["units"][i].setChecked(True)
-        self.snap_spacing.setText(format_number(u.length(self.canvas.snap_spacing), 4))
+        self.snap_spacing.setText(format_entered(self.canvas.snap_grid.step))
         self.snap_unit.setText(u.length_unit + " ")
         p = u.units.label("pressure")
         self.scale_unit.setText(f"{p} per {u.length_unit} ")
@@ -483,13 +492,14 @@ class MainWindow(QMainWindow):
 
     def _on_snap_spacing_edited(self):
         try:
-            v = parse_number(self.snap_spacing.text(), "Snap spacing")
+            v = parse_decimal(self.snap_spacing.text(), "Snap spacing")
             if not v > 0:
                 raise ValueError("Snap spacing must be positive")
         except ValueError as exc:
             self._status(str(exc))
+            self.snap_spacing.setText(format_entered(self.canvas.snap_grid.step))
             return
-        self.canvas.snap_spacing = self.doc.units.length_si(v)
+        self.canvas.snap_grid.set_step(v)
 
     def _on_scale_edited(self, *_):
         u = self.doc.units

@@ -1,5 +1,5 @@
 """The canvas's drawing of the outline itself: each part in its colour (with
-a legend), the mirrored half and centre line of an axisymmetric section, the
+a legend above the drawing), the mirrored half and centre line of an axisymmetric section, the
 selected edge and vertex, an invalid outline with its fault, and the outline
 being drawn in draw mode.
 
@@ -17,6 +17,7 @@ from PySide6.QtGui import QColor
 
 from wetline.app.render.style import MUTED, part_colours
 from wetline.app.window.canvas_items import add_item, cosmetic_pen, edge_segments, pairs_curve
+from wetline.app.window.outer_legend import legend_outside
 from wetline.core.section import AXIS, OPEN
 
 __all__ = ["OutlineLayer", "HIGHLIGHT_COLOUR", "FAULT_COLOUR"]
@@ -36,7 +37,8 @@ class OutlineLayer:
         self._plot = plot
         vb = plot.getViewBox()
         self._part_curves = {}
-        self._legend = plot.addLegend(offset=(10, 10), labelTextSize="9pt")
+        # Above the view, outside the drawing (never over the outline).
+        self._legend = legend_outside(plot, "top", label_size="9pt")
         self.highlight = pairs_curve(vb, pg.mkPen(HIGHLIGHT_COLOUR, width=7), 8)
         self.selected = add_item(vb, pg.ScatterPlotItem(
             size=13, pen=pg.mkPen("#000000", width=2), brush=pg.mkBrush(HIGHLIGHT_COLOUR)), 41)
@@ -88,6 +90,7 @@ class OutlineLayer:
                 self._part_curves[name] = curve
             curve.setPen(pg.mkPen(colours[name], width=width, style=style))
             curve.setData(x, z)
+        self._legend.fit_columns(len(names))
         self._draw_mirror(outline, parts_arr, axisymmetric)
 
     def _draw_mirror(self, outline, parts_arr, axisymmetric):

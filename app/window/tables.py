@@ -26,7 +26,7 @@ from PySide6.QtWidgets import (
 from wetline.app.model import editing
 from wetline.app.model.document import CAVITY, STRUCTURE
 from wetline.app.window.panels import parse_number
-from wetline.core.numbers import format_number
+from wetline.core.numbers import format_entered, format_number
 from wetline.core.section import AXIS, FLOOR, OPEN
 from wetline.core.structure import OUTER_WALL
 
@@ -346,8 +346,8 @@ class VerticesModel(_Model):
             return None
         if role in (Qt.DisplayRole, Qt.EditRole):
             if c < 2:
-                v = self._doc.units.length(outline[i, c])
-                return repr(float(v)) if role == Qt.EditRole else format_number(v, 6)
+                # Coordinates as entered (the precision policy), to edit too.
+                return format_entered(self._doc.units.length(outline[i, c]))
             return parts[i]
         if role == Qt.TextAlignmentRole and c < 2:
             return _RIGHT
@@ -365,8 +365,10 @@ class VerticesModel(_Model):
         structure = self.target == STRUCTURE
         try:
             if c < 2:
-                v = doc.units.length_si(parse_number(str(value), ("x", "z")[c]))
                 outline, _ = self.outline()
+                if str(value).strip() == format_entered(doc.units.length(outline[i, c])):
+                    return True  # the text as shown, not edited: no step
+                v = doc.units.length_si(parse_number(str(value), ("x", "z")[c]))
                 x, z = outline[i]
                 if c == 0:
                     x = v

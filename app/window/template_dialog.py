@@ -1,5 +1,6 @@
 """New section from a template: pick a shape, type its dimensions in the
-display length unit, and (plane sections) the width."""
+display length unit, and (plane sections) the width; a labelled sketch of
+the shape shows what each dimension measures, as typed."""
 
 from __future__ import annotations
 
@@ -8,12 +9,14 @@ from PySide6.QtWidgets import (
     QDialog,
     QDialogButtonBox,
     QFormLayout,
+    QHBoxLayout,
     QLabel,
     QLineEdit,
     QVBoxLayout,
 )
 
 from wetline.app.window.panels import ERROR_STYLE, parse_number
+from wetline.app.window.template_sketch import TemplateSketch
 from wetline.core.numbers import format_number
 from wetline.core.section import SectionError
 from wetline.core.templates import TEMPLATES
@@ -45,7 +48,11 @@ class TemplateDialog(QDialog):
         self._units = units
         self.result_section = None
         self.result_level = None
-        lay = QVBoxLayout(self)
+        outer = QHBoxLayout(self)
+        lay = QVBoxLayout()
+        outer.addLayout(lay, 0)
+        self.sketch = TemplateSketch()
+        outer.addWidget(self.sketch, 1)
         self.choice = QComboBox()
         for key, t in TEMPLATES.items():
             self.choice.addItem(f"{t.title} ({t.kind})", key)
@@ -54,6 +61,7 @@ class TemplateDialog(QDialog):
         self.description.setWordWrap(True)
         lay.addWidget(self.description)
         self.form = QFormLayout()
+        self.form.setFieldGrowthPolicy(QFormLayout.AllNonFixedFieldsGrow)
         lay.addLayout(self.form)
         self.error = QLabel()
         self.error.setStyleSheet(ERROR_STYLE)
@@ -62,6 +70,7 @@ class TemplateDialog(QDialog):
         buttons = QDialogButtonBox(QDialogButtonBox.Ok | QDialogButtonBox.Cancel)
         buttons.accepted.connect(self.accept)
         buttons.rejected.connect(self.reject)
+        lay.addStretch(1)
         lay.addWidget(buttons)
         self.fields = {}
         self.width_field = None
@@ -81,15 +90,32 @@ class TemplateDialog(QDialog):
         self.description.setText(t.description)
         self.fields = {}
         self.name_field = QLineEdit(t.title)
+        # Wide enough for a template's own name and a little more.
+        self.name_field.setMinimumWidth(
+            max(260, self.name_field.fontMetrics().horizontalAdvance(t.title + "MMMM")))
         self.form.addRow("Name", self.name_field)
         for d in t.dimensions:
             edit = QLineEdit(format_number(self._units.length(d.default), 6))
+            edit.textEdited.connect(self._update_sketch)
             self.fields[d.key] = edit
             self.form.addRow(f"{d.label} [{L}]", edit)
         self.width_field = QLineEdit(format_number(self._units.length(1.0), 6))
         if t.kind == "plane":
             self.form.addRow(f"Width out of the drawing [{L}]", self.width_field)
         self.error.setText("")
+        self._update_sketch()
+
+    def _update_sketch(self, *_):
+        """The sketch at the dimensions typed (the last good one while a
+        field does not read)."""
+        values = {}
+        for d in self.template.dimensions:
+            try:
+                values[d.key] = self._units.length_si(parse_number(self.fields[d.key].text(),
+                                                                   d.label))
+            except ValueError:
+                return
+        self.sketch.show_template(self.template, values, self._units)
 
     def select(self, key):
         self.choice.setCurrentIndex(self.choice.findData(key))

@@ -267,7 +267,9 @@ def test_imported_outline_keeps_the_fill_it_can(doc):
 
 def test_drawn_outline_becomes_the_section_or_the_draft(doc):
     assert editing.draw_outline(doc, [(0, 0), (3, 0), (3, 2), (0, 2)])
-    assert doc.section.n_edges == 4 and set(doc.section.parts) == {"wall"}
+    # Proposed parts: the lowest edge the floor, the highest the open top.
+    assert doc.section.n_edges == 4
+    assert doc.section.parts == ("floor", "wall", "open", "wall")
     assert doc.undo_stack.undoText() == "Draw new outline"
     assert not editing.draw_outline(doc, [(0, 0), (3, 0), (0, 2), (3, 2)])  # crosses itself
     assert doc.draft is not None and "crosses" in str(doc.draft.error)

@@ -115,7 +115,7 @@ def test_closed_tank_above_its_roof_draws_uplift(tmp_path, monkeypatch, template
     rgb = assert_drawn(out, SMALL)
     assert near(rgb, style.UPLIFT, 10).sum() > 20, "no uplift colour in the image"
     assert any(t.startswith("roof: uplift") for t in texts), texts
-    assert any("standpipe" in t for t in texts), texts
+    assert any(t.startswith("head 1.5 m") for t in texts), texts  # the standpipe head
 
 
 def test_open_tank_draws_no_uplift(template_case):

@@ -119,7 +119,8 @@ def test_per_edge_results_and_figures(sheet):
     case, _, texts, _ = sheet
     text = " ".join(texts)
     assert "6 Per-edge results" in text and "5 Figures" in text
-    assert "Figure 1. Pressure diagram" in text and "Figure 2. Loads against level" in text
+    assert "Figure 1. Sketch and pressure diagram" in text
+    assert "Figure 2. Loads against level" in text
     assert "Level of the free surface [m]" in text  # the chart's axis title
     sol = case.solve()
     for i in range(case.section.n_edges):

@@ -412,9 +412,9 @@ def test_dragging_a_structure_vertex_on_the_canvas(well, settle):
     x, z = doc.structure.outline[1]
     assert well.canvas.editor.pick_structure_vertex(x, z) == 1
     handles.dragStarted.emit(1)
-    handles.dragMoved.emit(1, 3.45, -0.4)
+    handles.dragMoved.emit(1, 3.6, -0.4)  # on the default snap spacing
     dragged = well.canvas.structure_layer.drag
-    assert dragged.xData is not None and 3.45 in dragged.xData  # shown dashed
+    assert dragged.xData is not None and 3.6 in dragged.xData  # shown dashed
     assert doc.undo_stack.count() == 0  # not an edit yet
     handles.dragFinished.emit(1, 3.5, -0.4)
     settle(well)
