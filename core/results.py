@@ -40,8 +40,9 @@ ASSUMPTIONS = (
 )
 
 CAUTION = (
-    "Hydrostatic loads only: no sloshing, seismic, wind, surge, thermal or "
-    "structural capacity checks. Verify against local codes and licensed practice."
+    "Hydrostatic loads only: no sloshing, seismic, wind, surge, thermal, lateral earth "
+    "pressure or structural capacity checks. Verify against local codes and licensed "
+    "practice."
 )
 """The one caution of every output: the record's ``cautions``, the readable
 table, the window, the diagram and the calculation sheet."""
