@@ -663,8 +663,8 @@ def _cmd_report(args, out):
     files = list(args.files)
     if len(files) == 1:
         _refuse_overwriting_inputs([("-o", args.output)], files)
-        _, resolved = _load(files[0], args.level, args.volume, args.case)
-        write_report(_drawable(resolved), args.output, units=args.units)
+        design, _ = _load(files[0], args.level, args.volume, args.case)
+        write_report(design, args.output, units=args.units, case=args.case)
         out.write(f"wrote {args.output}\n")
         return 0
     folder = Path(args.output)
@@ -688,8 +688,8 @@ def _cmd_report(args, out):
                 raise CommandError(f"gives the same sheet name {target.name} as "
                                    f"{targets[target]}")
             targets[target] = path
-            _, resolved = _load(path, args.level, args.volume, args.case)
-            write_report(_drawable(resolved), target, units=args.units)
+            design, _ = _load(path, args.level, args.volume, args.case)
+            write_report(design, target, units=args.units, case=args.case)
         except (CommandError, ValueError) as exc:
             problem = str(exc)
         except OSError as exc:

@@ -114,10 +114,22 @@ def _e(text):
     return html.escape(str(text), quote=True)
 
 
+_SHORT_TABLE = 5
+"""Rows of a table too short to repeat its header on a new page."""
+
+
 def _table_html(header, rows, *, align=None, cls="t", widths=None, verdict_col=None,
                 repeat_header=True, padding=3):
-    """An HTML table; numbers right-aligned, the header repeated on each page."""
+    """An HTML table; numbers right-aligned, the header of a table of more
+    than :data:`_SHORT_TABLE` rows repeated on each page it runs onto.
+
+    Qt repeats a ``<thead>`` on the next page as soon as any of the table
+    (its bottom border) runs over, even with every row on the first page:
+    the lone header then lies over the next heading. A short table has no
+    header to repeat."""
     n = len(header)
+    rows = list(rows)
+    repeat_header = repeat_header and len(rows) > _SHORT_TABLE
     align = align or (["left"] + ["right"] * (n - 1))
     out = [f'<table class="{cls}" width="100%" cellspacing="0" cellpadding="{padding}" border="1" '
            f'style="border-collapse: collapse; border-color: {RULE};">']
@@ -258,8 +270,9 @@ class _Sheet:
         name = s.name.strip() or "Untitled section"
         kind = ("axisymmetric section" if s.is_axisymmetric else "plane section")
         if self.design.cases:
-            what = (f"in {len(self.solved)} load case{'s' if len(self.solved) > 1 else ''} "
-                    "and their envelope")
+            what = (f"in {len(self.solved)} load cases and their envelope"
+                    if len(self.solved) > 1 else
+                    f"in the load case {_e(self.solved[0].name)}")
         else:
             what = f"at a liquid level of {_e(self.length(self.sol.level))}"
         return (f"<h1>Hydrostatic loads: {_e(name)}</h1>"
@@ -598,11 +611,14 @@ class _Sheet:
         out = ["<h2>3 Results</h2>",
                f"<p>Forces {_e(self.force_scope())}. Each case gives its characteristic "
                "values (the loads as computed) beside its design values (times the case's "
-               "load factor); the envelope over all cases is in design values.</p>"]
+               "load factor)"
+               + ("; the envelope over all cases is in design values" if len(self.solved) > 1
+                  else "") + ".</p>"]
         n = len(self.solved)
         for k, sc in enumerate(self.solved, start=1):
             out.append(self._case_results(k, sc))
-        out.append(self._envelope_html(n + 1))
+        if n > 1:  # the envelope of one case is that case
+            out.append(self._envelope_html(n + 1))
         return "".join(out)
 
     def _case_results(self, k, sc):
@@ -989,10 +1005,10 @@ def _chart_page(p, body, sheet, units, items):
 
 
 def _case_figures(p, body, sheet, units, items):
-    """A further page of section 5: the sketches of up to two more cases,
-    ``items`` (figure number, SolvedCase)."""
+    """A further page of section 5: the sketch of a further case over the
+    page, ``items`` (figure number, SolvedCase)."""
     y = body.top()
-    share = (body.bottom() - y) / 2
+    share = (body.bottom() - y) / len(items)
     for k, sc in items:
         top = y
         y = _caption(p, body, y, _case_title(sheet, k, sc), _SKETCH_NOTE.format(n=figures()))
@@ -1066,10 +1082,13 @@ def _pdf(design, level, du, date, progress):
     edges = _document(sheet.edges_html(writer, wide.body), writer, wide.body)
     n_main, n_edges = main.pageCount(), edges.pageCount()
     more = [(k, sc) for k, sc in enumerate(sheet.solved[1:MAX_CASE_FIGURES], start=3)]
-    pairs = [more[k:k + 2] for k in range(1, len(more), 2)]
-    total = n_main + 2 + len(pairs) + n_edges
+    # Every case's sketch has a page of its own, laid out like the first
+    # (legend under the drawing): half a page leaves a buried structure's
+    # sketch small and its legend clipped.
+    pages = [[item] for item in more]
+    total = n_main + 2 + len(pages) + n_edges
     plan = ([("doc", main, k, geo) for k in range(n_main)] + [("figures", None, 0, geo)]
-            + [("chart", more[:1], 0, geo)] + [("cases", pair, 0, geo) for pair in pairs]
+            + [("chart", [], 0, geo)] + [("cases", one, 0, geo) for one in pages]
             + [("doc", edges, k, wide) for k in range(n_edges)])
     tell(2, f"painting {total} pages")
     p = QPainter()

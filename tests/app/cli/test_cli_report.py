@@ -111,3 +111,39 @@ def test_csv_header_rows_name_their_units(capsys, argv, sample):
     unitless = {"edge", "part"}
     for name in header:
         assert name in unitless or ("[" in name and name.endswith("]")), name
+
+
+def _all_pages(path):
+    return [" ".join(p.extract_text().split()) for p in pypdf.PdfReader(path).pages]
+
+
+def test_a_file_with_load_cases_gives_one_sheet_of_every_case_and_the_envelope(
+        tmp_path, capsys, sample):
+    # Issue 9: `wetline report` prints every case and the envelope in one sheet,
+    # with the load-case table up front and the flotation check of each case.
+    out = tmp_path / "well.pdf"
+    status, _, err = run(capsys, "report", sample("buried_wet_well"), "-o", out)
+    assert status == 0, err
+    pages = _all_pages(out)
+    text = " ".join(pages)
+    assert "4 load cases and their envelope" in pages[0]
+    assert "Load cases" in pages[0]
+    for name in ("normal top water", "overflow to the spill level",
+                 "water test (full, no groundwater)"):
+        assert f"Case {name}" in text
+    assert "Envelope of the 4 cases" in text and "Lowest flotation factor" in text
+    # Every case's sketch has a page of its own (its legend is not clipped).
+    sketches = [k for k, t in enumerate(pages) if ": sketch and pressure diagram" in t]
+    assert len(sketches) == 4 and len(set(sketches)) == 4
+    for k in sketches:
+        assert "groundwater pressure on the outer face" in pages[k] or "empty" not in pages[k]
+
+
+def test_case_picks_one_case_for_the_sheet(tmp_path, capsys, sample):
+    out = tmp_path / "one.pdf"
+    status, _, err = run(capsys, "report", sample("buried_wet_well"), "-o", out,
+                         "--case", "overflow to the spill level")
+    assert status == 0, err
+    text = " ".join(_all_pages(out))
+    assert "Case overflow to the spill level" in text or "overflow to the spill level" in text
+    assert "Envelope of the" not in text

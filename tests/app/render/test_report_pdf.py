@@ -223,3 +223,15 @@ def test_bad_level_is_refused(sump):
     with pytest.raises(ReportError, match="finite"):
         report_pdf_bytes(sump(), level=float("inf"))
     assert issubclass(ReportError, ValueError)
+
+
+def test_a_short_table_ending_at_a_page_break_leaves_no_lone_header(qapp, sample):
+    # Regression: the buried wet well's first case as one plain case put the
+    # one-row resistance table at the foot of page 1; Qt repeated its header
+    # on page 2, over the "2 Method" heading.
+    from wetline.core.section_file import read_design
+
+    design = read_design(sample("buried_wet_well"))
+    case = design.resolve(design.names[0]).as_case()
+    texts, _ = pages_text(report_pdf_bytes(case, date=DATE))
+    assert sum(t.count("holding-down R") for t in texts) == 1
