@@ -146,7 +146,12 @@ class CaseSolver:
 
     @staticmethod
     def _key(r: ResolvedCase) -> tuple[Any, ...]:
-        return (r.level, r.case.liquid.density, r.case.gravity, r.fill == EMPTY)
+        # As core's Design keys its shared solutions: the whole law (layers,
+        # gas) and the pocket assumption, not only the bottom liquid.
+        law = r.law
+        return (r.level, r.case.liquid.density, r.case.gravity, r.fill == EMPTY,
+                None if law is None else (law.densities, law.interfaces, law.gas_pressure),
+                r.pockets, r.atmospheric_pressure)
 
     def solve(self, design: Design, index: int) -> SolvedCase:
         """The :class:`SolvedCase` of case ``index`` of ``design``."""

@@ -76,6 +76,9 @@ class DisplayChoice:
     def pressure(self, pa: Value) -> Value:
         return self.units.to_display(pa, "pressure")
 
+    def pressure_si(self, value: Value) -> Value:
+        return self.units.from_display(value, "pressure")
+
     def volume(self, m3: Value) -> Value:
         return self.units.to_display(m3, "volume")
 

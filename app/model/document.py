@@ -58,7 +58,7 @@ from PySide6.QtGui import QUndoStack
 from wetline.core.case import Case
 from wetline.core.force_scope import ForceScope, force_scale
 from wetline.core.hydrostatics import Solution
-from wetline.core.level_table import LevelTable, level_table
+from wetline.core.level_table import LevelTable
 from wetline.core.load_cases import Design, Envelope, LoadCase, LoadCaseError, SolvedCase
 from wetline.core.numbers import set_figures
 from wetline.core.section import Section, SectionError
@@ -66,6 +66,7 @@ from wetline.core.structure import Ground, Structure, StructureError
 
 from .cases import CaseSolver, forget_derived, restore_derived, same_design
 from .display import DisplayChoice
+from .level_tables import case_level_tables
 
 __all__ = ["Document", "Draft", "Preview", "fill_range", "preview_steps", "outline_fault",
            "as_design", "UNDO_LIMIT", "CAVITY", "STRUCTURE", "VIEW_MODES"]
@@ -261,6 +262,9 @@ class Document(QObject):
         self.envelope_cases: tuple[SolvedCase, ...] = ()
         """Every case solved, as the last :attr:`envelope` was made of them."""
         self.level_table: LevelTable | None = None
+        self.level_tables: tuple[LevelTable, ...] = ()
+        """The chart's tables: :attr:`level_table` (pockets vented) and, where
+        the section can trap air, the same with the air trapped."""
         self._solver = CaseSolver()
         self._live = 0
         self._scope_key: tuple[object, ...] | None = None
@@ -540,6 +544,12 @@ class Document(QObject):
         new_lc = design.load_cases[active]
         outside_changed = (old_lc.groundwater != new_lc.groundwater
                            or old_lc.load_factor != new_lc.load_factor)
+        # Layers, gas and trapped air are the case's liquid too.
+        law_changed = (old_lc.layers != new_lc.layers
+                       or old_lc.gas_pressure != new_lc.gas_pressure
+                       or old_lc.pockets != new_lc.pockets
+                       or old_lc.atmospheric_pressure != new_lc.atmospheric_pressure)
+        liquid_changed = liquid_changed or law_changed
         factor_changed = old_case.required_uplift_factor != case.required_uplift_factor
         if section_changed:
             n = design.section.n_edges
@@ -778,8 +788,8 @@ class Document(QObject):
             levels = np.linspace(lo, hi, steps)
             if section.is_open:
                 levels[-1] = section.spill_level
-            self.level_table = level_table(section, case.liquid.density, case.gravity,
-                                           levels=levels)
+            self.level_tables = case_level_tables(design, self._active, levels)
+            self.level_table = self.level_tables[0]
             self.levelTableReady.emit(self.level_table)
         if self._need_envelope and not self.live_edit:
             self._need_envelope = False

@@ -29,7 +29,16 @@ from numpy.typing import ArrayLike
 from wetline.core.case import Case, ReportInfo
 from wetline.core.fill import FillError, capacity
 from wetline.core.liquids import Liquid
-from wetline.core.load_cases import EMPTY, SPILL, Design, LoadCase, LoadCaseError
+from wetline.core.load_cases import (
+    EMPTY,
+    SPILL,
+    TRAPPED,
+    VENTED,
+    Design,
+    LiquidLayer,
+    LoadCase,
+    LoadCaseError,
+)
 from wetline.core.numbers import format_number
 from wetline.core.section import Section, SectionError
 from wetline.core.structure import Ground, Groundwater, Structure, StructureError
@@ -53,6 +62,9 @@ __all__ = [
     "remove_structure", "set_ground",
     "walls_structure", "apply_structure_outline", "move_structure_vertex",
     "set_structure_part",
+    "case_layers", "add_layer", "remove_layer", "move_layer", "set_layer_liquid",
+    "set_layer_top", "set_layer_volume", "set_gas_pressure", "set_pockets",
+    "set_atmospheric_pressure",
 ]
 
 RESISTANCE_FIELDS = {"self_weight": "self-weight", "holding_down": "holding-down"}
@@ -455,6 +467,188 @@ def set_load_factor(doc: Document, factor: float) -> None:
     cases[i] = dataclasses.replace(cases[i], load_factor=factor)
     _push(doc, rebuild(design, cases=cases),
           f"Load factor {format_number(factor)} ({cases[i].name})")
+
+
+# ------------------------------------- layers, gas and trapped air of a case
+def case_layers(doc: Document) -> list[LiquidLayer]:
+    """The active case's liquids bottom up, as layers: its ``layers``, or
+    its one liquid as a layer of its own (the top layer gives no bound)."""
+    lc = doc.active_load_case
+    if lc.layers:
+        return list(lc.layers)
+    return [LiquidLayer(doc.case.liquid)]
+
+
+def _push_layers(doc: Document, layers: Sequence[LiquidLayer], text: str,
+                 merge_key: Hashable | None = None) -> None:
+    """The active case with ``layers`` (one layer: a case of one liquid,
+    its liquid an override only where it differs from the file's); the case
+    made explicit in a design without cases. LoadCaseError (core's message)
+    if the case or the design cannot take them: nothing is changed."""
+    design, cases = _with_one_case(doc)
+    i = doc.active_index
+    layers = list(layers)
+    if len(layers) == 1:
+        liquid = layers[0].liquid
+        new = dataclasses.replace(cases[i], layers=None,
+                                  liquid=None if liquid == design.case.liquid else liquid)
+    else:
+        new = dataclasses.replace(cases[i], layers=tuple(layers), liquid=None)
+    if new == cases[i]:
+        return
+    cases[i] = new
+    _push(doc, rebuild(design, cases=cases), f"{text} ({new.name})", merge_key)
+
+
+def _layer_word(index: int, layer: LiquidLayer) -> str:
+    return f"layer {index + 1} '{layer.liquid.name}'"
+
+
+def add_layer(doc: Document) -> None:
+    """A new top layer of the top layer's liquid (a layer as dense as the
+    one below changes no load until its liquid is chosen); the old top
+    layer ends at the middle of its depth: halfway between its bottom and
+    the free surface. LoadCaseError if the case holds no liquid."""
+    layers = case_layers(doc)
+    if doc.active_load_case.fill_level == EMPTY:
+        raise LoadCaseError("an empty case holds no layers: fill it first")
+    sol = doc.solution
+    level = sol.level if sol is not None else doc.case.level
+    bottom = doc.section.z_min if len(layers) == 1 else _interface_levels(doc)[-1]
+    if not level > bottom:
+        raise LoadCaseError("the free surface is not above the top interface: raise the "
+                            "fill first")
+    top = 0.5 * (bottom + level)
+    layers[-1] = LiquidLayer(layers[-1].liquid, top=top)
+    layers.append(LiquidLayer(layers[-1].liquid))
+    _push_layers(doc, layers, f"Add layer {len(layers)}")
+
+
+def _interface_levels(doc: Document) -> tuple[float, ...]:
+    """Interface levels of the active case, bottom up [m] (from its law)."""
+    r = doc.design.resolve(doc.active_name)
+    return () if r.law is None else tuple(r.law.interfaces)
+
+
+def remove_layer(doc: Document, index: int) -> None:
+    """Remove layer ``index`` (0 = the bottom one); the layer above a
+    removed one keeps its own top, and removing the top layer makes the
+    layer below it the top one (its top becomes the case's fill)."""
+    layers = case_layers(doc)
+    if len(layers) < 2:
+        raise LoadCaseError("a case holds at least one liquid")
+    word = _layer_word(index, layers[index])
+    del layers[index]
+    last = layers[-1]
+    layers[-1] = LiquidLayer(last.liquid)
+    _push_layers(doc, layers, f"Remove {word}")
+
+
+def move_layer(doc: Document, index: int, step: int) -> bool:
+    """Swap the liquid of layer ``index`` with the one above (``step`` +1) or
+    below (-1); the interfaces stay where they are. A denser liquid over a
+    lighter one is refused by core (LoadCaseError).
+
+    Returns
+    -------
+    bool
+        True if it moved (not past either end).
+    """
+    layers = case_layers(doc)
+    to = index + int(step)
+    if not (0 <= index < len(layers) and 0 <= to < len(layers)) or to == index:
+        return False
+    a, b = layers[index], layers[to]
+    word = _layer_word(index, a)
+    layers[index] = dataclasses.replace(a, liquid=b.liquid)
+    layers[to] = dataclasses.replace(b, liquid=a.liquid)
+    _push_layers(doc, layers, f"Move {word} {'up' if step > 0 else 'down'}")
+    return True
+
+
+def set_layer_liquid(doc: Document, index: int, liquid: Liquid) -> None:
+    """The liquid of layer ``index`` (a case of one liquid: its liquid, as
+    :func:`set_liquid`)."""
+    layers = case_layers(doc)
+    if len(layers) == 1 and not doc.active_load_case.layers:
+        set_liquid(doc, liquid)
+        return
+    if layers[index].liquid == liquid:
+        return
+    layers[index] = dataclasses.replace(layers[index], liquid=liquid)
+    _push_layers(doc, layers, f"Layer {index + 1}: {_liquid_text(liquid)[8:]}")
+
+
+def set_layer_top(doc: Document, index: int, level: float,
+                  merge_key: Hashable | None = None) -> None:
+    """Layer ``index`` (not the top one) up to ``level`` [m]; a drag of its
+    interface passes one key for all its steps."""
+    level = float(level)
+    if not np.isfinite(level):
+        raise ValueError("the level must be a number")
+    layers = case_layers(doc)
+    if index >= len(layers) - 1:
+        raise LoadCaseError("the top layer reaches the free surface: set the fill instead")
+    if layers[index].top == level:
+        return
+    layers[index] = LiquidLayer(layers[index].liquid, top=level)
+    _push_layers(doc, layers, f"Top of {_layer_word(index, layers[index])} at "
+                 f"{doc.units.fmt_length(level)}", merge_key)
+
+
+def set_layer_volume(doc: Document, index: int, volume: float) -> None:
+    """Layer ``index`` (not the top one) given by its own volume [m3]."""
+    volume = float(volume)
+    if not np.isfinite(volume) or volume < 0:
+        raise FillError("the volume must be a number >= 0")
+    layers = case_layers(doc)
+    if index >= len(layers) - 1:
+        raise LoadCaseError("the top layer's volume is the fill's: set the fill instead")
+    if layers[index].volume == volume:
+        return
+    layers[index] = LiquidLayer(layers[index].liquid, volume=volume)
+    _push_layers(doc, layers, f"Volume of {_layer_word(index, layers[index])} "
+                 f"{doc.units.fmt_volume(volume)}")
+
+
+def _case_field(doc: Document, text: str, **fields: object) -> None:
+    design, cases = _with_one_case(doc)
+    i = doc.active_index
+    new = dataclasses.replace(cases[i], **fields)  # type: ignore[arg-type]
+    if new == cases[i]:
+        return
+    cases[i] = new
+    _push(doc, rebuild(design, cases=cases), f"{text} ({new.name})")
+
+
+def set_gas_pressure(doc: Document, pressure: float) -> None:
+    """The gauge pressure of the gas over the active case's free surface
+    [Pa] (closed sections only; down to a full vacuum, -101325 Pa)."""
+    pressure = float(pressure)
+    if not np.isfinite(pressure):
+        raise ValueError("the gas pressure must be a number")
+    if pressure != 0.0 and doc.section.is_open:
+        raise LoadCaseError("a gas pressure needs a closed section (no 'open' edge): an open "
+                            "section's surface is at atmospheric pressure")
+    _case_field(doc, f"Gas pressure {doc.units.fmt_pressure(pressure)}",
+                gas_pressure=pressure)
+
+
+def set_pockets(doc: Document, mode: str) -> None:
+    """Air under ceilings ``"vented"`` or ``"trapped"`` in the active case."""
+    if mode not in (VENTED, TRAPPED):
+        raise ValueError(f"pockets are 'vented' or 'trapped', not {mode!r}")
+    _case_field(doc, "Trapped air" if mode == TRAPPED else "Air vented", pockets=mode)
+
+
+def set_atmospheric_pressure(doc: Document, pressure: float) -> None:
+    """The atmospheric pressure [Pa absolute] of the active case (used by
+    trapped air)."""
+    pressure = float(pressure)
+    if not np.isfinite(pressure):
+        raise ValueError("the atmospheric pressure must be a number")
+    _case_field(doc, f"Atmospheric pressure {doc.units.fmt_pressure(pressure)}",
+                atmospheric_pressure=pressure)
 
 
 # ------------------------------------------------------------ the case list

@@ -42,10 +42,17 @@ def is_corner(nx0, nz0, nx1, nz1):
 
 @dataclass(frozen=True)
 class WettedEdges:
-    """The wetted part of every loaded edge at a level.
+    """The wetted (loaded) part of every loaded edge at a level.
 
     ``index`` edge indices; ``ax, az`` / ``bx, bz`` ends of the wetted part
     [m]; ``pa, pb`` pressures there [Pa]; ``nx, nz`` outward normals.
+
+    Under a law with layers, a gas or trapped air an edge may come in
+    several pieces, one after the other along it, cut where the pressure
+    kinks (an interface with a density step, the free surface under a gas,
+    its pocket's interface): ``index`` repeats, and ``a_inside`` /
+    ``b_inside`` mark the piece ends that lie inside their edge (None: no
+    edge is cut).
     """
 
     index: np.ndarray
@@ -57,6 +64,8 @@ class WettedEdges:
     pb: np.ndarray
     nx: np.ndarray
     nz: np.ndarray
+    a_inside: np.ndarray | None = None
+    b_inside: np.ndarray | None = None
 
 
 def axis_edges(section):
@@ -76,10 +85,32 @@ def carrying_edges(section):
     return walls & ~axis_edges(section)
 
 
+def is_general(solution):
+    """True if ``solution`` is not one liquid at atmospheric pressure with
+    every pocket vented (it has layers of different densities, a gas or
+    trapped air), so its pressure may kink inside an edge or act above the
+    free surface."""
+    law = solution.law
+    if law is None:
+        return False
+    return (law.ramp_levels.size > 1 or law.gas_pressure != 0.0
+            or solution.caps is not None)
+
+
 def wetted_edges(solution, carries=None):
     """:class:`WettedEdges` of a :class:`wetline.core.hydrostatics.Solution`
     (``open`` and ``axis`` edges left out: nothing there carries load).
-    ``carries`` is :func:`carrying_edges` of the section, if known."""
+    ``carries`` is :func:`carrying_edges` of the section, if known.
+
+    One liquid: the wetted part of each edge, p = rho g (h - z)+. Under a
+    general law (:func:`is_general`) every loaded edge is cut into the
+    pieces along which the pressure P(min(z, cap)) is linear (see
+    :mod:`wetline.core.pressure_law`), so the diagram shows the kinks; dry
+    edges of a gas space carry the gas pressure, a pocket's ceiling the air
+    pressure.
+    """
+    if is_general(solution):
+        return _law_wetted_edges(solution, carries)
     section = solution.section
     geo = section.geometry
     h = solution.level
@@ -97,6 +128,61 @@ def wetted_edges(solution, carries=None):
     pa = rg * np.maximum(h - az, 0.0)
     pb = rg * np.maximum(h - bz, 0.0)
     return WettedEdges(keep, ax, az, bx, bz, pa, pb, geo.nx[keep], geo.nz[keep])
+
+
+def edge_caps(solution):
+    """Each edge's liquid surface [m]: its pocket's interface, else h."""
+    n = solution.section.n_edges
+    if solution.caps is not None:
+        return np.asarray(solution.caps, dtype=np.float64)
+    return np.full(n, float(solution.level))
+
+
+def _law_wetted_edges(solution, carries):
+    section = solution.section
+    geo = section.geometry
+    law = solution.law
+    if carries is None:
+        carries = carrying_edges(section)
+    keep = np.flatnonzero(carries)
+    caps = edge_caps(solution)[keep]
+    z0, dz = geo.z0[keep], geo.dz[keep]
+    safe = np.where(dz != 0.0, dz, 1.0)
+    cols = [np.zeros(keep.size), np.ones(keep.size)]
+    for level in np.append(law.ramp_levels, np.inf):
+        lv = caps if not np.isfinite(level) else np.minimum(level, caps)
+        t = (lv - z0) / safe
+        cols.append(np.where((dz != 0.0) & (t > 0.0) & (t < 1.0), t, np.nan))
+    ts = np.sort(np.column_stack(cols), axis=1)  # NaN last
+    t0, t1 = ts[:, :-1], ts[:, 1:]
+    with np.errstate(invalid="ignore"):
+        piece = np.isfinite(t0) & np.isfinite(t1) & (t1 > t0)
+    rows, cols_ = np.nonzero(piece)  # edge-major, then along the edge
+    ta, tb = t0[rows, cols_], t1[rows, cols_]
+    edge = keep[rows]
+    x0, dx = geo.x0[edge], geo.dx[edge]
+    ez0, edz = geo.z0[edge], geo.dz[edge]
+    ax, az = x0 + ta * dx, ez0 + ta * edz
+    bx, bz = x0 + tb * dx, ez0 + tb * edz
+    cap = caps[rows]
+    pa = law.pressure_under_cap(az, cap)
+    pb = law.pressure_under_cap(bz, cap)
+    loaded = (pa != 0.0) | (pb != 0.0)
+    # A piece along the wall at exactly its cap is its own neighbour's end.
+    loaded &= (bx - ax) ** 2 + (bz - az) ** 2 > 0.0
+    k = np.flatnonzero(loaded)
+    return WettedEdges(edge[k], ax[k], az[k], bx[k], bz[k], pa[k], pb[k],
+                       geo.nx[edge[k]], geo.nz[edge[k]],
+                       a_inside=ta[k] > 0.0, b_inside=tb[k] < 1.0)
+
+
+def pressure_along(solution, index, z):
+    """The pressure [Pa] at heights ``z`` [m] of edges ``index`` of
+    ``solution``, whatever its law (one liquid, layers, gas, trapped air)."""
+    z = np.asarray(z, dtype=np.float64)
+    if is_general(solution):
+        return solution.law.pressure_under_cap(z, edge_caps(solution)[index])
+    return solution.density * solution.gravity * np.maximum(solution.level - z, 0.0)
 
 
 def auto_scale(section, max_pressure, fraction=0.3):
@@ -166,7 +252,8 @@ def chain_starts(w):
     size = max(float(np.ptp(np.concatenate([w.ax, w.bx]))),
                float(np.ptp(np.concatenate([w.az, w.bz]))), 1e-300)
     joined = np.zeros(m, dtype=bool)
-    joined[1:] = ((w.index[1:] == w.index[:-1] + 1)
+    step = w.index[1:] - w.index[:-1]
+    joined[1:] = (((step == 1) | (step == 0))
                   & (np.abs(w.ax[1:] - w.bx[:-1]) <= 1e-12 * size)
                   & (np.abs(w.az[1:] - w.bz[:-1]) <= 1e-12 * size))
     return np.flatnonzero(~joined)
@@ -508,7 +595,15 @@ def pressure_sites(w, n_vertices, limit=16):
     ka = np.flatnonzero(~uniform & (w.pa > tol))
     kb = np.flatnonzero(~uniform & (w.pb > tol))
     vert = np.concatenate([w.index[ka], (w.index[kb] + 1) % n_vertices])
+    inside = np.zeros(vert.size, dtype=bool)
+    if w.a_inside is not None:
+        # A piece end inside its edge (an interface, a pocket's interface):
+        # the pieces meeting there share a key past the vertices, and the
+        # kink's pressure is written.
+        inside = np.concatenate([w.a_inside[ka], w.b_inside[kb]])
+        vert = np.where(inside, n_vertices + np.concatenate([ka, kb + 1]), vert)
     order = np.argsort(vert, kind="stable")
+    inside = inside[order]
     vert = vert[order]
     edge = np.concatenate([ka, kb])[order]
     pres = np.concatenate([w.pa[ka], w.pb[kb]])[order]
@@ -519,6 +614,8 @@ def pressure_sites(w, n_vertices, limit=16):
     e0, e1 = edge[starts], edge[last]
     at = np.maximum(pres[starts], pres[last])
     keep = (last == starts) | is_corner(w.nx[e0], w.nz[e0], w.nx[e1], w.nz[e1])
+    if vert.size:
+        keep |= inside[starts]
     if starts.size:
         keep[int(np.argmax(at))] = True  # the deepest is written even on a bend
     cu = np.flatnonzero(uniform)
@@ -674,13 +771,27 @@ def envelope_wetted_edges(solutions, factors, carries=None):
     if not solutions:
         raise ValueError("the envelope needs at least one solution")
     top = max(range(len(solutions)), key=lambda k: solutions[k].level)
+    general = any(is_general(s) for s in solutions)
     w = wetted_edges(solutions[top], carries)
+    if general:
+        # Some case has layers, a gas or trapped air: each loaded edge whole.
+        section = solutions[top].section
+        geo = section.geometry
+        if carries is None:
+            carries = carrying_edges(section)
+        keep = np.flatnonzero(carries)
+        w = WettedEdges(keep, geo.x0[keep], geo.z0[keep], geo.x0[keep] + geo.dx[keep],
+                        geo.z0[keep] + geo.dz[keep], np.zeros(keep.size), np.zeros(keep.size),
+                        geo.nx[keep], geo.nz[keep])
     pa = np.zeros_like(w.pa)
     pb = np.zeros_like(w.pb)
     for sol, factor in zip(solutions, factors, strict=True):
-        rg = float(factor) * sol.density * sol.gravity
-        np.maximum(pa, rg * np.maximum(sol.level - w.az, 0.0), out=pa)
-        np.maximum(pb, rg * np.maximum(sol.level - w.bz, 0.0), out=pb)
+        np.maximum(pa, float(factor) * pressure_along(sol, w.index, w.az), out=pa)
+        np.maximum(pb, float(factor) * pressure_along(sol, w.index, w.bz), out=pb)
+    if general:  # the edges no case loads are left out
+        k = np.flatnonzero((pa != 0.0) | (pb != 0.0))
+        return WettedEdges(w.index[k], w.ax[k], w.az[k], w.bx[k], w.bz[k], pa[k], pb[k],
+                           w.nx[k], w.nz[k])
     return WettedEdges(w.index, w.ax, w.az, w.bx, w.bz, pa, pb, w.nx, w.nz)
 
 
@@ -706,3 +817,112 @@ def soil_blocks(segments, ground_level):
             continue
         blocks.append(np.array([[x0, z0], [x1, z1], [x1, g], [x0, g]]))
     return blocks
+
+
+@dataclass(frozen=True)
+class LayerInterface:
+    """An interface between two liquid layers of a solution.
+
+    ``level`` [m]; ``lower`` / ``upper`` the layers' names; ``spans`` the
+    x-ranges [m] where it crosses the cavity; ``pressure`` there [Pa].
+    """
+
+    level: float
+    lower: str
+    upper: str
+    spans: list
+    pressure: float
+
+    @property
+    def text(self):
+        """``fats, oils and grease on raw sewage``: what the label names."""
+        return f"{self.upper} on {self.lower}"
+
+
+def layer_interfaces(solution):
+    """The interfaces of ``solution``'s layers, bottom up (empty for one
+    liquid), each crossing the cavity (list of :class:`LayerInterface`)."""
+    layers = solution.layers
+    if len(layers) < 2:
+        return []
+    section = solution.section
+    law = solution.law
+    out = []
+    for below, above in itertools.pairwise(layers):
+        z = float(below.top)
+        p = law.pressure_at(z) if law is not None else 0.0
+        out.append(LayerInterface(z, below.name or "liquid", above.name or "liquid",
+                                  surface_spans(section, z), float(p)))
+    return out
+
+
+def layer_bands(solution, polygon=None):
+    """The cavity's part of each layer above the bottom one: a list of
+    rings (as :func:`liquid_rings`) per layer from the second up (the
+    bottom layer is the liquid drawn below everything)."""
+    layers = solution.layers
+    if len(layers) < 2:
+        return []
+    section = solution.section
+    if polygon is None:
+        polygon = shapely.Polygon(section.outline)
+    pts = section.outline
+    x0, x1 = float(pts[:, 0].min()), float(pts[:, 0].max())
+    pad = 1.0 + (x1 - x0) + (section.z_max - section.z_min)
+    out = []
+    for layer in layers[1:]:
+        band = shapely.clip_by_rect(polygon, x0 - pad, float(layer.bottom), x1 + pad,
+                                    float(layer.top))
+        rings = []
+        for poly in shapely.get_parts(band):
+            if poly.geom_type != "Polygon" or poly.is_empty:
+                continue
+            for ring in [poly.exterior, *poly.interiors]:
+                rings.append(shapely.get_coordinates(ring))
+        out.append(rings)
+    return out
+
+
+@dataclass(frozen=True)
+class AirMark:
+    """A pocket of trapped air as drawn: ``rings`` its air region (as
+    :func:`liquid_rings`), ``interface`` its air-liquid interface [m] and
+    ``spans`` where that crosses the pocket, ``air_pressure`` [Pa] gauge,
+    ``air_volume`` [m3], ``sealed_at`` its lip [m], ``at`` a point inside
+    the air for its label (x, z) [m]."""
+
+    rings: list
+    interface: float
+    spans: list
+    air_pressure: float
+    air_volume: float
+    sealed_at: float
+    at: tuple
+
+
+def air_marks(solution):
+    """The pockets of trapped air of ``solution`` (list of :class:`AirMark`;
+    empty with vented pockets). Costs a polygon intersection per pocket."""
+    out = []
+    section = solution.section
+    for pocket in solution.pockets:
+        region = pocket.air_region(section)
+        rings = []
+        for poly in shapely.get_parts(region):
+            if poly.geom_type != "Polygon" or poly.is_empty:
+                continue
+            for ring in [poly.exterior, *poly.interiors]:
+                rings.append(shapely.get_coordinates(ring))
+        if not rings:
+            continue
+        z = float(pocket.interface)
+        xs = np.concatenate([r[:, 0] for r in rings])
+        xmin, xmax = float(xs.min()), float(xs.max())
+        spans = [(a, b) for a, b in surface_spans(section, z)
+                 if b > xmin - 1e-9 and a < xmax + 1e-9]
+        spans = [(max(a, xmin), min(b, xmax)) for a, b in spans]
+        inside = region.representative_point()
+        out.append(AirMark(rings, z, spans, float(pocket.air_pressure),
+                           float(pocket.air_volume), float(pocket.sealed_at),
+                           (float(inside.x), float(inside.y))))
+    return out

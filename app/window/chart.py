@@ -18,6 +18,7 @@ from __future__ import annotations
 
 import math
 
+import numpy as np
 import pyqtgraph as pg
 from PySide6.QtCore import Qt
 
@@ -158,6 +159,21 @@ class LoadChart(pg.PlotWidget):
         names = tuple(n for n in table.part_down if n != FLOOR)  # floor = floor force
         for name in names:
             series.append((table.part_down[name], f"{name} (down)", colours[name], Qt.DotLine))
+        # Where air can be trapped under a ceiling: the same loads with the air
+        # trapped, wherever they differ from vented (dash-dot, same colours),
+        # so the designer sees which assumption governs the uplift.
+        trapped = [t for t in self._doc.level_tables[1:] if t.levels.shape == table.levels.shape]
+        for t in trapped:
+            for key, name, colour, _style in LEVEL_SERIES:
+                y = getattr(t, key)
+                if not np.allclose(y, getattr(table, key), rtol=1e-9, atol=0.0):
+                    series.append((y, f"{name}, air trapped", colour, Qt.DashDotLine))
+            for name in names:
+                y = t.part_down.get(name)
+                if y is not None and not np.allclose(y, table.part_down[name], rtol=1e-9,
+                                                     atol=0.0):
+                    series.append((y, f"{name} (down), air trapped", colours[name],
+                                   Qt.DashDotLine))
         key = tuple((name, colour) for _, name, colour, _ in series)
         if key != self._series_key:
             # Other parts: new curves and legend. Otherwise (a slider, a

@@ -19,10 +19,13 @@ from PySide6.QtCore import Qt
 from PySide6.QtGui import QColor, QTransform
 
 from wetline.app.render.geometry import (
+    air_marks,
     arrow_strokes,
     carrying_edges,
     diagram_polygons,
     envelope_wetted_edges,
+    layer_bands,
+    layer_interfaces,
     liquid_rings,
     load_marks,
     part_runs,
@@ -55,6 +58,12 @@ __all__ = ["LoadLayer", "MAX_PRESSURE_LABELS", "MAX_RESULTANT_LABELS"]
 
 LIQUID_BRUSH = QColor(126, 178, 226, 95)
 MIRROR_LIQUID_BRUSH = QColor(126, 178, 226, 45)
+LAYER_BRUSHES = (QColor(236, 196, 92, 120), QColor(196, 150, 220, 110),
+                 QColor(150, 206, 140, 120))
+"""The layers above the bottom one, in turn (over the liquid's blue)."""
+AIR_BRUSH = QColor(250, 252, 255, 235)
+AIR_LINE = "#5f6b7a"
+INTERFACE_LINE = "#8a5a00"
 DIAGRAM_BRUSH = QColor(*DIAGRAM_FILL[:3], 80)
 MAX_PRESSURE_LABELS = 16
 """Pressure values labelled at most."""
@@ -73,6 +82,16 @@ class LoadLayer:
                                         pen=cosmetic_pen(QColor(DIAGRAM_LINE), 1.0))
         self.arrows = pairs_curve(vb, pg.mkPen(DIAGRAM_LINE, width=1), -4)
         self.surface = add_item(vb, pg.PlotCurveItem(pen=pg.mkPen(SURFACE, width=2)), 5)
+        self.layer_fills = [filled_path_item(vb, brush, -9, visible=False)
+                            for brush in LAYER_BRUSHES]
+        self.interfaces = pairs_curve(vb, pg.mkPen(INTERFACE_LINE, width=1.5,
+                                                   style=Qt.DashLine), 6)
+        self.air = filled_path_item(vb, AIR_BRUSH, -8, pen=cosmetic_pen(QColor(AIR_LINE), 1.0))
+        self.air_lines = pairs_curve(vb, pg.mkPen(SURFACE, width=2), 6)
+        self.interface_levels = []
+        """Levels [m] of the layer interfaces drawn (bottom up), for dragging."""
+        self.air_texts = []
+        """The labels asked for the pockets of trapped air, in order."""
         self.spill = add_item(vb, pg.PlotCurveItem(
             pen=pg.mkPen(MUTED, width=1, style=Qt.DashLine)), 0)
         self.down = pairs_curve(vb, pg.mkPen(LOAD, width=3), 30)
@@ -132,9 +151,13 @@ class LoadLayer:
         section = solved[0].solution.section
         size = max(float(np.ptp(section.outline[:, 0])), section.z_max - section.z_min, 1e-9)
         labels.clear(section.outline)
-        for item in (self.liquid, self.mirror_liquid):
+        for item in (self.liquid, self.mirror_liquid, self.air, *self.layer_fills):
             item.setPath(rings_path([]))
         self.surface.setData([], [])
+        self.interfaces.setData([], [])
+        self.air_lines.setData([], [])
+        self.interface_levels = []
+        self.air_texts = []
         self.down.setData([], [])
         self.up.setData([], [])
         spill = section.spill_level
@@ -211,6 +234,48 @@ class LoadLayer:
             asks.append((xmax + 2 * margin, spill, "spill level", MUTED, (0, 0.5)))
         else:
             self.spill.setData([], [])
+        return asks + self._draw_layers_and_air(solution, margin, units)
+
+    def _draw_layers_and_air(self, solution, margin, units):
+        """The layers above the bottom one (tinted), their interfaces across
+        the cavity (dashed, labelled with the liquids and level), and each
+        pocket of trapped air (a light fill, its interface, its pressure).
+        Returns the labels they ask for."""
+        section = solution.section
+        asks = []
+        bands = layer_bands(solution, self.polygon(section)) if len(solution.layers) > 1 \
+            else []
+        for k, item in enumerate(self.layer_fills):
+            rings = bands[k] if k < len(bands) else []
+            item.setPath(rings_path(rings))
+            if item.isVisible() != bool(rings):
+                item.setVisible(bool(rings))
+        faces = layer_interfaces(solution)
+        self.interface_levels = [f.level for f in faces]
+        xs, zs = [], []
+        for face in faces:
+            for a, b in face.spans:
+                xs += [a, b]
+                zs += [face.level, face.level]
+            if face.spans:
+                a = min(sp[0] for sp in face.spans)
+                asks.append((a + 0.25 * margin, face.level,
+                             f"{face.text} {units.fmt_length(face.level)}",
+                             INTERFACE_LINE, (0, 1)))
+        self.interfaces.setData(np.array(xs, dtype=float), np.array(zs, dtype=float))
+        marks = air_marks(solution) if solution.pockets else []
+        rings = [r for m in marks for r in m.rings]
+        self.air.setPath(rings_path(rings))
+        ax, az = [], []
+        self.air_texts = []
+        for m in marks:
+            for a, b in m.spans:
+                ax += [a, b]
+                az += [m.interface, m.interface]
+            text = f"trapped air {units.fmt_pressure(m.air_pressure)}"
+            self.air_texts.append(text)
+            asks.append((m.at[0], m.at[1], text, AIR_LINE, (0.5, 0.5)))
+        self.air_lines.setData(np.array(ax, dtype=float), np.array(az, dtype=float))
         return asks
 
     def _draw_resultants(self, solution, w, runs, size, scope):

@@ -34,6 +34,7 @@ from wetline.app.window.chart import LoadChart
 from wetline.app.window.draw_input import DrawInput
 from wetline.app.window.files import Transfer
 from wetline.app.window.flotation_panel import FlotationPanel
+from wetline.app.window.layers_panel import GasPanel
 from wetline.app.window.panels import FillPanel, LiquidPanel, TotalsPanel, parse_number
 from wetline.app.window.tables import EdgesTable, PartsTable, VerticesPane, VerticesTable
 from wetline.app.window.uplift_panel import UpliftPanel
@@ -89,6 +90,8 @@ class MainWindow(QMainWindow):
         ll = QVBoxLayout(left)
         ll.addWidget(self.fill_panel)
         ll.addWidget(self.liquid_panel)
+        self.gas_panel = GasPanel(doc)
+        ll.addWidget(self.gas_panel)
         ll.addStretch(1)
         scroll = QScrollArea()
         scroll.setWidget(left)

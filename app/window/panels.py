@@ -26,6 +26,7 @@ from PySide6.QtWidgets import (
 from wetline.app.model import editing
 from wetline.app.model.document import fill_range
 from wetline.app.model.gravity import format_gravity, gravity_from_display, gravity_label
+from wetline.app.window.layers_panel import LayerList
 from wetline.core.fill import FillError, capacity
 from wetline.core.liquids import (
     LISTED_LIQUIDS,
@@ -35,6 +36,7 @@ from wetline.core.liquids import (
     liquid_from_specific_gravity,
     seawater,
 )
+from wetline.core.load_cases import LoadCaseError
 from wetline.core.numbers import format_number
 
 __all__ = ["LiquidPanel", "FillPanel", "TotalsPanel", "parse_number"]
@@ -75,7 +77,8 @@ def _show(label, text, style=ERROR_STYLE):
 
 class LiquidPanel(QGroupBox):
     """Choose the liquid (fresh water, seawater, listed, custom) and gravity
-    (in m/s2 or ft/s2, as the display system)."""
+    (in m/s2 or ft/s2, as the display system); with layers, the liquid of
+    the layer selected in :attr:`layer_list`."""
 
     KINDS = ("Fresh water", "Seawater", "Listed liquid", "Custom density",
              "Specific gravity")
@@ -99,6 +102,8 @@ class LiquidPanel(QGroupBox):
         self.summary.setWordWrap(True)
         self.summary.setStyleSheet("color: #445;")
         self.error = _message_label()
+        self.layer_list = LayerList(document)
+        form.addRow(self.layer_list)
         form.addRow("Liquid", self.kind)
         form.addRow("Temperature [C]", self.temperature)
         form.addRow("Salinity [g/kg]", self.salinity)
@@ -120,7 +125,14 @@ class LiquidPanel(QGroupBox):
         self.gravity.editingFinished.connect(self._on_gravity_edited)
         document.liquidChanged.connect(self._on_liquidChanged)
         document.unitsChanged.connect(self._on_liquidChanged)
+        document.activeCaseChanged.connect(self._on_liquidChanged)
+        self.layer_list.selectionChanged.connect(self._on_liquidChanged)
         self._on_liquidChanged()
+
+    def shown_liquid(self):
+        """The liquid the chooser shows: the selected layer's."""
+        layers = self.layer_list.layers()
+        return layers[min(self.layer_list.selected, len(layers) - 1)].liquid
 
     def _rows(self, kind):
         vis = {"temperature": kind in (0, 1), "salinity": kind == 1, "listed": kind == 2,
@@ -128,8 +140,8 @@ class LiquidPanel(QGroupBox):
         for name, show in vis.items():
             self._form.setRowVisible(getattr(self, name), show)
 
-    def _on_liquidChanged(self):
-        liquid = self._doc.case.liquid
+    def _on_liquidChanged(self, *_):
+        liquid = self.shown_liquid()
         units = self._doc.units
         widgets = (self.kind, self.temperature, self.salinity, self.listed, self.density,
                    self.sg, self.gravity)
@@ -193,8 +205,12 @@ class LiquidPanel(QGroupBox):
         except (LiquidError, ValueError) as exc:
             _show(self.error, str(exc))
             return
+        try:
+            editing.set_layer_liquid(self._doc, self.layer_list.selected, liquid)
+        except LoadCaseError as exc:  # a denser layer over a lighter one
+            _show(self.error, str(exc))
+            return
         _show(self.error, "")
-        editing.set_liquid(self._doc, liquid)
 
     def _on_gravity_edited(self):
         text = self.gravity.text().strip()
@@ -385,6 +401,26 @@ class FillPanel(QGroupBox):
         _show(self.error, "")
 
 
+def layer_totals_text(s, units, scope, scale):
+    """Per layer (top first) its volume and weight; the gas and each pocket
+    of trapped air; empty for one liquid at atmospheric pressure with
+    nothing trapped."""
+    lines = []
+    layers = s.layers
+    if len(layers) > 1:
+        for i in reversed(range(len(layers))):
+            ly = layers[i]
+            lines.append(f"Layer {i + 1} {ly.name}: {units.fmt_volume(ly.volume)}, "
+                         f"{scope.text(ly.weight, scale=scale)}")
+    if s.gas_pressure != 0.0:
+        lines.append(f"Gas over the surface: {units.fmt_pressure(s.gas_pressure)} gauge")
+    for p in s.pockets:
+        lines.append(f"Trapped air sealed at {units.fmt_length(p.sealed_at)}: "
+                     f"{units.fmt_volume(p.air_volume)} at {units.fmt_pressure(p.air_pressure)}, "
+                     f"interface {units.fmt_length(p.interface)}")
+    return "\n".join(lines)
+
+
 class TotalsPanel(QGroupBox):
     """The active case, its level, volume, weight, floor force, support
     reaction, maximum pressure, spill level (characteristic values)."""
@@ -405,6 +441,11 @@ class TotalsPanel(QGroupBox):
             label.setAlignment(Qt.AlignRight | Qt.AlignVCenter)
             self.values[key] = label
             form.addRow(title, label)
+        self.layers = QLabel()
+        self.layers.setWordWrap(True)
+        self.layers.setTextInteractionFlags(Qt.TextSelectableByMouse)
+        self.layers.hide()
+        form.addRow(self.layers)
         self.scope = QLabel()
         self.scope.setStyleSheet("color: #445;")
         self.scope.setWordWrap(True)
@@ -441,6 +482,8 @@ class TotalsPanel(QGroupBox):
         v["max_pressure"].setText(u.fmt_pressure(s.max_pressure))
         v["spill"].setText(u.fmt_length(sec.spill_level) if sec.spill_level is not None
                            else "none (closed)")
+        self.layers.setText(layer_totals_text(s, u, scope, scale))
+        self.layers.setVisible(bool(self.layers.text()))
         self.scope.setText(f"Forces {scope.words}. Support reaction: what the "
                            "supports carry downward; negative means held down.")
 

@@ -42,6 +42,7 @@ from wetline.app.model import editing
 from wetline.app.render.style import MUTED, NOT_OK_COLOUR, OK_COLOUR
 from wetline.app.window.panels import parse_number
 from wetline.core.case import CaseError
+from wetline.core.load_cases import TRAPPED, VENTED
 from wetline.core.numbers import format_number
 from wetline.core.uplift import (
     DEFAULT_REQUIRED_FACTOR,
@@ -49,6 +50,7 @@ from wetline.core.uplift import (
     UPLIFT_CAUTION,
     uplift_check,
     worst_uplifts,
+    worst_uplifts_for,
 )
 
 __all__ = ["UpliftPanel", "UpliftChecker"]
@@ -72,6 +74,21 @@ def verdict_html(ok, factor, level_text=None):
     return text
 
 
+def pockets_statement(solution, results):
+    """What the check assumed about air under ceilings: now, and at the
+    worst level (the search covers both assumptions where air is trapped)."""
+    if solution.pocket_mode == TRAPPED:
+        now = ("Air trapped under ceilings (compressed by the rising liquid, Boyle's law)"
+               if solution.pockets else "Air trapped under ceilings (none sealed now)")
+        worst = sorted({r.worst_pockets for r in results})
+        return (f"{now}; the worst level is searched with the air vented and trapped, and "
+                f"the larger uplift governs ({' and '.join(worst)} here).")
+    if solution.section.pocket_tree.may_trap:
+        return ("Air under ceilings vented (every pool at the level); the chart shows the "
+                "trapped air too: choose trapped air if it cannot escape.")
+    return "Air under ceilings vented: no ceiling of this section can trap air."
+
+
 class UpliftChecker:
     """:func:`wetline.core.uplift.uplift_check`, keeping each part's worst level.
 
@@ -87,18 +104,29 @@ class UpliftChecker:
 
     def check(self, case, solution):
         """The same list of :class:`wetline.core.uplift.UpliftResult` as
-        ``case.uplift(solution)``."""
+        ``case.uplift(solution)``; under a law with layers, a gas or trapped
+        air, the worst level searched for that law (both pocket assumptions
+        where air is trapped, :func:`wetline.core.uplift.worst_uplifts_for`)."""
         section = case.section
         density, gravity = case.liquid.density, case.gravity
-        if (self._key is None or self._key[0] is not section
-                or self._key[1:] != (density, gravity)):
-            self._key = (section, density, gravity)
+        law = solution.law
+        general = law is not None and (law.n_layers > 1 or law.gas_pressure != 0.0
+                                       or solution.pocket_mode != VENTED)
+        key = (section, density, gravity)
+        if general:
+            key += (law.densities, law.interfaces, law.gas_pressure, solution.pocket_mode,
+                    solution.atmospheric_pressure)
+        if self._key is None or self._key[0] is not section or self._key[1:] != key[1:]:
+            self._key = key
             self._worst = {}
         resistances = case.resistance_map
         missing = [p for p in section.loaded_part_names
                    if p in resistances and p not in self._worst]
         if missing:
-            self._worst.update(worst_uplifts(section, missing, density, gravity))
+            if general:
+                self._worst.update(worst_uplifts_for(solution, missing))
+            else:
+                self._worst.update(worst_uplifts(section, missing, density, gravity))
         return uplift_check(case, resistances, case.required_uplift_factor, solution,
                             worst=self._worst)
 
@@ -327,8 +355,10 @@ class UpliftPanel(QGroupBox):
             lines.append(
                 f"{part}: resistance {scope.text(r.resistance)}; uplift "
                 f"{scope.text(r.uplift, scale=scale)} now, "
-                f"{scope.text(r.worst_uplift)} at {level_worst} (worst); "
-                f"required {format_number(r.required_factor)}")
+                f"{scope.text(r.worst_uplift)} at {level_worst} (worst, air "
+                f"{r.worst_pockets}); required {format_number(r.required_factor)}")
+        if self.results:
+            lines.append(pockets_statement(sol, self.results))
         if not lines:
             lines.append("Enter a self-weight or holding-down resistance of a part to check "
                          f"it against uplift. Forces {scope.words} ({scope.label}).")
