@@ -210,6 +210,9 @@ def test_volume_is_monotone_in_level(s, n):
 @given(s=plane_sections(), frac=st.floats(0.0, 1.0), shift=st.floats(-50.0, 50.0))
 def test_sideways_shift_changes_nothing(s, frac, shift):
     d = shift * size_of(s)
+    # A shift so small that a moved coordinate falls below the smallest one a
+    # section may hold (core.limits) is refused by design, not a case here.
+    assume(d == 0.0 or abs(d) >= 1e-6 * size_of(s))
     moved = Section.build(s.outline + np.array([d, 0.0]), parts=s.parts, width=s.width)
     h = levels(s, frac)
     a, b = solve(s, h, 1000.0, 9.80665), solve(moved, h, 1000.0, 9.80665)
