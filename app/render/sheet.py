@@ -50,6 +50,7 @@ from PySide6.QtGui import (
     QTextDocument,
 )
 
+from wetline.app.render.case_drawing import DRAWING_NOTE
 from wetline.app.render.level_chart import paint_level_chart
 from wetline.app.render.output import (
     ExportError,
@@ -718,7 +719,9 @@ class _Sheet:
         sol = self.sol
         out = ["<h2>4 Warnings, assumptions and cautions</h2>", "<h3>Warnings</h3>"]
         if self.multi:
-            items = [f"case {sc.name}: {w}" for sc in self.solved for w in sc.warnings]
+            items = [f"case {sc.name}: {w}" for sc in self.solved
+                     for w in sc.warnings + (() if sc.resolved.is_one_liquid
+                                             else (DRAWING_NOTE,))]
             out.append("<ul>" + "".join(f"<li>{_e(w)}</li>" for w in items) + "</ul>" if items
                        else "<p>None in any case.</p>")
         elif sol.warnings:
@@ -989,10 +992,10 @@ def _chart_page(p, body, sheet, units, items):
 
 
 def _case_figures(p, body, sheet, units, items):
-    """A further page of section 5: the sketches of up to two more cases,
-    ``items`` (figure number, SolvedCase)."""
+    """A further page of section 5: the sketches of one or two more cases,
+    ``items`` (figure number, SolvedCase), each over its share of the page."""
     y = body.top()
-    share = (body.bottom() - y) / 2
+    share = (body.bottom() - y) / len(items)
     for k, sc in items:
         top = y
         y = _caption(p, body, y, _case_title(sheet, k, sc), _SKETCH_NOTE.format(n=figures()))
@@ -1066,7 +1069,10 @@ def _pdf(design, level, du, date, progress):
     edges = _document(sheet.edges_html(writer, wide.body), writer, wide.body)
     n_main, n_edges = main.pageCount(), edges.pageCount()
     more = [(k, sc) for k, sc in enumerate(sheet.solved[1:MAX_CASE_FIGURES], start=3)]
-    pairs = [more[k:k + 2] for k in range(1, len(more), 2)]
+    # Two cases a page; one where there is a structure: its drawing, its
+    # dimension lines and its longer legend do not fit half a page.
+    per = 1 if design.structure is not None else 2
+    pairs = [more[k:k + per] for k in range(1, len(more), per)]
     total = n_main + 2 + len(pairs) + n_edges
     plan = ([("doc", main, k, geo) for k in range(n_main)] + [("figures", None, 0, geo)]
             + [("chart", more[:1], 0, geo)] + [("cases", pair, 0, geo) for pair in pairs]
