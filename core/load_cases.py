@@ -423,6 +423,19 @@ class ResolvedCase:
         return (len(self.liquids) <= 1 and self.gas_pressure == 0.0
                 and self.pockets == VENTED)
 
+    @property
+    def solution_key(self) -> tuple[object, ...]:
+        """What this case's liquid solution depends on, beyond the section:
+        the level, the bottom liquid's density, gravity, an ``"empty"``
+        fill, the pressure law (densities, interfaces, gas), the pocket
+        assumption and the atmosphere. Cases of one section with equal keys
+        have the same solution (:meth:`Design.solve_all` and the document's
+        solver share it)."""
+        law = self.law
+        return (self.level, self.case.liquid.density, self.case.gravity, self.fill == EMPTY,
+                None if law is None else (law.densities, law.interfaces, law.gas_pressure),
+                self.pockets, self.atmospheric_pressure)
+
     def solve(self) -> Solution:
         """The liquid's loads in this case (:class:`~wetline.core.hydrostatics.Solution`).
 
@@ -527,11 +540,33 @@ class CaseView(Case):
 
     def solve(self, level: float | None = None) -> Solution:
         """The load case's loads at its fill, or at ``level`` [m] (the
-        layers below the top one where they are)."""
+        layers below the top one where they are).
+
+        A copy made by a ``with_*`` method solves what it says: another
+        fill (a level, a volume) moves the free surface over the case's
+        layers (:meth:`ResolvedCase.solve_at`); another section, liquid or
+        gravity is no longer the load case, so a case of one vented liquid
+        solves as a plain :class:`~wetline.core.case.Case` and one with
+        layers, a gas or trapped pockets is refused (LoadCaseError: build
+        the view again from the design).
+        """
         r = self.resolved
         if r is None:
             return super().solve(level)
-        sol = r.solve() if level is None else r.solve_at(level)
+        c = r.case
+        if not ((self.section is c.section or self.section == c.section)
+                and self.liquid == c.liquid and self.gravity == c.gravity):
+            if not r.is_one_liquid:
+                raise LoadCaseError(
+                    f"case {r.name!r}: this view's section, liquid or gravity was changed, "
+                    "so it is no longer the load case (its layers, gas or pockets); build "
+                    "it again from the design", case=r.name)
+            sol = super().solve(level)
+        elif level is None and self.fill_level == c.fill_level \
+                and self.fill_volume == c.fill_volume:
+            sol = r.solve()
+        else:
+            sol = r.solve_at(self.level if level is None else level)
         if self.note:
             sol = replace(sol, warnings=tuple(sol.warnings) + (self.note,))
         return sol
@@ -618,6 +653,15 @@ class Design:
     _exterior: ExteriorGeometry | None = field(init=False, repr=False, default=None)
 
     def __post_init__(self):
+        self._check()
+        if self.structure is not None:
+            object.__setattr__(self, "_exterior",
+                               exterior_geometry(self.structure, self.case.section))
+        resolved = tuple(self._resolve(c, i) for i, c in enumerate(self.load_cases))
+        object.__setattr__(self, "_resolved", resolved)
+
+    def _check(self):
+        """The inputs' types, the ground's structure and unique case names."""
         if not isinstance(self.case, Case):
             raise TypeError("case must be a Case")
         cases = tuple(self.cases)
@@ -639,11 +683,6 @@ class Design:
                 raise LoadCaseError(f"two load cases are named {c.name!r}; names must be unique",
                                     case=c.name)
             seen.add(c.name)
-        section = self.case.section
-        if self.structure is not None:
-            object.__setattr__(self, "_exterior", exterior_geometry(self.structure, section))
-        resolved = tuple(self._resolve(c, i) for i, c in enumerate(self.load_cases))
-        object.__setattr__(self, "_resolved", resolved)
 
     # ------------------------------------------------------------ access
     @property
@@ -686,6 +725,7 @@ class Design:
 
     def solve(self, name: str | None = None) -> SolvedCase:
         """The :class:`SolvedCase` called ``name`` (default: the first)."""
+        self.restore_derived()
         return self._solve(self.resolve(name), {}, {})
 
     def solve_all(self) -> tuple[SolvedCase, ...]:
@@ -695,14 +735,52 @@ class Design:
         ``"empty"`` case, say) share one solution, and cases with the same
         groundwater share its loads on the structure; all are immutable.
         """
+        self.restore_derived()
         liquids: dict = {}
         outside: dict = {}
         return tuple(self._solve(r, liquids, outside) for r in self._resolved)
 
     # ------------------------------------------------------------ copies
+    def updated(self, *, case: Case | None = None,
+                cases: Iterable[LoadCase] | None = None) -> Design:
+        """Copy with another file-level ``case`` and/or ``cases``, checked as
+        a new Design is (LoadCaseError naming the case at fault), equal to
+        ``Design(case, structure, ground, cases)`` built afresh.
+
+        What does not change is reused, not made again: the structure's
+        exterior geometry while the cavity is the same :class:`Section`
+        object (checking the structure against the cavity and cutting its
+        soil and base pieces takes milliseconds at 2,000 vertices; a fill
+        slider step must not pay it), and, while the file-level case is the
+        same object, each case that is the same :class:`LoadCase` object at
+        the same place (a slider step changes one case).
+        """
+        new_case = self.case if case is None else case
+        new_cases = self.cases if cases is None else tuple(cases)
+        if not isinstance(new_case, Case) or (
+                self.structure is not None and new_case.section is not self.section):
+            return Design(new_case, structure=self.structure, ground=self.ground,
+                          cases=new_cases)
+        self.restore_derived()
+        out = object.__new__(Design)
+        for key, value in (("case", new_case), ("structure", self.structure),
+                           ("ground", self.ground), ("cases", new_cases),
+                           ("_exterior", self._exterior), ("_resolved", ())):
+            object.__setattr__(out, key, value)
+        out._check()
+        kept: dict[int, ResolvedCase] = {}
+        if new_case is self.case:
+            kept = {id(c): r for c, r in zip(self.load_cases, self._resolved, strict=True)}
+        resolved = []
+        for i, c in enumerate(out.load_cases):
+            r = kept.get(id(c))
+            resolved.append(r if r is not None and r.index == i else out._resolve(c, i))
+        object.__setattr__(out, "_resolved", tuple(resolved))
+        return out
+
     def with_case(self, case: Case) -> Design:
-        """Copy with another file-level case (checked again)."""
-        return replace(self, case=case)
+        """Copy with another file-level case (checked again; see :meth:`updated`)."""
+        return self.updated(case=case)
 
     def with_structure(self, structure: Structure | None,
                        ground: Ground | None = None) -> Design:
@@ -714,7 +792,26 @@ class Design:
         return replace(self, ground=ground)
 
     def with_cases(self, cases: Iterable[LoadCase]) -> Design:
-        return replace(self, cases=tuple(cases))
+        """Copy with other load cases (checked again; see :meth:`updated`)."""
+        return self.updated(cases=cases)
+
+    # ------------------------------------------------------- derived data
+    def forget_derived(self) -> None:
+        """Drop the structure's exterior geometry (its soil and base pieces,
+        some hundred kB at 2,000 vertices), e.g. for a design kept only in an
+        undo history; :meth:`restore_derived` makes it again with the same
+        values, and solving does so first. (As
+        :meth:`wetline.core.section.Section.forget_derived`.)"""
+        if self.structure is not None:
+            object.__setattr__(self, "_exterior", None)
+
+    def restore_derived(self) -> Design:
+        """This design, with its exterior geometry made again if it was
+        forgotten (the structure was checked when the design was made)."""
+        if self.structure is not None and self._exterior is None:
+            object.__setattr__(self, "_exterior", exterior_geometry(
+                self.structure, self.section, checked=True))
+        return self
 
     # ------------------------------------------------------------ internals
     def _resolve(self, lc, index):
@@ -842,10 +939,7 @@ class Design:
             raise LoadCaseError(f"case {name!r}: {e}", case=name) from None
 
     def _solve(self, r, liquids, outside):
-        law = r.law
-        key = (r.level, r.case.liquid.density, r.case.gravity, r.fill == EMPTY,
-               None if law is None else (law.densities, law.interfaces, law.gas_pressure),
-               r.pockets, r.atmospheric_pressure)
+        key = r.solution_key
         sol = liquids.get(key)
         if sol is None:
             sol = liquids[key] = r.solve()

@@ -278,21 +278,6 @@ def _load(path, level=None, volume=None, case=None):
     return design, design.resolve(design.names[index])
 
 
-DRAWING_NOTE = (
-    "This drawing shows the case's values at the vertices, joined straight along each "
-    "edge: a kink of the pressure inside an edge (at a layer interface, at the surface "
-    "under a gas, at a pocket's interface) is not drawn, and the chart of loads against "
-    "level is for one liquid (the bottom layer's), pockets vented; the tables hold the "
-    "case's own values.")
-"""Said on a drawing or sheet of a load case with layers, a gas or trapped
-pockets: the renderers draw one liquid."""
-
-
-def _drawable(resolved):
-    """The Case the renderers take for ``resolved``: its own fill and
-    solution (:meth:`wetline.core.load_cases.ResolvedCase.as_case`), with
-    :data:`DRAWING_NOTE` where its pressure law is more than one vented liquid."""
-    return resolved.as_case("" if resolved.is_one_liquid else DRAWING_NOTE)
 
 
 def _refuse_overwriting_inputs(outputs, inputs, distinct=True):
@@ -590,24 +575,26 @@ def _cmd_export(args, out):
     outputs = [(f"--{kind}", path) for kind, path in
                (("png", args.png), ("svg", args.svg), ("dxf", args.dxf)) if path is not None]
     _refuse_overwriting_inputs(outputs, [args.file])
-    _, resolved = _load(args.file, args.level, args.volume, args.case)
-    case = _drawable(resolved)
+    design, resolved = _load(args.file, args.level, args.volume, args.case)
+    case = resolved.case
     if args.dxf is not None:
         from wetline.core.dxf_io import write_outline
 
         write_outline(case.section, args.dxf, unit=case.length_unit)
         out.write(f"wrote {args.dxf}\n")
+    # The diagrams draw the case with its structure, ground and groundwater,
+    # exactly as the window's File > Export does.
     if args.png is not None:
         from wetline.app.render.png import export_png
 
         kwargs = {} if size is None else {"size": size}
-        export_png(case, args.png, units=args.units, **kwargs)
+        export_png(design, args.png, case=resolved.name, units=args.units, **kwargs)
         out.write(f"wrote {args.png}\n")
     if args.svg is not None:
         from wetline.app.render.svg import export_svg
 
         kwargs = {} if size is None else {"size": size}
-        export_svg(case, args.svg, units=args.units, **kwargs)
+        export_svg(design, args.svg, case=resolved.name, units=args.units, **kwargs)
         out.write(f"wrote {args.svg}\n")
     return 0
 

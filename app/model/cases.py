@@ -12,30 +12,26 @@ reuses every other case's results, so the envelope follows within a frame.
 file-level liquid and fill, reusing the structure's case-independent
 geometry when neither the cavity nor the structure changed (checking the
 structure against the cavity and cutting its soil and base pieces takes
-milliseconds at 2,000 vertices; a fill slider step must not pay it). For
-the lead: this belongs in core as ``Design.with_cases`` / ``with_case``
-keeping ``_exterior`` when the section and structure are the same objects.
+milliseconds at 2,000 vertices; a fill slider step must not pay it):
+core's :meth:`wetline.core.load_cases.Design.updated` does that.
 """
 
 from __future__ import annotations
 
-import copy
 from collections.abc import Iterable, Sequence
 from typing import Any
 
 from wetline.core.case import Case
 from wetline.core.hydrostatics import Solution
 from wetline.core.load_cases import (
-    EMPTY,
     Design,
     Envelope,
     LoadCase,
-    LoadCaseError,
     ResolvedCase,
     SolvedCase,
     envelope,
 )
-from wetline.core.structure import ExteriorGeometry, exterior_geometry, exterior_loads
+from wetline.core.structure import ExteriorGeometry, exterior_loads
 
 __all__ = ["same_design", "rebuild", "forget_derived", "restore_derived", "new_case_name",
            "CaseSolver"]
@@ -55,59 +51,22 @@ def same_design(a: Design | None, b: Design | None) -> bool:
 def rebuild(design: Design, *, case: Case | None = None,
             cases: Sequence[LoadCase] | None = None) -> Design:
     """``design`` with another file-level ``case`` and/or ``cases``, checked
-    as :class:`Design` checks them (LoadCaseError naming the case at fault).
-
-    When the new case keeps the section object and the design has a
-    structure, its exterior geometry is reused instead of computed again.
-    """
-    restore_derived(design)
-    new_case = design.case if case is None else case
-    new_cases = design.cases if cases is None else tuple(cases)
-    if design.structure is None or new_case.section is not design.section:
-        return Design(new_case, structure=design.structure, ground=design.ground,
-                      cases=new_cases)
-    out = copy.copy(design)  # shares the structure's exterior geometry
-    object.__setattr__(out, "case", new_case)
-    object.__setattr__(out, "cases", new_cases)
-    seen: set[str] = set()
-    for c in new_cases:
-        if not isinstance(c, LoadCase):
-            raise TypeError("cases must be LoadCase values")
-        if c.name in seen:
-            raise LoadCaseError(f"two load cases are named {c.name!r}; names must be unique",
-                                case=c.name)
-        seen.add(c.name)
-    resolve = out._resolve
-    # With the same file-level case, a case that is the same object at the
-    # same place resolves as before (a slider step changes one case).
-    kept: dict[int, ResolvedCase] = {}
-    if case is None or case is design.case:
-        kept = {id(c): r for c, r in zip(design.load_cases, design._resolved, strict=True)}
-    resolved = []
-    for i, c in enumerate(out.load_cases):
-        r = kept.get(id(c))
-        resolved.append(r if r is not None and r.index == i else resolve(c, i))
-    object.__setattr__(out, "_resolved", tuple(resolved))
-    return out
+    as :class:`Design` checks them (LoadCaseError naming the case at fault):
+    :meth:`wetline.core.load_cases.Design.updated`, which reuses the
+    structure's exterior geometry and the cases that did not change."""
+    return design.updated(case=case, cases=cases)
 
 
 def forget_derived(design: Design) -> None:
-    """Drop ``design``'s exterior geometry (the structure's soil and base
-    pieces, some hundred kB at 2,000 vertices): it lives on only in the undo
-    history. :func:`restore_derived` makes it again when it comes back, with
-    the same values. (For the lead: core's ``Design.forget_derived``, as
-    ``Section.forget_derived``.)"""
-    if design.structure is not None and design.exterior is not None:
-        object.__setattr__(design, "_exterior", None)
+    """Drop ``design``'s exterior geometry: it lives on only in the undo
+    history (:meth:`wetline.core.load_cases.Design.forget_derived`)."""
+    design.forget_derived()
 
 
 def restore_derived(design: Design) -> Design:
-    """``design`` with its exterior geometry (made again if it was
-    forgotten: the structure was checked when the design was made)."""
-    if design.structure is not None and design.exterior is None:
-        object.__setattr__(design, "_exterior", exterior_geometry(
-            design.structure, design.section, checked=True))
-    return design
+    """``design`` with its exterior geometry
+    (:meth:`wetline.core.load_cases.Design.restore_derived`)."""
+    return design.restore_derived()
 
 
 def new_case_name(names: Iterable[str]) -> str:
@@ -146,12 +105,7 @@ class CaseSolver:
 
     @staticmethod
     def _key(r: ResolvedCase) -> tuple[Any, ...]:
-        # As core's Design keys its shared solutions: the whole law (layers,
-        # gas) and the pocket assumption, not only the bottom liquid.
-        law = r.law
-        return (r.level, r.case.liquid.density, r.case.gravity, r.fill == EMPTY,
-                None if law is None else (law.densities, law.interfaces, law.gas_pressure),
-                r.pockets, r.atmospheric_pressure)
+        return r.solution_key  # the whole law: layers, gas, pockets too
 
     def solve(self, design: Design, index: int) -> SolvedCase:
         """The :class:`SolvedCase` of case ``index`` of ``design``."""

@@ -23,7 +23,7 @@ __all__ = ["CORNER_COS", "is_corner", "WettedEdges", "wetted_edges", "auto_scale
            "diagram_polygons", "chain_starts", "carrying_edges", "axis_edges",
            "pressure_arrows", "arrow_strokes", "PartRun", "part_runs", "run_resultants",
            "LoadMark", "load_marks", "edges_words", "Level", "dimension_levels",
-           "numbered", "outer_wetted_edges",
+           "numbered", "groundwater_solution", "outer_wetted", "outer_wetted_edges",
            "surface_spans", "liquid_rings", "PressureSite", "pressure_sites",
            "envelope_wetted_edges", "soil_blocks"]
 
@@ -723,22 +723,44 @@ def numbered(section, limit=48):
     return vertices, np.flatnonzero(picks)
 
 
+def groundwater_solution(structure, cavity, level, density, gravity):
+    """The groundwater standing at ``level`` [m] around a structure (a
+    :class:`wetline.core.structure.Structure` around ``cavity``) as a
+    :class:`wetline.core.hydrostatics.Solution` of its outer outline: the
+    pressure rho g (level - z) on every outer edge below it, with the
+    outline's outward normals (what
+    :func:`wetline.core.structure.exterior_loads` solves; its forces on the
+    structure are the solution's with the sign changed). ``density``
+    [kg/m3], ``gravity`` [m/s2].
+
+    The one source of the groundwater's diagram for the canvas
+    (:mod:`wetline.app.window.structure_layer`) and the exported diagram
+    (:class:`wetline.app.render.diagram_view.DiagramView`).
+    """
+    from wetline.core.hydrostatics import solve
+
+    return solve(structure.section(cavity), float(level), float(density), float(gravity))
+
+
+def outer_wetted(solution):
+    """:class:`WettedEdges` of a :func:`groundwater_solution`: every outer
+    edge below the water but those on the axis (an outer outline has no
+    ``open`` edge), normals pointing away from the structure, so its
+    diagram is drawn outside the structure, in the ground."""
+    outer = solution.section
+    return wetted_edges(solution, ~axis_edges(outer))
+
+
 def outer_wetted_edges(structure, cavity, level, density, gravity):
     """:class:`WettedEdges` of the groundwater on the outer face of a
-    structure (a :class:`wetline.core.structure.Structure` around
-    ``cavity``) standing at ``level`` [m]: the pressure rho g (level - z)
-    on every outer edge below it, with the normals pointing away from the
-    structure, so its diagram is drawn outside the structure, in the ground.
+    structure around ``cavity`` standing at ``level`` [m]:
+    :func:`outer_wetted` of :func:`groundwater_solution`.
 
     Returns
     -------
     WettedEdges
     """
-    from wetline.core.hydrostatics import solve
-
-    outer = structure.section(cavity)
-    return wetted_edges(solve(outer, float(level), float(density), float(gravity)),
-                        np.ones(outer.n_edges, dtype=bool) & ~axis_edges(outer))
+    return outer_wetted(groundwater_solution(structure, cavity, level, density, gravity))
 
 
 def envelope_wetted_edges(solutions, factors, carries=None):

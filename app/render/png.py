@@ -4,7 +4,9 @@
 on a white :class:`QImage` (300 dpi in its metadata); :func:`export_png`
 writes it atomically (:func:`wetline.app.render.output.write_output`).
 ``wetline export FILE --png OUT`` (:mod:`wetline.app.cli.main`) and the
-window's File > Export call them.
+window's File > Export call them with the design and the case's name
+(:mod:`wetline.app.render.case_drawing`), so both draw the same case with
+its structure.
 """
 
 from __future__ import annotations
@@ -12,6 +14,7 @@ from __future__ import annotations
 from PySide6.QtCore import QBuffer, QByteArray, QIODevice
 from PySide6.QtGui import QImage
 
+from wetline.app.render.case_drawing import case_drawing
 from wetline.app.render.output import (
     ExportError,
     check_level,
@@ -30,13 +33,18 @@ DPI = 300
 """Resolution written into the PNG [dots per inch]."""
 
 
-def render_diagram(case, *, level=None, units="si", size=DEFAULT_SIZE, date=None):
-    """Paint the pressure diagram of ``case`` on a new image.
+def render_diagram(subject, *, case=None, level=None, units="si", size=DEFAULT_SIZE,
+                   date=None):
+    """Paint the pressure diagram of one load case on a new image.
 
     Parameters
     ----------
-    case : wetline.core.case.Case
-        The section, liquid, gravity and fill.
+    subject : wetline.core.load_cases.Design or wetline.core.case.Case
+        The design (section, liquid, gravity, fill, the structure, ground
+        and load cases), or one case (a design of that case alone).
+    case : str, optional
+        The load case drawn (its name), with its structure, groundwater and
+        ground; default the first. Only for a Design.
     level : float, optional
         Free-surface height [m] instead of the case's fill; capped at the
         spill level of an open section (the title block says so).
@@ -58,7 +66,8 @@ def render_diagram(case, *, level=None, units="si", size=DEFAULT_SIZE, date=None
     Raises
     ------
     ExportError
-        For a bad size or level, or an image too large for the memory.
+        For a bad size or level, a case the design does not have, or an
+        image too large for the memory.
     wetline.core.units.UnitError
         For an unknown unit system.
     """
@@ -66,14 +75,15 @@ def render_diagram(case, *, level=None, units="si", size=DEFAULT_SIZE, date=None
     du = display_units(units)
     level = check_level(level)
     ensure_app()
-    solution = case.solve(level)
+    drawing = case_drawing(subject, case, level)
     image = QImage(w, h, QImage.Format.Format_RGB32)
     if image.isNull():
         raise ExportError(f"not enough memory for a {w} x {h} px image")
     dpm = int(round(DPI / 0.0254))
     image.setDotsPerMeterX(dpm)
     image.setDotsPerMeterY(dpm)
-    DiagramScene(case, solution, du.name, (w, h), date).paint(image)
+    DiagramScene(drawing.case, drawing.solution, du.name, (w, h), date,
+                 structure=drawing.structure, case_name=drawing.case_name).paint(image)
     return image
 
 
@@ -88,8 +98,9 @@ def _png_bytes(image, path):
     return bytes(data.data())
 
 
-def export_png(case, path, *, level=None, units="si", size=DEFAULT_SIZE, date=None):
-    """Write the pressure diagram of ``case`` to a PNG file, atomically.
+def export_png(subject, path, *, case=None, level=None, units="si", size=DEFAULT_SIZE,
+               date=None):
+    """Write the pressure diagram of one load case to a PNG file, atomically.
 
     Parameters as :func:`render_diagram`; a failed export leaves no file
     behind and any old file as it was.
@@ -103,4 +114,5 @@ def export_png(case, path, *, level=None, units="si", size=DEFAULT_SIZE, date=No
     """
     check_size(size)
     write_output(path, "the PNG", lambda: _png_bytes(
-        render_diagram(case, level=level, units=units, size=size, date=date), path))
+        render_diagram(subject, case=case, level=level, units=units, size=size, date=date),
+        path))

@@ -35,7 +35,6 @@ from __future__ import annotations
 
 import math
 
-import numpy as np
 from PySide6.QtCore import QLineF, QRectF, Qt
 from PySide6.QtGui import QColor, QPainter, QPen
 
@@ -181,38 +180,47 @@ class DiagramScene:
         finally:
             p.restore()
 
-    def _draw_figure(self, p, frame):
-        """The drawing over ``frame`` with the legend beside it (a drawing
-        taller than the frame's shape) or in columns along its foot."""
+    def figure_layout(self, frame):
+        """Where a figure's parts go in ``frame``: the drawing's
+        :class:`DiagramView`, the rule between it and the legend, the
+        legend's blocks as ``(block, x, y, width)`` and the fonts. The
+        legend goes below the drawing (in 2 to 4 columns) or beside it (in
+        one or two columns, only where it fits the frame's height: a
+        structure's legend is long), wherever the drawing comes out largest
+        (the drawing's own scale, its labels and dimension lines counted)."""
         fonts = Fonts(self.base_font)
         legend = self.title_block.legend_block()
         pad = 0.9 * fonts.base
         gap = 1.2 * fonts.base
-        pts = self.section.outline if self.structure is None else self.structure.outline
-        wide = float(np.ptp(pts[:, 0])) * (2.0 if self.axisymmetric else 1.0)
-        tall = max(float(np.ptp(pts[:, 1])), 1e-12)
-        side_w = 15.5 * fonts.base
         columns = max(2, min(4, int(frame.width() // (16 * fonts.base))))
         cw = (frame.width() - 2 * pad - gap * (columns - 1)) / columns
         below_h = max(b.measure(fonts, cw) for b in legend.split(columns)) + 2 * pad
-        # The legend beside a tall drawing, below a wide one: where the
-        # drawing comes out larger.
-        beside = (min((frame.width() - side_w) / wide, frame.height() / tall)
-                  > min(frame.width() / wide, (frame.height() - below_h) / tall))
-        if beside:
-            cw = side_w - 2 * pad
-            parts = legend.split(1)
+        area = QRectF(frame.left(), frame.top(), frame.width(), frame.height() - below_h)
+        best = (DiagramView(self, area, fonts),
+                QLineF(frame.left(), area.bottom(), frame.right(), area.bottom()),
+                [(block, frame.left() + pad + k * (cw + gap), area.bottom() + pad, cw)
+                 for k, block in enumerate(legend.split(columns))])
+        column_w = 15.5 * fonts.base - 2 * pad  # a legend column beside the drawing
+        for n in (1, 2):
+            side_w = n * column_w + (n - 1) * gap + 2 * pad
+            parts = legend.split(n)
+            if (max(b.measure(fonts, column_w) for b in parts) + 2 * pad > frame.height()
+                    or side_w > 0.6 * frame.width()):
+                continue
             area = QRectF(frame.left(), frame.top(), frame.width() - side_w, frame.height())
-            parts[0].draw(p, fonts, area.right() + pad, frame.top() + pad, cw)
-            rule = QLineF(area.right(), frame.top(), area.right(), frame.bottom())
-        else:
-            parts = legend.split(columns)
-            area = QRectF(frame.left(), frame.top(), frame.width(), frame.height() - below_h)
-            for k, block in enumerate(parts):
-                block.draw(p, fonts, frame.left() + pad + k * (cw + gap), area.bottom() + pad,
-                           cw)
-            rule = QLineF(frame.left(), area.bottom(), frame.right(), area.bottom())
-        DiagramView(self, area, fonts).draw(p)
+            view = DiagramView(self, area, fonts)
+            if view.px_per_m > best[0].px_per_m:
+                best = (view, QLineF(area.right(), frame.top(), area.right(), frame.bottom()),
+                        [(block, area.right() + pad + k * (column_w + gap), frame.top() + pad,
+                          column_w) for k, block in enumerate(parts)])
+        return (*best, fonts)
+
+    def _draw_figure(self, p, frame):
+        """The drawing over ``frame`` with its legend (:meth:`figure_layout`)."""
+        view, rule, blocks, fonts = self.figure_layout(frame)
+        for block, x, y, width in blocks:
+            block.draw(p, fonts, x, y, width)
+        view.draw(p)
         p.setBrush(Qt.BrushStyle.NoBrush)
         p.setPen(QPen(QColor(INK), 1.0 * self.line_width))
         p.drawRect(frame)

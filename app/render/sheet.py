@@ -50,6 +50,7 @@ from PySide6.QtGui import (
     QTextDocument,
 )
 
+from wetline.app.render.case_drawing import DRAWING_NOTE
 from wetline.app.render.level_chart import paint_level_chart
 from wetline.app.render.output import (
     ExportError,
@@ -734,7 +735,9 @@ class _Sheet:
         sol = self.sol
         out = ["<h2>4 Warnings, assumptions and cautions</h2>", "<h3>Warnings</h3>"]
         if self.multi:
-            items = [f"case {sc.name}: {w}" for sc in self.solved for w in sc.warnings]
+            items = [f"case {sc.name}: {w}" for sc in self.solved
+                     for w in sc.warnings + (() if sc.resolved.is_one_liquid
+                                             else (DRAWING_NOTE,))]
             out.append("<ul>" + "".join(f"<li>{_e(w)}</li>" for w in items) + "</ul>" if items
                        else "<p>None in any case.</p>")
         elif sol.warnings:
@@ -1005,8 +1008,8 @@ def _chart_page(p, body, sheet, units, items):
 
 
 def _case_figures(p, body, sheet, units, items):
-    """A further page of section 5: the sketch of a further case over the
-    page, ``items`` (figure number, SolvedCase)."""
+    """A further page of section 5: the sketches of one or two more cases,
+    ``items`` (figure number, SolvedCase), each over its share of the page."""
     y = body.top()
     share = (body.bottom() - y) / len(items)
     for k, sc in items:
@@ -1082,13 +1085,13 @@ def _pdf(design, level, du, date, progress):
     edges = _document(sheet.edges_html(writer, wide.body), writer, wide.body)
     n_main, n_edges = main.pageCount(), edges.pageCount()
     more = [(k, sc) for k, sc in enumerate(sheet.solved[1:MAX_CASE_FIGURES], start=3)]
-    # Every case's sketch has a page of its own, laid out like the first
-    # (legend under the drawing): half a page leaves a buried structure's
-    # sketch small and its legend clipped.
-    pages = [[item] for item in more]
-    total = n_main + 2 + len(pages) + n_edges
+    # Two cases a page; one where there is a structure: its drawing, its
+    # dimension lines and its longer legend do not fit half a page.
+    per = 1 if design.structure is not None else 2
+    pairs = [more[k:k + per] for k in range(1, len(more), per)]
+    total = n_main + 2 + len(pairs) + n_edges
     plan = ([("doc", main, k, geo) for k in range(n_main)] + [("figures", None, 0, geo)]
-            + [("chart", [], 0, geo)] + [("cases", one, 0, geo) for one in pages]
+            + [("chart", more[:1], 0, geo)] + [("cases", pair, 0, geo) for pair in pairs]
             + [("doc", edges, k, wide) for k in range(n_edges)])
     tell(2, f"painting {total} pages")
     p = QPainter()

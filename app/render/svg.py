@@ -19,6 +19,7 @@ from __future__ import annotations
 from PySide6.QtCore import QBuffer, QByteArray, QIODevice, QRectF, QSize
 from PySide6.QtSvg import QSvgGenerator
 
+from wetline.app.render.case_drawing import case_drawing
 from wetline.app.render.output import (
     check_level,
     check_size,
@@ -38,12 +39,16 @@ SVG_DPI = 96
 """Pixels per inch stated for the SVG's physical size (the CSS pixel)."""
 
 
-def render_svg(case, *, level=None, units="si", size=DEFAULT_SVG_SIZE, date=None):
-    """The pressure diagram of ``case`` as SVG text.
+def render_svg(subject, *, case=None, level=None, units="si", size=DEFAULT_SVG_SIZE,
+               date=None):
+    """The pressure diagram of one load case as SVG text.
 
     Parameters
     ----------
-    case : wetline.core.case.Case
+    subject : wetline.core.load_cases.Design or wetline.core.case.Case
+        As for :func:`wetline.app.render.png.render_diagram`.
+    case : str, optional
+        The load case drawn (its name); default the first. Only for a Design.
     level : float, optional
         Free-surface height [m] instead of the case's fill.
     units : str
@@ -61,13 +66,13 @@ def render_svg(case, *, level=None, units="si", size=DEFAULT_SVG_SIZE, date=None
     Raises
     ------
     wetline.app.render.output.ExportError
-        For a bad size or level.
+        For a bad size or level, or a case the design does not have.
     """
     w, h = check_size(size)
     du = display_units(units)
     level = check_level(level)
     ensure_app()
-    solution = case.solve(level)
+    drawing = case_drawing(subject, case, level)
     data = QByteArray()
     buffer = QBuffer(data)
     buffer.open(QIODevice.OpenModeFlag.WriteOnly)
@@ -76,16 +81,18 @@ def render_svg(case, *, level=None, units="si", size=DEFAULT_SVG_SIZE, date=None
     gen.setSize(QSize(w, h))
     gen.setViewBox(QRectF(0, 0, w, h))
     gen.setResolution(SVG_DPI)
-    name = case.section.name.strip() or "Untitled section"
+    name = drawing.case.section.name.strip() or "Untitled section"
     gen.setTitle(f"{name}: pressure diagram")
     gen.setDescription(f"Hydrostatic pressure diagram drawn by {program_name()}")
-    DiagramScene(case, solution, du.name, (w, h), date).paint(gen)
+    DiagramScene(drawing.case, drawing.solution, du.name, (w, h), date,
+                 structure=drawing.structure, case_name=drawing.case_name).paint(gen)
     buffer.close()
     return bytes(data.data())
 
 
-def export_svg(case, path, *, level=None, units="si", size=DEFAULT_SVG_SIZE, date=None):
-    """Write the pressure diagram of ``case`` to an SVG file, atomically.
+def export_svg(subject, path, *, case=None, level=None, units="si", size=DEFAULT_SVG_SIZE,
+               date=None):
+    """Write the pressure diagram of one load case to an SVG file, atomically.
 
     Parameters as :func:`render_svg`; ``path`` is the file to write.
 
@@ -97,4 +104,5 @@ def export_svg(case, path, *, level=None, units="si", size=DEFAULT_SVG_SIZE, dat
         left behind on failure.
     """
     write_output(path, "the SVG",
-                 lambda: render_svg(case, level=level, units=units, size=size, date=date))
+                 lambda: render_svg(subject, case=case, level=level, units=units, size=size,
+                                    date=date))

@@ -193,6 +193,7 @@ class TitleBlock:
         footer = self.footer()
         fh = sum(b.measure(fonts, cw) for b in footer)
         col, y = 0, inner.top()
+        fits = True
         for b in self.blocks():
             h = b.measure(fonts, cw)
             limit = inner.bottom() - (fh if col == columns - 1 else 0.0)
@@ -201,20 +202,23 @@ class TitleBlock:
                     col += 1
                     y = inner.top()
                     if col >= columns:
-                        return False
+                        fits = False
+                        break
                     limit = inner.bottom() - (fh if col == columns - 1 else 0.0)
                 if y + h > limit:
-                    return False
+                    fits = False
+                    break
             if painter is not None:
                 b.draw(painter, fonts, inner.left() + col * (cw + gap), y, cw)
             y += h
+        # The caution, units and date are drawn whatever did not fit above.
         if painter is not None:
             x = inner.left() + (columns - 1) * (cw + gap)
             y = inner.bottom() - fh
             for b in footer:
                 b.draw(painter, fonts, x, y, cw)
                 y += b.measure(fonts, cw)
-        return True
+        return fits
 
     def fit(self, frame):
         """Where the title block goes in ``frame`` and in which fonts.
@@ -243,9 +247,17 @@ class TitleBlock:
         fonts = Fonts(base)
         panel = next((r for r in panels if self.flow(fonts, r, columns)), panels[-1])
         floor = max(7.0, self.scene.min_font)
-        while base * 0.93 >= floor and not self.flow(fonts, panel, columns):
-            base *= 0.93
+        # Shrink in steps down to the floor itself (a step past it is not
+        # skipped: the floor may be only a few per cent below the base).
+        while base > floor and not self.flow(fonts, panel, columns):
+            base = max(base * 0.93, floor)
             fonts = Fonts(base)
+        if not self.flow(fonts, panel, columns):
+            # Still too long (a structure's legend, several notes): one
+            # more column of blocks, in the narrowest panel that holds them.
+            wider = next((r for r in panels if self.flow(fonts, r, columns + 1)), None)
+            if wider is not None:
+                panel, columns = wider, columns + 1
         return panel, columns, fonts, beside
 
     def draw(self, p, panel, columns, fonts):

@@ -1,12 +1,15 @@
 """File > Export and File > Import of the desktop program.
 
 :class:`Transfer` holds what the menu actions do, so the main window only
-builds menus. Exports: the PDF calculation sheet (:mod:`wetline.app.render.sheet`,
-written in a worker thread with a progress dialog), the SVG diagram
-(:mod:`wetline.app.render.svg`), per-edge results and the loads-against-level table
-as CSV (:mod:`wetline.core.report_tables`, in the display units), and the outline as
-DXF (:func:`wetline.core.dxf_io.write_outline`, in the case's length unit). Imports:
-an outline from a DXF drawing (:mod:`wetline.core.dxf_io`) and a coordinate list from
+builds menus. Exports: the PDF calculation sheet of the whole design (every
+load case, the structure, flotation and the envelope, as ``wetline report``;
+:mod:`wetline.app.render.sheet`, written in a worker thread with a progress
+dialog), the SVG diagram of the active case with its structure (as
+``wetline export --case``; :mod:`wetline.app.render.svg`), per-edge results
+and the loads-against-level table as CSV (:mod:`wetline.core.report_tables`,
+in the display units), and the outline as DXF
+(:func:`wetline.core.dxf_io.write_outline`, in the case's length unit).
+Imports: an outline from a DXF drawing (:mod:`wetline.core.dxf_io`) and a coordinate list from
 a CSV file or the clipboard (:mod:`wetline.core.coordinates`, read in the display
 length unit).
 
@@ -46,7 +49,18 @@ class _Cancelled(Exception):
 
 
 class PdfJob(QThread):
-    """Write the calculation sheet of an (immutable) case in a worker thread.
+    """Write the calculation sheet of an (immutable) design in a worker thread.
+
+    Parameters
+    ----------
+    design : wetline.core.load_cases.Design
+        Every case, the structure and the ground: the sheet has the
+        load-case table, each case, and the envelope, as ``wetline report``.
+    path : str or os.PathLike
+    units : str
+        ``"si"`` or ``"us"``.
+    case : str, optional
+        The sheet of this case alone; default every case.
 
     Signals
     -------
@@ -59,8 +73,9 @@ class PdfJob(QThread):
     progressed = Signal(int, int, str)
     done = Signal(str, str)
 
-    def __init__(self, case, path, units, parent=None):
+    def __init__(self, design, path, units, parent=None, case=None):
         super().__init__(parent)
+        self.design = design
         self.case = case
         self.path = str(path)
         self.units = units
@@ -80,7 +95,8 @@ class PdfJob(QThread):
         from wetline.app.render.sheet import write_report
 
         try:
-            write_report(self.case, self.path, units=self.units, progress=self._progress)
+            write_report(self.design, self.path, units=self.units, progress=self._progress,
+                         case=self.case)
             self.status = ("ok", self.path)
         except _Cancelled:
             self.status = ("cancelled", "")
@@ -174,7 +190,7 @@ class Transfer(QObject):
         if self.refuse_stale("calculation sheet"):
             return None
         self.doc.flush()
-        job = PdfJob(self.doc.case, path, self.doc.units.system, self)
+        job = PdfJob(self.doc.design, path, self.doc.units.system, self)
         self.progress = dialogs.make_progress(self._window, "Calculation sheet",
                                               f"Writing {Path(path).name} ...", 4)
         self.progress.canceled.connect(self._on_progress_canceled)
@@ -252,7 +268,9 @@ class Transfer(QObject):
         if self.refuse_stale("diagram"):
             return False
         try:
-            export_svg(self.doc.case, path, units=self.doc.units.system)
+            self.doc.flush()
+            export_svg(self.doc.design, path, case=self.doc.active_name,
+                       units=self.doc.units.system)
         except Exception as exc:
             return self._error("Cannot export the SVG", exc)
         self._status(f"Exported {path}")

@@ -703,8 +703,9 @@ class MainWindow(QMainWindow):
         return self.export_to(path) if path else False
 
     def export_to(self, path, size=None):
-        """Write the pressure diagram PNG (through :mod:`wetline.app.render.png`);
-        refused while the outline being edited is invalid."""
+        """Write the pressure diagram PNG of the active case with its
+        structure (through :mod:`wetline.app.render.png`, as ``wetline export
+        --case``); refused while the outline being edited is invalid."""
         if self.transfer.refuse_stale("diagram"):
             return False
         try:
@@ -716,7 +717,8 @@ class MainWindow(QMainWindow):
         if size is not None:
             kwargs["size"] = size
         try:
-            png.export_png(self.doc.case, path, **kwargs)
+            self.doc.flush()
+            png.export_png(self.doc.design, path, case=self.doc.active_name, **kwargs)
         except Exception as exc:
             dialogs.show_error(self, "Export failed", str(exc))
             return False

@@ -8,8 +8,11 @@ outward normals, into the ground) in a cool colour family, so it never
 mixes with the liquid's warm diagrams inside the cavity; both share one
 pressure scale, so their sizes compare. The groundwater's loads are a
 :class:`wetline.core.hydrostatics.Solution` of the outer outline (as
-:func:`wetline.core.structure.exterior_loads` computes them), drawn with the
-same geometry functions as the liquid's (:mod:`wetline.app.render.geometry`).
+:func:`wetline.core.structure.exterior_loads` computes them), made and cut
+into wetted edges by the same functions as the exported diagram's
+(:func:`wetline.app.render.geometry.groundwater_solution`,
+:func:`~wetline.app.render.geometry.outer_wetted`) and drawn with the same
+geometry functions as the liquid's (:mod:`wetline.app.render.geometry`).
 """
 
 from __future__ import annotations
@@ -23,10 +26,11 @@ from PySide6.QtWidgets import QGraphicsItem
 from wetline.app.render.geometry import (
     arrow_strokes,
     diagram_polygons,
+    groundwater_solution,
+    outer_wetted,
     pressure_arrows,
     pressure_sites,
     soil_blocks,
-    wetted_edges,
 )
 from wetline.app.window.canvas_items import (
     add_item,
@@ -36,7 +40,6 @@ from wetline.app.window.canvas_items import (
     path_of,
     rings_path,
 )
-from wetline.core.hydrostatics import solve
 
 __all__ = ["StructureLayer", "STRUCTURE_INK", "GROUND_COLOUR", "GROUNDWATER_COLOUR",
            "OUTER_DIAGRAM_LINE", "OUTER_DIAGRAM_TEXT", "MAX_OUTER_PRESSURE_LABELS",
@@ -139,8 +142,8 @@ class StructureLayer:
         gw = loads.groundwater
         key = (design.structure, design.section, gw.level, gw.density, loads.gravity)
         if self._water_key is None or not _same_key(self._water_key, key):
-            outer = design.structure.section(design.section)
-            self.water_solution = solve(outer, gw.level, gw.density, loads.gravity)
+            self.water_solution = groundwater_solution(design.structure, design.section,
+                                                       gw.level, gw.density, loads.gravity)
             self._water_key = key
         return self.water_solution
 
@@ -221,7 +224,7 @@ class StructureLayer:
                 self._water_drawn = key
                 self.groundwater.setData([x0, x1], [zw, zw])
                 self.groundwater_mark.setData([x1 - 0.04 * size], [zw + 0.012 * size])
-                w = wetted_edges(water)
+                w = outer_wetted(water)
                 self._water_edges = w
                 x, z, connect = diagram_polygons(w, scale)
                 p = path_of(x, z, connect)

@@ -25,7 +25,7 @@ from PySide6.QtWidgets import (
 
 from wetline.app.model import editing
 from wetline.app.model.document import CAVITY, STRUCTURE
-from wetline.app.window.panels import parse_number
+from wetline.core.number_input import parse_decimal
 from wetline.core.numbers import format_entered, format_number
 from wetline.core.section import AXIS, FLOOR, OPEN
 from wetline.core.structure import OUTER_WALL
@@ -368,7 +368,8 @@ class VerticesModel(_Model):
                 outline, _ = self.outline()
                 if str(value).strip() == format_entered(doc.units.length(outline[i, c])):
                     return True  # the text as shown, not edited: no step
-                v = doc.units.length_si(parse_number(str(value), ("x", "z")[c]))
+                # The one parser of typed decimals (as the CLI, the draw input).
+                v = doc.units.length_si(parse_decimal(str(value), ("x", "z")[c]))
                 x, z = outline[i]
                 if c == 0:
                     x = v

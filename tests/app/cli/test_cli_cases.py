@@ -235,12 +235,25 @@ def test_export_and_report_of_a_case(capsys, well, tmp_path):
 
 
 def test_a_drawing_of_a_layered_case_says_what_it_leaves_out(well):
-    from wetline.app.cli.main import DRAWING_NOTE, _drawable, _load
+    from wetline.app.cli.main import _load
+    from wetline.app.render.case_drawing import DRAWING_NOTE, case_drawing
 
-    _, grease = _load(well, case="grease on sewage")
-    assert DRAWING_NOTE in _drawable(grease).solve().warnings
+    design, grease = _load(well, case="grease on sewage")
+    assert DRAWING_NOTE in case_drawing(design, grease.name).solution.warnings
     _, normal = _load(well)
-    view = _drawable(normal)
-    assert DRAWING_NOTE not in view.solve().warnings
+    view = case_drawing(design, normal.name)
+    assert DRAWING_NOTE not in view.solution.warnings
     # The one-liquid case draws exactly what solve() gives.
-    assert view.solve().fz.tolist() == normal.solve().fz.tolist()
+    assert view.solution.fz.tolist() == normal.solve().fz.tolist()
+
+
+def test_the_sheet_of_a_layered_case_says_what_its_drawing_leaves_out(capsys, well,
+                                                                      tmp_path):
+    import pypdf
+
+    pdf = tmp_path / "s.pdf"
+    status, out, err = run(capsys, "report", well, "-o", pdf)
+    assert status == 0, err
+    text = " ".join(" ".join(p.extract_text().split()) for p in pypdf.PdfReader(pdf).pages)
+    assert "case grease on sewage: This drawing shows the case's values" in text
+    assert "case normal top water: This drawing" not in text

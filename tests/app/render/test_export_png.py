@@ -278,20 +278,22 @@ def test_export_command_reads_the_file_and_converts_the_level(tmp_path, monkeypa
     assert json.loads(src.read_text())["length_unit"] == "mm"
     seen = {}
 
-    def fake_export(case, path, **kwargs):
-        seen.update(case=case, path=path, **kwargs)
+    def fake_export(subject, path, **kwargs):
+        seen.update(design=subject, path=path, **kwargs)
 
     monkeypatch.setattr(png, "export_png", fake_export)
     out = str(tmp_path / "out.png")
     assert main(["export", str(src), "--png", out, "--level", "1200", "--units", "us",
                  "--size", "900x700"]) == 0
-    assert seen["case"].fill_level == 1.2  # 1200 mm, converted exactly
+    # The design with the level, and the name of the case drawn.
+    assert seen["design"].resolve(seen["case"]).case.fill_level == 1.2  # 1200 mm, exactly
     assert seen["units"] == "us"
     assert seen["size"] == (900, 700)
     seen.clear()
     assert main(["export", str(src), "--png", out]) == 0
     assert "size" not in seen  # export_png's own default, A4 at 300 dpi
-    assert seen["case"].fill_level == read_section_file(src).fill_level
+    assert seen["design"].resolve(seen["case"]).case.fill_level == \
+        read_section_file(src).fill_level
 
 
 def test_export_command_writes_a_png(tmp_path, capsys, template_case):

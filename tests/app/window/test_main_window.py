@@ -116,7 +116,7 @@ def test_typed_coordinate_in_display_units(make_window, settle):
     assert model.setData(model.index(1, 0), "2500", Qt.EditRole)
     assert w.doc.section.outline[1, 0] == pytest.approx(2.5)
     assert not model.setData(model.index(1, 0), "two", Qt.EditRole)
-    assert "not a number" in model.last_error
+    assert "must be a finite decimal number" in model.last_error
     assert w.doc.section.outline[1, 0] == pytest.approx(2.5)
 
 
