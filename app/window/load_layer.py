@@ -90,6 +90,8 @@ class LoadLayer:
         self.air_lines = pairs_curve(vb, pg.mkPen(SURFACE, width=2), 6)
         self.interface_levels = []
         """Levels [m] of the layer interfaces drawn (bottom up), for dragging."""
+        self.interface_spans = []
+        """Where each interface crosses the cavity: x-ranges [m], bottom up."""
         self.air_texts = []
         """The labels asked for the pockets of trapped air, in order."""
         self.spill = add_item(vb, pg.PlotCurveItem(
@@ -157,6 +159,7 @@ class LoadLayer:
         self.interfaces.setData([], [])
         self.air_lines.setData([], [])
         self.interface_levels = []
+        self.interface_spans = []
         self.air_texts = []
         self.down.setData([], [])
         self.up.setData([], [])
@@ -252,6 +255,7 @@ class LoadLayer:
                 item.setVisible(bool(rings))
         faces = layer_interfaces(solution)
         self.interface_levels = [f.level for f in faces]
+        self.interface_spans = [list(f.spans) for f in faces]
         xs, zs = [], []
         for face in faces:
             for a, b in face.spans:
