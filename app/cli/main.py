@@ -278,21 +278,11 @@ def _load(path, level=None, volume=None, case=None):
     return design, design.resolve(design.names[index])
 
 
-DRAWING_NOTE = (
-    "This drawing shows the case's values at the vertices, joined straight along each "
-    "edge: a kink of the pressure inside an edge (at a layer interface, at the surface "
-    "under a gas, at a pocket's interface) is not drawn, and the chart of loads against "
-    "level is for one liquid (the bottom layer's), pockets vented; the tables hold the "
-    "case's own values.")
-"""Said on a drawing or sheet of a load case with layers, a gas or trapped
-pockets: the renderers draw one liquid."""
-
-
 def _drawable(resolved):
     """The Case the renderers take for ``resolved``: its own fill and
-    solution (:meth:`wetline.core.load_cases.ResolvedCase.as_case`), with
-    :data:`DRAWING_NOTE` where its pressure law is more than one vented liquid."""
-    return resolved.as_case("" if resolved.is_one_liquid else DRAWING_NOTE)
+    solution (:meth:`wetline.core.load_cases.ResolvedCase.as_case`); the
+    drawings show its layers, gas and trapped air as they are."""
+    return resolved.as_case()
 
 
 def _refuse_overwriting_inputs(outputs, inputs, distinct=True):

@@ -234,13 +234,16 @@ def test_export_and_report_of_a_case(capsys, well, tmp_path):
     assert pdf.read_bytes()[:5] == b"%PDF-"
 
 
-def test_a_drawing_of_a_layered_case_says_what_it_leaves_out(well):
-    from wetline.app.cli.main import DRAWING_NOTE, _drawable, _load
+def test_a_drawing_of_a_layered_case_is_of_the_case_itself(well):
+    """The renderers draw a layered case's own solution (its kinks, layers,
+    gas and air are drawn: tests/app/render/test_layered_drawing.py), with
+    no sentence saying part of it is left out."""
+    from wetline.app.cli.main import _drawable, _load
 
-    _, grease = _load(well, case="grease on sewage")
-    assert DRAWING_NOTE in _drawable(grease).solve().warnings
-    _, normal = _load(well)
-    view = _drawable(normal)
-    assert DRAWING_NOTE not in view.solve().warnings
-    # The one-liquid case draws exactly what solve() gives.
-    assert view.solve().fz.tolist() == normal.solve().fz.tolist()
+    for name in ("grease on sewage", None):
+        _, resolved = _load(well, case=name)
+        view = _drawable(resolved).solve()
+        own = resolved.solve()
+        assert view.warnings == own.warnings
+        assert view.fz.tolist() == own.fz.tolist()
+        assert [ly.top for ly in view.layers] == [ly.top for ly in own.layers]
