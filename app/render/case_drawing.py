@@ -20,17 +20,7 @@ from wetline.core.hydrostatics import Solution
 from wetline.core.load_cases import Design, LoadCaseError
 from wetline.core.structure import StructureLoads, exterior_loads
 
-__all__ = ["DRAWING_NOTE", "CaseDrawing", "case_drawing"]
-
-DRAWING_NOTE = (
-    "This drawing shows the case's values at the vertices, joined straight along each "
-    "edge: a kink of the pressure inside an edge (at a layer interface, at the surface "
-    "under a gas, at a pocket's interface) is not drawn, and the chart of loads against "
-    "level is for one liquid (the bottom layer's), pockets vented; the tables hold the "
-    "case's own values.")
-"""Said on a drawing of a load case with layers, a gas or trapped pockets:
-the renderers draw one liquid."""
-
+__all__ = ["CaseDrawing", "case_drawing"]
 
 @dataclass(frozen=True, eq=False)
 class CaseDrawing:
@@ -41,9 +31,8 @@ class CaseDrawing:
     case : Case
         The case drawn: for a load case its
         :class:`wetline.core.load_cases.CaseView` (liquid, gravity and fill
-        as numbers; ``solve`` gives the case's own solution), with
-        :data:`DRAWING_NOTE` in its warnings where its pressure law is more
-        than one vented liquid.
+        as numbers; ``solve`` gives the case's own solution, drawn with its
+        layers, gas and trapped air).
     solution : Solution
         The liquid's loads drawn (characteristic).
     structure : StructureLoads or None
@@ -99,7 +88,7 @@ def case_drawing(subject: Design | Case, case: str | None = None,
         resolved = subject.resolve(case)
     except LoadCaseError as exc:
         raise ExportError(str(exc)) from None
-    view = resolved.as_case("" if resolved.is_one_liquid else DRAWING_NOTE)
+    view = resolved.as_case()
     solution = view.solve(level)
     loads = None
     if subject.structure is not None:

@@ -6,8 +6,9 @@ scale for x and z, z up), sets the scale of the pressure ordinates (the
 largest is a fifth of the section's size), and keeps the labels of the
 area (:class:`wetline.app.render.label_painter.LabelPainter`) off the
 outline. :meth:`DiagramView.draw` paints the layers in order: the mirrored
-half, the liquid, the diagrams, the outline, the free surface, the
-resultants, the pressure values and the scales.
+half, the liquid, its layers and trapped air, the diagrams, the outline,
+the free surface, the resultants, the labels of the interfaces, pockets and
+gas, the pressure values and the scales.
 """
 
 from __future__ import annotations
@@ -17,7 +18,12 @@ from PySide6.QtCore import QPointF, QRectF
 from PySide6.QtGui import QColor, QFontMetricsF
 
 from wetline.app.render import load_layers, section_layers, sketch_layers
-from wetline.app.render.geometry import axis_edges, dimension_levels, outer_wetted_edges
+from wetline.app.render.geometry import (
+    air_marks,
+    axis_edges,
+    dimension_levels,
+    outer_wetted_edges,
+)
 from wetline.app.render.label_painter import LabelPainter
 from wetline.app.render.style import INK, LEFT, MUTED, TOP, WRAP
 from wetline.app.render.text_blocks import text_height
@@ -96,6 +102,8 @@ class DiagramView:
         segments = np.hstack([px, np.roll(px, -1, axis=0)])
         self.outline_px = segments[~axis_edges(s)]
         self.labels.avoid_lines(self.outline_px)
+        self.air_marks = air_marks(sol) if getattr(sol, "pockets", ()) else []
+        """The pockets of trapped air drawn (:func:`wetline.app.render.geometry.air_marks`)."""
 
     def _fit(self, size):
         """One scale for x and z that fits everything drawn into the plot
@@ -182,6 +190,8 @@ class DiagramView:
         if self.scene.axisymmetric:
             section_layers.draw_mirror(p, self)
         section_layers.draw_liquid(p, self)
+        section_layers.draw_layers(p, self)
+        section_layers.draw_air(p, self)
         sketch_layers.draw_outer_diagram(p, self)
         load_layers.draw_diagrams(p, self)
         section_layers.draw_outline(p, self)
@@ -190,6 +200,7 @@ class DiagramView:
         load_layers.draw_resultant_arrows(p, self)
         sketch_layers.draw_numbers(p, self)
         load_layers.draw_resultant_labels(p, self)
+        section_layers.draw_layer_labels(p, self)
         load_layers.draw_pressure_values(p, self)
         section_layers.draw_scales(p, self, QRectF(inner.left(),
                                                    inner.bottom() - self.scale_height,

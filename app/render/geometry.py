@@ -25,7 +25,8 @@ __all__ = ["CORNER_COS", "is_corner", "WettedEdges", "wetted_edges", "auto_scale
            "LoadMark", "load_marks", "edges_words", "Level", "dimension_levels",
            "numbered", "groundwater_solution", "outer_wetted", "outer_wetted_edges",
            "surface_spans", "liquid_rings", "PressureSite", "pressure_sites",
-           "envelope_wetted_edges", "soil_blocks"]
+           "envelope_wetted_edges", "soil_blocks", "LayerInterface", "layer_interfaces",
+           "layer_bands", "AirMark", "air_marks", "GasMark", "gas_mark"]
 
 
 CORNER_COS = math.cos(math.radians(10.0))
@@ -948,3 +949,40 @@ def air_marks(solution):
                            float(pocket.air_volume), float(pocket.sealed_at),
                            (float(inside.x), float(inside.y))))
     return out
+
+
+@dataclass(frozen=True)
+class GasMark:
+    """The gas over the free surface of a closed section as labelled:
+    ``at`` a point (x, z) [m] inside the main gas space (above the free
+    surface, outside any trapped air) and ``pressure`` its gauge pressure
+    [Pa], which also loads the dry walls and roof of that space."""
+
+    at: tuple
+    pressure: float
+
+
+def gas_mark(solution, polygon=None):
+    """Where to label the gas over the free surface of ``solution``
+    (:class:`GasMark`), or None: no gas pressure, an open section, or no gas
+    space left (full, or a standpipe head)."""
+    section = solution.section
+    p = float(getattr(solution, "gas_pressure", 0.0) or 0.0)
+    h = float(solution.level)
+    if p == 0.0 or section.is_open or not h < section.z_max:
+        return None
+    if polygon is None:
+        polygon = shapely.Polygon(section.outline)
+    pts = section.outline
+    x0, x1 = float(pts[:, 0].min()), float(pts[:, 0].max())
+    pad = 1.0 + (x1 - x0) + (section.z_max - section.z_min)
+    space = shapely.clip_by_rect(polygon, x0 - pad, max(h, section.z_min), x1 + pad,
+                                 section.z_max + pad)
+    for pocket in solution.pockets:
+        space = shapely.difference(space, pocket.air_region(section))
+    parts = [g for g in shapely.get_parts(space) if g.geom_type == "Polygon" and g.area > 0]
+    if not parts:
+        return None
+    best = max(parts, key=lambda g: g.area)
+    inside = best.representative_point()
+    return GasMark((float(inside.x), float(inside.y)), p)

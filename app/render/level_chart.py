@@ -77,17 +77,36 @@ def chart_series(case, *, level=None, units="si", steps=101):
     s = case.section
     scope = force_scope(s, du, case.length_unit)
     sol = case.solve(level)
-    top = max(s.top_level, sol.level)
-    levels = np.linspace(s.z_min, top, max(int(steps), 2))
-    t = level_table(s, case.liquid.density, case.gravity, levels=levels)
     colours = part_colours(s.part_names)
-    series = [(key, label, colour, style, scope.to_display(getattr(t, key)))
-              for key, label, colour, style in LEVEL_SERIES]
-    for name, down in t.part_down.items():
-        if name == FLOOR:
-            continue  # the floor's load is the floor force
-        series.append((f"down:{name}", f"{name} (down)", colours[name],
-                       Qt.PenStyle.DotLine, scope.to_display(down)))
+    resolved = getattr(case, "resolved", None)
+    if resolved is not None and (not resolved.is_one_liquid or s.pocket_tree.may_trap):
+        # A load case's own law (layers, gas) and, where the section can trap
+        # air, the same with the air trapped: both assumptions, as the window.
+        tables = resolved.level_tables(max(int(steps), 2))
+        levels = tables[0].levels
+    else:
+        top = max(s.top_level, sol.level)
+        levels = np.linspace(s.z_min, top, max(int(steps), 2))
+        tables = (level_table(s, case.liquid.density, case.gravity, levels=levels),)
+    series = []
+    for k, t in enumerate(tables):
+        trapped = k > 0
+        rows = [(key, label, colour, style, getattr(t, key))
+                for key, label, colour, style in LEVEL_SERIES]
+        rows += [(f"down:{name}", f"{name} (down)", colours[name], Qt.PenStyle.DotLine, down)
+                 for name, down in t.part_down.items() if name != FLOOR]
+        for key, label, colour, style, values in rows:
+            shown = scope.to_display(np.interp(levels, t.levels, values) if trapped
+                                     else values)
+            if trapped:
+                base = next((v for kk, *_, v in series if kk == key), None)
+                scale = float(np.max(np.abs(shown), initial=0.0))
+                if base is not None and np.allclose(shown, base, rtol=0.0,
+                                                    atol=1e-9 * scale):
+                    continue  # the same with the air trapped: drawn once
+                key, label, style = (f"{key}:trapped", f"{label}, air trapped",
+                                     Qt.PenStyle.DashDotLine)
+            series.append((key, label, colour, style, shown))
     return du.to_display(levels, "length"), series, float(du.to_display(sol.level, "length"))
 
 

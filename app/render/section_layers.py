@@ -1,7 +1,8 @@
 """Layers of the exported diagram that show the section and its liquid: the
 outline by part, the mirrored half and axis of an axisymmetric section, the
-liquid, the free surface (and a standpipe head above a roof), the spill
-level, and the length and pressure scales.
+liquid, its layers and their interfaces, trapped air, the free surface (and
+a standpipe head above a roof), the spill level, the gas over the surface,
+and the length and pressure scales.
 
 Each function paints with a QPainter into a
 :class:`wetline.app.render.diagram_view.DiagramView`; the geometry (the
@@ -12,17 +13,29 @@ as on the window's canvas.
 from __future__ import annotations
 
 from PySide6.QtCore import QLineF, QPointF, QRectF, Qt
-from PySide6.QtGui import QColor, QPainterPath, QPen, QPolygonF
+from PySide6.QtGui import QColor, QFontMetricsF, QPainterPath, QPen, QPolygonF
 
-from wetline.app.render.geometry import axis_edges, liquid_rings, surface_spans
+from wetline.app.render.geometry import (
+    air_marks,
+    axis_edges,
+    gas_mark,
+    layer_bands,
+    layer_interfaces,
+    liquid_rings,
+    surface_spans,
+)
 from wetline.app.render.label_painter import Label
 from wetline.app.render.marks import draw_arrow, draw_surface_mark
 from wetline.app.render.style import (
+    AIR_FILL,
+    AIR_LINE,
     DIAGRAM_FILL,
     DIAGRAM_LINE,
     DIAGRAM_TEXT,
     HCENTER,
     INK,
+    INTERFACE_LINE,
+    LAYER_TINTS,
     LEFT,
     LIQUID,
     LIQUID_GHOST,
@@ -37,7 +50,7 @@ from wetline.core.numbers import format_number, nice_step
 from wetline.core.section import OPEN
 
 __all__ = ["draw_mirror", "draw_liquid", "draw_outline", "draw_surface", "draw_spill",
-           "draw_scales"]
+           "draw_scales", "draw_layers", "draw_air", "draw_layer_labels", "layer_texts"]
 
 
 def _liquid_path(view, mirror=False):
@@ -258,3 +271,152 @@ def draw_scales(p, view, band):
         p.drawText(QRectF(x2, y + 0.2 * f, bar + 12 * f, 1.2 * f), LEFT | TOP,
                    "pressure scale")
     p.restore()
+
+
+def _rings_path(view, rings, mirror=False):
+    path = QPainterPath()
+    for sign in ((1.0, -1.0) if mirror else (1.0,)):
+        for ring in rings:
+            path.addPolygon(QPolygonF([view.to_px(sign * x, z) for x, z in ring.tolist()]))
+            path.closeSubpath()
+    return path
+
+
+def _spans_both(view, spans):
+    """``spans`` [m] and, on an axisymmetric section, their mirror images."""
+    spans = list(spans)
+    if view.scene.axisymmetric:
+        spans += [(-b, -a) for a, b in spans]
+    return spans
+
+
+def draw_layers(p, view):
+    """The liquid layers above the bottom one, tinted over the liquid
+    (:func:`wetline.app.render.geometry.layer_bands`), and each interface
+    dashed across the cavity (:func:`wetline.app.render.geometry.layer_interfaces`);
+    their labels come with :func:`draw_layer_labels`."""
+    sc = view.scene
+    sol = sc.solution
+    if len(getattr(sol, "layers", ()) or ()) < 2:
+        return
+    p.save()
+    p.setPen(Qt.PenStyle.NoPen)
+    for k, rings in enumerate(layer_bands(sol)):
+        p.setBrush(QColor(*LAYER_TINTS[k % len(LAYER_TINTS)]))
+        p.drawPath(_rings_path(view, rings, mirror=sc.axisymmetric))
+    pen = QPen(QColor(INTERFACE_LINE), 1.3 * view.lw)
+    pen.setStyle(Qt.PenStyle.DashLine)
+    p.setPen(pen)
+    for face in layer_interfaces(sol):
+        for a, b in _spans_both(view, face.spans):
+            pa, pb = view.to_px(a, face.level), view.to_px(b, face.level)
+            p.drawLine(QLineF(pa, pb))
+            view.labels.avoid_lines([(pa.x(), pa.y(), pb.x(), pb.y())])
+    p.restore()
+
+
+def draw_air(p, view):
+    """Each pocket of trapped air (:func:`wetline.app.render.geometry.air_marks`):
+    its air in a light fill with its outline, and its compressed
+    interface in the free surface's colour; labelled by
+    :func:`draw_layer_labels`."""
+    sc = view.scene
+    sol = sc.solution
+    if not getattr(sol, "pockets", ()):
+        return
+    p.save()
+    for m in view.air_marks:
+        p.setPen(QPen(QColor(AIR_LINE), 0.9 * view.lw))
+        p.setBrush(QColor(*AIR_FILL))
+        p.drawPath(_rings_path(view, m.rings, mirror=sc.axisymmetric))
+        p.setPen(QPen(QColor(SURFACE), 1.5 * view.lw))
+        for a, b in _spans_both(view, m.spans):
+            pa, pb = view.to_px(a, m.interface), view.to_px(b, m.interface)
+            p.drawLine(QLineF(pa, pb))
+            view.labels.avoid_lines([(pa.x(), pa.y(), pb.x(), pb.y())])
+    p.restore()
+
+
+def layer_texts(scene):
+    """The texts :func:`draw_layer_labels` writes, in order: each interface
+    (``"fats, oils and grease on raw sewage 1.85 m"``), each pocket
+    (``"trapped air 23.58 kPa"``) and the gas (``"gas 20 kPa"``)."""
+    sol = scene.solution
+    texts = [f"{face.text} {scene.length(face.level)}" for face in layer_interfaces(sol)]
+    texts += [f"trapped air {scene.pressure(m.air_pressure)}" for m in air_marks(sol)]
+    gas = gas_mark(sol)
+    if gas is not None:
+        texts.append(f"gas {scene.pressure(gas.pressure)}")
+    return texts
+
+
+def _along(view, label, left, right, f):
+    """Candidates for a label along a level line from ``left`` to ``right``
+    [px]: above it, then below it, at its left end, its middle, its right
+    end."""
+    w = QFontMetricsF(label.font).horizontalAdvance(label.text) + 2 * view.labels.pad
+    y = left.y()
+    xs = [left.x() + 0.3 * f + 0.5 * w, 0.5 * (left.x() + right.x()),
+          right.x() - 0.3 * f - 0.5 * w]
+    return [(QPointF(x, y), (0, d), 0.15 * f) for d in (-1, 1) for x in xs]
+
+
+def draw_layer_labels(p, view):
+    """The labels of the interfaces (the liquids and the level, along the
+    interface), the pockets (their air pressure, in the air or beside it)
+    and the gas over the surface (its pressure, in the gas space). Placed
+    after the resultants' labels, where there is room."""
+    sc = view.scene
+    sol = sc.solution
+    f = view.f
+    font = view.fonts.label
+    for face in layer_interfaces(sol):
+        spans = _spans_both(view, face.spans)
+        if not spans:
+            continue
+        a, b = max(spans, key=lambda ab: ab[1] - ab[0])
+        label = Label(f"{face.text} {sc.length(face.level)}", font, INTERFACE_LINE)
+        left, right = view.to_px(a, face.level), view.to_px(b, face.level)
+        if view.labels.place(p, label, _along(view, label, left, right, f)) is not None:
+            continue
+        # No room along it (a small drawing): above the section, with a
+        # leader down to the interface.
+        above = view.to_px(a, max(sc.section.z_max, sol.level)).y() - 1.2 * f
+        w = QFontMetricsF(font).horizontalAdvance(label.text) + 2 * view.labels.pad
+        candidates = [(QPointF(x + 0.5 * w, above - k * 1.6 * f), (0, -1), 0.0)
+                      for k in range(3) for x in (left.x() - 0.5 * w, left.x(),
+                                                  right.x() - w)]
+        rect = view.labels.place(p, label, candidates)
+        if rect is not None:
+            x = min(max(left.x() + 0.5 * f, rect.left() + 0.5 * f), rect.right() - 0.5 * f)
+            x = min(max(x, left.x() + 0.3 * f), right.x() - 0.3 * f)
+            p.save()
+            p.setPen(QPen(QColor(INTERFACE_LINE), 0.7 * view.lw))
+            p.drawLine(QLineF(x, rect.bottom(), x, left.y()))
+            p.restore()
+    for m in view.air_marks:
+        label = Label(f"trapped air {sc.pressure(m.air_pressure)}", font, AIR_LINE)
+        at = view.to_px(*m.at)
+        candidates = [(at, (0, 0), 0.0)]
+        if m.spans:
+            a, b = max(m.spans, key=lambda ab: ab[1] - ab[0])
+            candidates += _along(view, label, view.to_px(a, m.interface),
+                                 view.to_px(b, m.interface), f)[3:]  # below the interface
+        # Over its ceiling: just above it, then above the ceiling's diagram.
+        top = max(float(r[:, 1].max()) for r in m.rings)
+        over = top + view.pressure_scale * max(m.air_pressure, 0.0)
+        for z, gap in ((top, 0.4 * f), (over, 0.3 * f)):
+            candidates += [(view.to_px(m.at[0], z) + QPointF(dx * f, 0.0), (0, -1), gap)
+                           for dx in (0.0, -3.0, 3.0)]
+        view.labels.place(p, label, candidates)
+    gas = gas_mark(sol)
+    if gas is not None:
+        label = Label(f"gas {sc.pressure(gas.pressure)}", font, DIAGRAM_TEXT)
+        at = view.to_px(*gas.at)
+        candidates = [(at, (0, 0), 0.0), (at, (0, -1), 0.3 * f), (at, (0, 1), 0.3 * f)]
+        spans = surface_spans(sc.section, sol.level)
+        if spans:  # just over the free surface, along it
+            a, b = max(spans, key=lambda ab: ab[1] - ab[0])
+            candidates += _along(view, label, view.to_px(a, sol.level),
+                                 view.to_px(b, sol.level), f)[:3]
+        view.labels.place(p, label, candidates)

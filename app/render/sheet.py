@@ -50,7 +50,6 @@ from PySide6.QtGui import (
     QTextDocument,
 )
 
-from wetline.app.render.case_drawing import DRAWING_NOTE
 from wetline.app.render.level_chart import paint_level_chart
 from wetline.app.render.output import (
     ExportError,
@@ -362,12 +361,66 @@ class _Sheet:
             if not fill and r.case.fill_volume is not None:
                 fill = f"volume {du.text(r.case.fill_volume, 'volume')}"
             gw = r.groundwater
-            rows.append((sc.name, f"{liq.name}, {format_number(liq.density, 5)} kg/m3",
+            what = (f"{liq.name}, {format_number(liq.density, 5)} kg/m3" if not r.is_layered
+                    else "layers: " + ", ".join(f"{x.name} {format_number(x.density, 5)}"
+                                                for x in r.liquids) + " kg/m3, bottom up")
+            rows.append((sc.name, what,
                          level if not fill else f"{format_entered(level)} ({fill})",
                          "none" if gw is None else Entered(float(du.to_display(gw.level,
                                                                                   "length"))),
                          sc.load_factor))
         header = ("case", "liquid", f"level [{L}]", f"groundwater [{L}]", "load factor")
+        return (self._cases_table_html(header, rows) + self._law_inputs())
+
+    def _uses_full_law(self):
+        """True if a case has layers, a gas or trapped air, or the section can
+        trap air (the sheet then states the law and its inputs)."""
+        return any(sc.resolved.is_layered or sc.resolved.gas_pressure != 0.0
+                   or sc.resolved.pockets == "trapped" for sc in self.solved) \
+            or self.section.pocket_tree.may_trap
+
+    def _law_inputs(self):
+        """Per case: its layers bottom up (liquid, density, source, top level
+        or own volume), the gas pressure, the pockets assumption and the
+        atmospheric pressure."""
+        if not self._uses_full_law():
+            return ""
+        du = self.du
+        layer_rows, air_rows = [], []
+        for sc in self.solved:
+            r = sc.resolved
+            given = self.design.load_cases[r.index].layers or ()
+            tops = [] if r.law is None else list(r.law.interfaces)
+            if r.is_layered:
+                for k, liq in enumerate(r.liquids):
+                    if k == len(r.liquids) - 1:
+                        top = "the free surface (the case's fill)"
+                    elif k < len(given) and given[k].volume is not None:
+                        top = (f"own volume {du.text(given[k].volume, 'volume')}; its top "
+                               f"solved at {self.length(tops[k])}")
+                    else:
+                        top = f"top at {self.length(tops[k])}"
+                    layer_rows.append((sc.name if k == 0 else "", k + 1, liq.name,
+                                       format_number(liq.density, 5), liq.source, top))
+            pockets = ("trapped: compressed by the rising liquid (Boyle's law)"
+                       if r.pockets == "trapped" else "vented (every pool at the level)")
+            air_rows.append((sc.name, du.text(r.gas_pressure, "pressure"), pockets,
+                             du.text(r.atmospheric_pressure, "pressure")))
+        out = ["<h3>Layers, gas and air of the cases</h3>"]
+        if layer_rows:
+            out.append('<p class="note">Immiscible liquids of each case, bottom up (layer 1 '
+                       "at the bottom); densities do not increase upward.</p>")
+            out.append(_table_html(("case", "layer", "liquid", "density [kg/m3]",
+                                    "source of the density", "top"), layer_rows,
+                                   align=["left", "right", "left", "right", "left", "left"],
+                                   widths=[16, 7, 17, 10, 30, 20]))
+        out.append(_table_html(("case", "gas pressure (gauge)", "air under ceilings",
+                                "atmospheric pressure (absolute)"), air_rows,
+                               align=["left", "right", "left", "right"],
+                               widths=[28, 18, 34, 20]))
+        return "".join(out)
+
+    def _cases_table_html(self, header, rows):
         return ("<h2>Load cases</h2>"
                 '<p class="note">Each case starts from the file-level liquid and fill above '
                 "and changes what it names. Design values are the characteristic liquid and "
@@ -531,6 +584,29 @@ class _Sheet:
                               "liquid pressure on the floor above it, the largest along each "
                               "floor edge"),
             ]
+        if self.multi and self._uses_full_law():
+            rows += [
+                ("Layers", "<b>p(z) = p<sub>gas</sub> + g ∫<sub>z</sub><sup>h</sup> ρ(s) ds</b> "
+                           "with the densities of the immiscible layers (densest at the "
+                           "bottom): linear within each layer, with a kink at each interface; "
+                           "each edge is split at the interfaces, so every integral stays "
+                           "exact; each layer's volume V<sub>k</sub> and weight ρ<sub>k</sub> "
+                           "g V<sub>k</sub>, the liquid weight their sum"),
+                ("Gas over the surface", "a uniform gauge pressure p<sub>gas</sub> (closed "
+                                         "sections; down to a full vacuum) adds to every "
+                                         "wetted point and loads the dry walls and roof of "
+                                         "the gas space; its net force on the closed cavity "
+                                         "is zero, so floor force + support reaction = W "
+                                         "still holds"),
+                ("Trapped air", "<b>(p<sub>atm</sub> + p<sub>gas</sub>) V<sub>0</sub> = "
+                                "(p<sub>atm</sub> + p(z<sub>i</sub>)) V(z<sub>i</sub>)</b> "
+                                "(Boyle's law, isothermal): V<sub>0</sub> the air above the lip "
+                                "when the rising liquid sealed it, z<sub>i</sub> the compressed "
+                                "interface, V(z<sub>i</sub>) the pocket's volume above it, "
+                                "solved exactly; the pocket's ceiling and dry walls carry "
+                                "p(z<sub>i</sub>); air is weightless. With trapped air the "
+                                "worst uplift level is searched under both assumptions"),
+            ]
         rows += [
             ("Uplift", "<b>factor = (G + R) / U</b>, U the upward load of the liquid on the "
                        "part, G its self-weight, R the holding-down resistance; at the current "
@@ -539,7 +615,9 @@ class _Sheet:
                        "it must reach the required factor"),
         ]
         out = ["<h2>2 Method</h2>",
-               "<p>Hydrostatics of one liquid at rest, gauge pressure (atmosphere = 0). "
+               ("<p>Hydrostatics of liquids at rest (one, or immiscible layers), gauge "
+                "pressure (atmosphere = 0). " if self.multi and self._uses_full_law() else
+                "<p>Hydrostatics of one liquid at rest, gauge pressure (atmosphere = 0). ") +
                "Each edge is straight, so the pressure varies linearly along its wetted part "
                "and every integral is evaluated exactly in closed form. Symbols: ρ density, "
                "g gravity, h level of the free surface, z height (up), L edge length, f "
@@ -636,6 +714,7 @@ class _Sheet:
         out.append(_table_html(("quantity", "characteristic", "design", "unit"), rows,
                                align=["left", "right", "right", "left"],
                                widths=[34, 24, 24, 18]))
+        out.append(self._layers_and_pockets_html(sc))
         parts = parts_table(sol, du, lu)
         if parts.rows:
             F = scope.label
@@ -679,6 +758,52 @@ class _Sheet:
                     [("groundwater - liquid", du.to_display(top.net, "pressure"),
                       du.to_display(gamma * top.net, "pressure"), top.index, f"{x}, {z}")],
                     align=["left", "right", "right", "right", "right"]))
+        return "".join(out)
+
+    def _layers_and_pockets_html(self, sc):
+        """A case's volume and weight per layer (top first, as in the tank)
+        and each pocket of trapped air: its lip, the air it sealed there,
+        the compressed interface, the air now and its pressure."""
+        du, sol, gamma = self.du, sc.solution, sc.load_factor
+        scope = self.scope
+        L, V, P = (du.label(q) for q in ("length", "volume", "pressure"))
+        F = scope.label
+        out = []
+        layers = list(sol.layers)
+        if len(layers) > 1:
+            rows = [(k + 1, ly.name, float(du.to_display(ly.bottom, "length")),
+                     float(du.to_display(ly.top, "length")),
+                     du.to_display(ly.volume, "volume"), scope.to_display(ly.weight),
+                     scope.to_display(gamma * ly.weight))
+                    for k, ly in reversed(list(enumerate(layers)))]
+            out.append(_table_html(("layer", "liquid", f"bottom [{L}]", f"top [{L}]",
+                                    f"volume [{V}]", f"weight [{F}]", f"design weight [{F}]"),
+                                   rows, align=["right", "left"] + ["right"] * 5))
+        if sol.pocket_mode == "trapped":
+            if not sol.pockets:
+                out.append('<p class="note">Air trapped under ceilings: no pocket is sealed '
+                           "at this level.</p>")
+            else:
+                atm, gas = sol.atmospheric_pressure, sol.gas_pressure
+                rows = []
+                for k, pk in enumerate(sol.pockets, start=1):
+                    # Boyle: (p_atm + p_gas) V0 = (p_atm + p(z_i)) V(z_i).
+                    v0 = (None if pk.split_at is not None or not atm + gas > 0
+                          else (atm + pk.air_pressure) * pk.air_volume / (atm + gas))
+                    rows.append((k, float(du.to_display(pk.sealed_at, "length")),
+                                 None if v0 is None else du.to_display(v0, "volume"),
+                                 float(du.to_display(pk.interface, "length")),
+                                 du.to_display(pk.air_volume, "volume"),
+                                 du.to_display(pk.air_pressure, "pressure")))
+                out.append(_table_html(("pocket", f"lip, sealed at [{L}]",
+                                        f"air sealed [{V}]", f"interface [{L}]",
+                                        f"air now [{V}]", f"air pressure [{P}]"), rows,
+                                       align=["right"] * 6))
+                out.append('<p class="note">Trapped air: the air sealed at the lip, compressed '
+                           "isothermally to the interface where its pressure equals the "
+                           "liquid's; its pressure acts on the pocket's ceiling and walls. Air "
+                           "sealed is not given for a pocket whose air divided at a saddle."
+                           "</p>")
         return "".join(out)
 
     def _envelope_html(self, k):
@@ -735,9 +860,7 @@ class _Sheet:
         sol = self.sol
         out = ["<h2>4 Warnings, assumptions and cautions</h2>", "<h3>Warnings</h3>"]
         if self.multi:
-            items = [f"case {sc.name}: {w}" for sc in self.solved
-                     for w in sc.warnings + (() if sc.resolved.is_one_liquid
-                                             else (DRAWING_NOTE,))]
+            items = [f"case {sc.name}: {w}" for sc in self.solved for w in sc.warnings]
             out.append("<ul>" + "".join(f"<li>{_e(w)}</li>" for w in items) + "</ul>" if items
                        else "<p>None in any case.</p>")
         elif sol.warnings:
@@ -994,12 +1117,16 @@ def _chart_page(p, body, sheet, units, items):
     what = f" (case {first.name})" if sheet.design.cases else ""
     y = _caption(p, body, body.top(), f"Figure 2. Loads against level{what}",
                  "Downward load on the floor and on the supports, the liquid weight and each "
-                 "part's load as the free surface rises from empty; the current level is "
-                 "marked.")
+                 "part's load as the free surface rises from empty (from the top interface "
+                 "with layers); the current level is marked. Where the rising liquid can "
+                 "trap air under a ceiling, the loads with the air trapped are drawn "
+                 "dash-dot beside the vented ones.")
     bottom = body.top() + (0.42 if items else 0.6) * body.height()
     level = sheet.sol.level if sheet.level_given else None
+    # The case's own law, both pocket assumptions where air can be trapped.
+    chart_case = sheet.case if sheet.level_given else first.resolved.as_case()
     paint_level_chart(p, QRectF(body.left(), y + 1 * _MM, body.width(), bottom - y - _MM),
-                      sheet.case, level=level, units=units, font_px=8.2 / 72 * DPI)
+                      chart_case, level=level, units=units, font_px=8.2 / 72 * DPI)
     y = bottom + 6 * _MM
     for k, sc in items:
         y = _caption(p, body, y, _case_title(sheet, k, sc), _SKETCH_NOTE.format(n=figures()))

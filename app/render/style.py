@@ -19,7 +19,7 @@ __all__ = [
     "INK", "MUTED", "RULE", "LIQUID", "LIQUID_GHOST", "SURFACE", "DIAGRAM_FILL",
     "DIAGRAM_LINE", "DIAGRAM_TEXT", "LOAD", "UPLIFT", "LOAD_EDGE", "UPLIFT_EDGE",
     "OPEN_EDGE", "FLOOR_COLOUR", "DIMENSION", "STRUCTURE_FILL", "GROUND", "GROUNDWATER",
-    "GROUNDWATER_FILL",
+    "GROUNDWATER_FILL", "LAYER_TINTS", "AIR_FILL", "AIR_LINE", "INTERFACE_LINE",
     "LEVEL_SERIES", "LEVEL_MARK",
     "PART_COLOURS", "part_colours", "OK_COLOUR", "NOT_OK_COLOUR",
     "FONT_FAMILY", "Fonts", "pixel_font", "point_font",
@@ -62,6 +62,14 @@ GROUNDWATER = "#1f7f9e"
 """The groundwater line, its mark and its pressure on the outer face."""
 GROUNDWATER_FILL = (86, 170, 196, 70)
 """Fill of the groundwater's pressure diagram (RGBA)."""
+LAYER_TINTS = ((236, 196, 92, 120), (196, 150, 220, 110), (150, 206, 140, 120))
+"""The liquid layers above the bottom one, in turn, over the liquid (RGBA)."""
+AIR_FILL = (250, 252, 255, 235)
+"""Air trapped under a ceiling (RGBA), over the liquid."""
+AIR_LINE = "#5f6b7a"
+"""The outline of trapped air and its label."""
+INTERFACE_LINE = "#8a5a00"
+"""Interfaces between liquid layers (dashed) and their labels."""
 OPEN_EDGE = "#8c96a1"
 """Open edges (no wall) and the axis."""
 FLOOR_COLOUR = "#6b4a2b"

@@ -13,12 +13,15 @@ from PySide6.QtGui import QBrush, QColor, QFontMetricsF, QPen, QPolygonF
 
 from wetline.app.render.marks import draw_arrow, draw_surface_mark
 from wetline.app.render.style import (
+    AIR_FILL,
     DIAGRAM_FILL,
     DIAGRAM_LINE,
     GROUNDWATER_FILL,
     HCENTER,
     INK,
+    LAYER_TINTS,
     LEFT,
+    LIQUID,
     LOAD,
     MUTED,
     RIGHT,
@@ -157,6 +160,11 @@ class Table(Block):
             rest = [r * (width - first) / total for r in rest]
         return [first] + rest
 
+    def fits(self, fonts, width):
+        """True if every cell fits ``width`` [px] without squeezing the
+        number columns (they would run into each other)."""
+        return self._columns(fonts, width)[0] > 0.25 * width
+
     def measure(self, fonts, width):
         line = QFontMetricsF(fonts.body).height() + 0.2 * fonts.base
         return line * (len(self.rows) + 1) + 0.2 * fonts.base
@@ -256,6 +264,23 @@ class Legend(Block):
                 p.fillRect(r, c)
                 p.setPen(QPen(QColor(SURFACE), lw))
                 p.drawLine(QLineF(r.left(), r.top(), r.right(), r.top()))
+            elif kind in ("layer", "air"):
+                r = QRectF(x, cy - 0.45 * fonts.base, sym, 0.9 * fonts.base)
+                p.fillRect(r, QColor(LIQUID))
+                if kind == "layer":
+                    p.fillRect(r.adjusted(0, 0, 0, -0.45 * fonts.base),
+                               QColor(*LAYER_TINTS[0]))
+                    pen = QPen(c, lw * 1.1)
+                    pen.setStyle(Qt.PenStyle.DashLine)
+                    p.setPen(pen)
+                    p.drawLine(QLineF(r.left(), r.center().y(), r.right(), r.center().y()))
+                else:
+                    top = r.adjusted(0, 0, 0, -0.45 * fonts.base)
+                    p.fillRect(top, QColor(*AIR_FILL))
+                    p.setPen(QPen(c, lw * 0.7))
+                    p.drawRect(top)
+                    p.setPen(QPen(QColor(SURFACE), lw * 1.1))
+                    p.drawLine(QLineF(r.left(), r.center().y(), r.right(), r.center().y()))
             elif kind == "diagram":
                 r = QRectF(x, cy - 0.5 * fonts.base, sym, fonts.base)
                 poly = QPolygonF([r.bottomLeft(), r.bottomRight(),

@@ -14,11 +14,13 @@ from PySide6.QtCore import QRectF
 
 from wetline.app.render.output import program_name
 from wetline.app.render.style import (
+    AIR_LINE,
     DIAGRAM_LINE,
     DIMENSION,
     GROUND,
     GROUNDWATER,
     INK,
+    INTERFACE_LINE,
     LIQUID,
     LOAD,
     LOAD_EDGE,
@@ -72,6 +74,14 @@ class TitleBlock:
         if du.name == "us":
             density += f"  ({format_number(liq.density, 5)} kg/m3)"
         gravity = f"{du.text(sc.solution.gravity, 'length', 6)}/s2"
+        layers = list(getattr(sc.solution, "layers", ()) or ())
+        if len(layers) > 1:  # top first, as in the tank
+            rows = [(f"Layer {k + 1}", f"{ly.name}, {du.text(ly.density, 'density', 5)}, "
+                     f"{sc.length(ly.bottom)} to {sc.length(ly.top)}", None)
+                    for k, ly in reversed(list(enumerate(layers)))]
+            return [Heading("Liquid layers"), Rows(rows + [("Gravity", gravity, None)]),
+                    Note("Layers bottom up from 1; densities and their sources are in the "
+                         "calculation sheet.")]
         return [Heading("Liquid"),
                 Rows([("Liquid", liq.name, None), ("Density", density, None),
                       ("Gravity", gravity, None)]),
@@ -97,6 +107,14 @@ class TitleBlock:
                          "is full under a standpipe head and the roof is pushed up.")
         if sol.level <= s.z_min:
             notes.append("The section is empty at this level: no loads.")
+        gas = float(getattr(sol, "gas_pressure", 0.0) or 0.0)
+        if gas != 0.0:
+            rows.append(("Gas pressure", f"{sc.pressure(gas)} (gauge)", None))
+        if getattr(sol, "pocket_mode", "vented") == "trapped":
+            rows.append(("Air under ceilings", "trapped", None))
+            for pocket in sol.pockets:
+                rows.append(("Trapped air", f"{sc.pressure(pocket.air_pressure)} at "
+                             f"{sc.length(pocket.interface)}", AIR_LINE))
         return [Heading("Fill"), Rows(rows)] + [Note(t) for t in notes]
 
     def _totals(self):
@@ -150,7 +168,14 @@ class TitleBlock:
             items.append(("dash", OPEN_EDGE, "open (no wall)"))
         if sc.axisymmetric:
             items.append(("dashdot", MUTED, "axis of revolution"))
-        items += [("fill", LIQUID, "liquid"),
+        items += [("fill", LIQUID, "liquid")]
+        sol = sc.solution
+        if len(getattr(sol, "layers", ()) or ()) > 1:
+            items.append(("layer", INTERFACE_LINE, "upper liquid layer (tinted) and its "
+                          "interface"))
+        if getattr(sol, "pockets", ()):
+            items.append(("air", AIR_LINE, "trapped air and its interface"))
+        items += [
                   ("surface", SURFACE, "free surface"),
                   ("diagram", DIAGRAM_LINE, "pressure on the wall, drawn outward"),
                   ("arrow_down", LOAD, "resultant on a part (its total, bold)"),
@@ -194,8 +219,22 @@ class TitleBlock:
         fh = sum(b.measure(fonts, cw) for b in footer)
         col, y = 0, inner.top()
         fits = True
-        for b in self.blocks():
+        blocks = self.blocks()
+        for k, b in enumerate(blocks):
+            if isinstance(b, Table) and not b.fits(fonts, cw):
+                fits = False
+                break
             h = b.measure(fonts, cw)
+            if isinstance(b, Heading) and k + 1 < len(blocks):
+                # A heading stays with the block it heads.
+                h_next = blocks[k + 1].measure(fonts, cw)
+                limit = inner.bottom() - (fh if col == columns - 1 else 0.0)
+                if y + h + h_next > limit and y > inner.top():
+                    col += 1
+                    y = inner.top()
+                    if col >= columns:
+                        fits = False
+                        break
             limit = inner.bottom() - (fh if col == columns - 1 else 0.0)
             if y + h > limit:
                 if isinstance(b, Heading) or y > inner.top():
@@ -244,21 +283,25 @@ class TitleBlock:
             ph0 = max(0.36 * frame.height(), min(18 * base, 0.5 * frame.height()))
             panels = [QRectF(frame.left(), frame.bottom() - ph, frame.width(), ph)
                       for ph in sorted({max(ph0, s * frame.height()) for s in _BELOW_SHARES})]
-        fonts = Fonts(base)
-        panel = next((r for r in panels if self.flow(fonts, r, columns)), panels[-1])
+        tries = [(r, columns) for r in panels]
+        if beside:  # a long block beside the drawing: two columns rather than cut
+            tries += [(r, 2) for r in panels if r.width() >= 0.4 * frame.width()]
         floor = max(7.0, self.scene.min_font)
         # Shrink in steps down to the floor itself (a step past it is not
-        # skipped: the floor may be only a few per cent below the base).
-        while base > floor and not self.flow(fonts, panel, columns):
-            base = max(base * 0.93, floor)
+        # skipped: the floor may be only a few per cent below the base); at
+        # the floor, still too long (a structure's legend, several notes):
+        # one more column of blocks, in the narrowest panel that holds them.
+        while True:
             fonts = Fonts(base)
-        if not self.flow(fonts, panel, columns):
-            # Still too long (a structure's legend, several notes): one
-            # more column of blocks, in the narrowest panel that holds them.
-            wider = next((r for r in panels if self.flow(fonts, r, columns + 1)), None)
-            if wider is not None:
-                panel, columns = wider, columns + 1
-        return panel, columns, fonts, beside
+            found = next((t for t in tries if self.flow(fonts, *t)), None)
+            if found is not None:
+                return found[0], found[1], fonts, beside
+            if base <= floor:
+                wider = next((r for r in panels if self.flow(fonts, r, columns + 1)), None)
+                if wider is not None:
+                    return wider, columns + 1, fonts, beside
+                return panels[-1], columns, fonts, beside
+            base = max(base * 0.93, floor)
 
     def draw(self, p, panel, columns, fonts):
         """Paint the title block into ``panel``."""

@@ -37,6 +37,7 @@ from wetline.app.window.canvas_editing import RESERVED_PART_CHOICES, OutlineEdit
 from wetline.app.window.canvas_labels import CanvasLabels
 from wetline.app.window.draw_input import STARTS
 from wetline.app.window.grid import LightGrid
+from wetline.app.window.interface_grips import InterfaceGrips
 from wetline.app.window.load_layer import LoadLayer
 from wetline.app.window.outline_layer import OutlineLayer
 from wetline.app.window.parts_proposal import PartsProposal
@@ -97,6 +98,9 @@ class SectionCanvas(pg.PlotWidget):
         self.structure_handles.setPen(pg.mkPen("#4a525c", width=1.2))
         self.structure_handles.setZValue(39)
         vb.addItem(self.structure_handles)
+        self.interface_grips = InterfaceGrips()
+        """The layer interfaces, draggable (the editor moves them)."""
+        vb.addItem(self.interface_grips)
         self._redraw_timer = QTimer(self)
         self._redraw_timer.setSingleShot(True)
         self._redraw_timer.setInterval(0)
@@ -131,6 +135,9 @@ class SectionCanvas(pg.PlotWidget):
         self.handles.dragFinished.connect(self.editor.on_drag_finished)
         self.structure_handles.dragMoved.connect(self.editor.on_structure_drag_moved)
         self.structure_handles.dragFinished.connect(self.editor.on_structure_drag_finished)
+        self.interface_grips.dragStarted.connect(self.editor.on_interface_drag_started)
+        self.interface_grips.dragMoved.connect(self.editor.on_interface_drag_moved)
+        self.interface_grips.dragFinished.connect(self.editor.on_interface_drag_finished)
         self.scene().sigMouseMoved.connect(self._on_mouseMoved)
         self.scene().sigMouseClicked.connect(self._on_mouseClicked)
 
@@ -334,6 +341,9 @@ class SectionCanvas(pg.PlotWidget):
                 self.load_layer.draw_envelope(cases, scale, doc.units, self.labels)
             else:
                 self.load_layer.draw(solution, scale, scope, doc.units, self.labels)
+            layer = self.load_layer
+            self.interface_grips.set_interfaces(layer.interface_levels, layer.interface_spans,
+                                                mirror=solution.section.is_axisymmetric)
             self.structure_layer.draw(design, loads, scale, scope, doc.units, self.labels,
                                       self._line_span(design))
             self.labels.lay_out()
@@ -413,14 +423,18 @@ class SectionCanvas(pg.PlotWidget):
                     f"(snap {self.snap_grid.text() if self.snap_enabled else 'off'})")
         if sol is None:
             return text
+        hint = self.editor.interface_hint(x, z)
+        if hint:
+            text += f"   {hint}"
         depth = sol.level - z
         poly = self.load_layer.polygon(sol.section)
         # The mirrored half of an axisymmetric section is the same vessel.
         r = abs(x) if sol.section.is_axisymmetric else x
         if not shapely.contains_xy(poly, r, z):
             return text + "   outside the section"
-        if depth > 0:
-            p = sol.density * sol.gravity * depth
+        if depth > 0:  # the case's law: layers and gas too
+            p = sol.law.pressure_at(z) if sol.law is not None else \
+                sol.density * sol.gravity * depth
             text += f"   depth {units.fmt_length(depth)}   pressure {units.fmt_pressure(p)}"
         else:
             text += f"   {units.fmt_length(-depth)} above the free surface"

@@ -7,11 +7,15 @@ results on release, one undo step),
 click to select a vertex or an edge, double-click an edge to insert a vertex
 there, Delete removes the selected vertex, arrow keys nudge it by the snap
 spacing (or a hundredth of the section), right-click an edge to set its
-part. Mode "draw": click vertices of a new outline (on the snap grid) or
-type them (:mod:`wetline.app.window.draw_input`); double-click, Enter or a
-click on the first vertex closes it, Backspace takes the last one back, Esc
-cancels. A closed outline gets proposed parts (floor, open top, walls) with
-one click to keep or change them (:mod:`wetline.app.window.parts_proposal`).
+part; drag a layer interface (its up-down cursor) to move the top of the
+layer below it (the view follows live; one undo step per drag; a level
+core refuses, past the neighbouring interface or the free surface, keeps
+the last one it took and says why in the status bar). Mode "draw": click
+vertices of a new outline (on the snap grid) or type them
+(:mod:`wetline.app.window.draw_input`); double-click, Enter or a click on
+the first vertex closes it, Backspace takes the last one back, Esc cancels.
+A closed outline gets proposed parts (floor, open top, walls) with one
+click to keep or change them (:mod:`wetline.app.window.parts_proposal`).
 Every edit is made by :mod:`wetline.app.model.editing`.
 """
 
@@ -23,6 +27,7 @@ from PySide6.QtWidgets import QInputDialog, QMenu
 
 from wetline.app.model import editing
 from wetline.app.window.vertex_handles import MAX_HANDLES
+from wetline.core.load_cases import LoadCaseError
 from wetline.core.section import AXIS, FLOOR, OPEN
 
 __all__ = ["OutlineEditor", "RESERVED_PART_CHOICES"]
@@ -40,6 +45,9 @@ class OutlineEditor:
         self._doc = document
         self.drawn = []
         """Vertices [m] of the outline being drawn (draw mode)."""
+        self._interface_drags = 0
+        self._interface_live = False
+        self._interface_refused = False
 
     # ---------------------------------------------------------- picking
     def _pixel(self):
@@ -79,6 +87,56 @@ class OutlineEditor:
         d2 = (outline[:, 0] - x) ** 2 + (outline[:, 1] - z) ** 2
         i = int(np.argmin(d2))
         return i if d2[i] <= (tolerance_px * self._pixel()) ** 2 else None
+
+    def pick_interface(self, x, z):
+        """Index of the layer interface gripped at (x, z) [m] (0 = the top
+        of the bottom layer), or None; interfaces are dragged in the case
+        view of edit mode only."""
+        if self._canvas.mode != "edit" or self._doc.view_mode == "envelope":
+            return None
+        return self._canvas.interface_grips.pick(x, z)
+
+    def interface_hint(self, x, z):
+        """What a drag at (x, z) [m] would move, for the status bar, or ""."""
+        k = self.pick_interface(x, z)
+        if k is None:
+            return ""
+        layers = editing.case_layers(self._doc)
+        if k >= len(layers) - 1:
+            return ""
+        return f"drag: top of layer {k + 1} '{layers[k].liquid.name}'"
+
+    # -------------------------------------------------- interface drags
+    def on_interface_drag_started(self, index, x, z):
+        self._interface_drags += 1
+        if not self._interface_live:
+            self._interface_live = True
+            self._doc.begin_live_edit()  # the envelope waits for the release
+
+    def on_interface_drag_moved(self, index, x, z):
+        self._set_interface(index, z)
+
+    def on_interface_drag_finished(self, index, x, z):
+        self._set_interface(index, z)
+        if self._interface_live:
+            self._interface_live = False
+            self._doc.end_live_edit()
+
+    def _set_interface(self, index, z):
+        """Layer ``index`` up to the pointer's level (on the snap grid, not
+        below the floor); one undo step for every step of one drag. Core's
+        refusal goes to the status bar and the last accepted level stays."""
+        level = max(float(self._canvas.snap(0.0, z)[1]), float(self._doc.section.z_min))
+        try:
+            editing.set_layer_top(self._doc, index, level,
+                                  merge_key=("interface", index, self._interface_drags))
+        except (LoadCaseError, ValueError) as exc:
+            self._interface_refused = True
+            self._canvas.message.emit(f"Interface not moved: {exc}")
+            return
+        if self._interface_refused:  # the refusal no longer holds
+            self._interface_refused = False
+            self._canvas.message.emit("")
 
     # ----------------------------------------------------- vertex drags
     def on_drag_started(self, index):

@@ -24,6 +24,7 @@ from wetline.app.render.geometry import (
     carrying_edges,
     diagram_polygons,
     envelope_wetted_edges,
+    gas_mark,
     layer_bands,
     layer_interfaces,
     liquid_rings,
@@ -35,9 +36,13 @@ from wetline.app.render.geometry import (
     wetted_edges,
 )
 from wetline.app.render.style import (
+    AIR_FILL,
+    AIR_LINE,
     DIAGRAM_FILL,
     DIAGRAM_LINE,
     DIAGRAM_TEXT,
+    INTERFACE_LINE,
+    LAYER_TINTS,
     LOAD,
     LOAD_EDGE,
     MUTED,
@@ -58,12 +63,9 @@ __all__ = ["LoadLayer", "MAX_PRESSURE_LABELS", "MAX_RESULTANT_LABELS"]
 
 LIQUID_BRUSH = QColor(126, 178, 226, 95)
 MIRROR_LIQUID_BRUSH = QColor(126, 178, 226, 45)
-LAYER_BRUSHES = (QColor(236, 196, 92, 120), QColor(196, 150, 220, 110),
-                 QColor(150, 206, 140, 120))
+LAYER_BRUSHES = tuple(QColor(*rgba) for rgba in LAYER_TINTS)
 """The layers above the bottom one, in turn (over the liquid's blue)."""
-AIR_BRUSH = QColor(250, 252, 255, 235)
-AIR_LINE = "#5f6b7a"
-INTERFACE_LINE = "#8a5a00"
+AIR_BRUSH = QColor(*AIR_FILL)
 DIAGRAM_BRUSH = QColor(*DIAGRAM_FILL[:3], 80)
 MAX_PRESSURE_LABELS = 16
 """Pressure values labelled at most."""
@@ -90,8 +92,12 @@ class LoadLayer:
         self.air_lines = pairs_curve(vb, pg.mkPen(SURFACE, width=2), 6)
         self.interface_levels = []
         """Levels [m] of the layer interfaces drawn (bottom up), for dragging."""
+        self.interface_spans = []
+        """Where each interface crosses the cavity: x-ranges [m], bottom up."""
         self.air_texts = []
         """The labels asked for the pockets of trapped air, in order."""
+        self.gas_text = None
+        """The label asked for the gas over the free surface, or None."""
         self.spill = add_item(vb, pg.PlotCurveItem(
             pen=pg.mkPen(MUTED, width=1, style=Qt.DashLine)), 0)
         self.down = pairs_curve(vb, pg.mkPen(LOAD, width=3), 30)
@@ -157,7 +163,9 @@ class LoadLayer:
         self.interfaces.setData([], [])
         self.air_lines.setData([], [])
         self.interface_levels = []
+        self.interface_spans = []
         self.air_texts = []
+        self.gas_text = None
         self.down.setData([], [])
         self.up.setData([], [])
         spill = section.spill_level
@@ -252,6 +260,7 @@ class LoadLayer:
                 item.setVisible(bool(rings))
         faces = layer_interfaces(solution)
         self.interface_levels = [f.level for f in faces]
+        self.interface_spans = [list(f.spans) for f in faces]
         xs, zs = [], []
         for face in faces:
             for a, b in face.spans:
@@ -276,6 +285,10 @@ class LoadLayer:
             self.air_texts.append(text)
             asks.append((m.at[0], m.at[1], text, AIR_LINE, (0.5, 0.5)))
         self.air_lines.setData(np.array(ax, dtype=float), np.array(az, dtype=float))
+        gas = gas_mark(solution, self.polygon(section))
+        self.gas_text = None if gas is None else f"gas {units.fmt_pressure(gas.pressure)}"
+        if gas is not None:
+            asks.append((gas.at[0], gas.at[1], self.gas_text, DIAGRAM_TEXT, (0.5, 0.5)))
         return asks
 
     def _draw_resultants(self, solution, w, runs, size, scope):

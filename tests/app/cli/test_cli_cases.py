@@ -234,26 +234,17 @@ def test_export_and_report_of_a_case(capsys, well, tmp_path):
     assert pdf.read_bytes()[:5] == b"%PDF-"
 
 
-def test_a_drawing_of_a_layered_case_says_what_it_leaves_out(well):
+def test_a_drawing_of_a_layered_case_is_of_the_case_itself(well):
+    """The renderers draw a layered case's own solution (its kinks, layers,
+    gas and air are drawn: tests/app/render/test_layered_drawing.py), with
+    no sentence saying part of it is left out."""
     from wetline.app.cli.main import _load
-    from wetline.app.render.case_drawing import DRAWING_NOTE, case_drawing
+    from wetline.app.render.case_drawing import case_drawing
 
-    design, grease = _load(well, case="grease on sewage")
-    assert DRAWING_NOTE in case_drawing(design, grease.name).solution.warnings
-    _, normal = _load(well)
-    view = case_drawing(design, normal.name)
-    assert DRAWING_NOTE not in view.solution.warnings
-    # The one-liquid case draws exactly what solve() gives.
-    assert view.solution.fz.tolist() == normal.solve().fz.tolist()
-
-
-def test_the_sheet_of_a_layered_case_says_what_its_drawing_leaves_out(capsys, well,
-                                                                      tmp_path):
-    import pypdf
-
-    pdf = tmp_path / "s.pdf"
-    status, out, err = run(capsys, "report", well, "-o", pdf)
-    assert status == 0, err
-    text = " ".join(" ".join(p.extract_text().split()) for p in pypdf.PdfReader(pdf).pages)
-    assert "case grease on sewage: This drawing shows the case's values" in text
-    assert "case normal top water: This drawing" not in text
+    for name in ("grease on sewage", None):
+        design, resolved = _load(well, case=name)
+        view = case_drawing(design, resolved.name).solution
+        own = resolved.solve()
+        assert view.warnings == own.warnings
+        assert view.fz.tolist() == own.fz.tolist()
+        assert [ly.top for ly in view.layers] == [ly.top for ly in own.layers]
