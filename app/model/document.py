@@ -66,6 +66,7 @@ from wetline.core.structure import Ground, Structure, StructureError
 
 from .cases import CaseSolver, forget_derived, restore_derived, same_design
 from .display import DisplayChoice
+from .step_timer import span
 
 __all__ = ["Document", "Draft", "Preview", "fill_range", "preview_steps", "outline_fault",
            "as_design", "UNDO_LIMIT", "CAVITY", "STRUCTURE", "VIEW_MODES"]
@@ -479,9 +480,10 @@ class Document(QObject):
         (default: the same position) active. Clears any draft."""
         if not isinstance(design, Design):
             raise TypeError("a Document holds a core.load_cases.Design")
-        self.end_preview()
-        self.set_draft(None)
-        self._apply(design, self._active if active is None else active)
+        with span("edit"):
+            self.end_preview()
+            self.set_draft(None)
+            self._apply(design, self._active if active is None else active)
 
     def set_case(self, case: Case) -> None:
         """Replace the file-level case (the case itself, for a design without
@@ -758,7 +760,8 @@ class Document(QObject):
         preview = self._preview
         if preview is not None:
             if not preview.checked:
-                preview = self._check_preview(preview)
+                with span("solve and cases"):  # the dragged outline checked
+                    preview = self._check_preview(preview)
             if preview.case is None or preview.design is None:
                 return  # invalid: the last valid results stay
             case, design = preview.case, preview.design
@@ -767,21 +770,27 @@ class Document(QObject):
         self._results_of_preview = preview is not None
         if self._need_solve:
             self._need_solve = False
-            self.solved_case = self._solver.solve(design, self._active)
-            self.solution = self.solved_case.solution
-            self.solved.emit(self.solution)
+            with span("solve and cases"):
+                self.solved_case = self._solver.solve(design, self._active)
+                self.solution = self.solved_case.solution
+            with span("other views"):
+                self.solved.emit(self.solution)
         if self._need_table:
             self._need_table = False
             section = case.section
-            lo, hi = fill_range(section)
-            steps = CHART_STEPS if preview is None else preview_steps(section.n_edges)
-            levels = np.linspace(lo, hi, steps)
-            if section.is_open:
-                levels[-1] = section.spill_level
-            self.level_table = level_table(section, case.liquid.density, case.gravity,
-                                           levels=levels)
-            self.levelTableReady.emit(self.level_table)
+            with span("level table"):
+                lo, hi = fill_range(section)
+                steps = CHART_STEPS if preview is None else preview_steps(section.n_edges)
+                levels = np.linspace(lo, hi, steps)
+                if section.is_open:
+                    levels[-1] = section.spill_level
+                self.level_table = level_table(section, case.liquid.density, case.gravity,
+                                               levels=levels)
+            with span("other views"):
+                self.levelTableReady.emit(self.level_table)
         if self._need_envelope and not self.live_edit:
             self._need_envelope = False
-            self.envelope_cases, self.envelope = self._solver.envelope(self._design)
-            self.envelopeReady.emit(self.envelope)
+            with span("envelope"):
+                self.envelope_cases, self.envelope = self._solver.envelope(self._design)
+            with span("other views"):
+                self.envelopeReady.emit(self.envelope)

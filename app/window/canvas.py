@@ -32,6 +32,7 @@ import pyqtgraph as pg
 import shapely
 from PySide6.QtCore import Qt, QTimer, Signal
 
+from wetline.app.model.step_timer import span
 from wetline.app.render.geometry import auto_scale
 from wetline.app.window.canvas_editing import RESERVED_PART_CHOICES, OutlineEditor
 from wetline.app.window.canvas_labels import CanvasLabels
@@ -284,8 +285,16 @@ class SectionCanvas(pg.PlotWidget):
         self.schedule()
 
     # --------------------------------------------------------- drawing
+    def paintEvent(self, ev):
+        with span("canvas paint"):
+            super().paintEvent(ev)
+
     def redraw(self):
         """Draw everything pending now."""
+        with span("canvas layers"):
+            self._redraw()
+
+    def _redraw(self):
         self._redraw_timer.stop()
         if self._outline_dirty:
             self._outline_dirty = False

@@ -25,6 +25,7 @@ from PySide6.QtWidgets import (
 
 from wetline.app.model import editing
 from wetline.app.model.document import CAVITY, STRUCTURE
+from wetline.app.model.step_timer import span
 from wetline.app.window.panels import parse_number
 from wetline.core.numbers import format_entered, format_number
 from wetline.core.section import AXIS, FLOOR, OPEN
@@ -60,6 +61,10 @@ class _Model(QAbstractTableModel):
 
     def refresh(self, headers=False):
         """All cells (and the headers, if asked) may have changed; same shape."""
+        with span("tables"):
+            self._refresh(headers)
+
+    def _refresh(self, headers):
         rows, cols = self.rowCount(), self.columnCount()
         if rows and cols:
             self.dataChanged.emit(self.index(0, 0), self.index(rows - 1, cols - 1),
@@ -478,6 +483,10 @@ class PartsTable(QTableView):
         self.horizontalHeader().setStretchLastSection(True)
         self.setEditTriggers(QAbstractItemView.NoEditTriggers)
 
+    def paintEvent(self, ev):
+        with span("tables"):
+            super().paintEvent(ev)
+
 
 class EdgesTable(QTableView, _SelectionSync):
     def __init__(self, document, parent=None):
@@ -490,6 +499,10 @@ class EdgesTable(QTableView, _SelectionSync):
         self.verticalHeader().setDefaultSectionSize(22)
         self.horizontalHeader().setStretchLastSection(True)
         self._sync_init(document, "edge")
+
+    def paintEvent(self, ev):
+        with span("tables"):
+            super().paintEvent(ev)
 
 
 class VerticesTable(QTableView, _SelectionSync):
@@ -506,6 +519,10 @@ class VerticesTable(QTableView, _SelectionSync):
         self.verticalHeader().setDefaultSectionSize(22)
         self.horizontalHeader().setStretchLastSection(True)
         self._sync_init(document, "vertex")
+
+    def paintEvent(self, ev):
+        with span("tables"):
+            super().paintEvent(ev)
 
 
 class VerticesPane(QWidget):
