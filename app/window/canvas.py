@@ -31,6 +31,7 @@ import numpy as np
 import pyqtgraph as pg
 import shapely
 from PySide6.QtCore import Qt, QTimer, Signal
+from PySide6.QtWidgets import QGraphicsItem
 
 from wetline.app.model.step_timer import span
 from wetline.app.render.geometry import auto_scale
@@ -315,6 +316,7 @@ class SectionCanvas(pg.PlotWidget):
                 self.structure_handles.hide()
             self.outline_layer.draw_fault(self._doc.fault())
             self._draw_selection()
+            self._cache_still_items()
         solution = self._solution
         if solution is not None:
             doc = self._doc
@@ -349,6 +351,22 @@ class SectionCanvas(pg.PlotWidget):
             if self._first_fit:
                 self._first_fit = False
                 self.fit()
+
+    def _cache_still_items(self):
+        """Keep a pixmap of each item that a fill step leaves as it is (the
+        outline by part, the structure, the grid, the handles): a repaint
+        over them (the liquid and its diagrams change under them at every
+        step) copies the pixmap instead of drawing them again. Qt draws an
+        item again when it changes, and when the view zooms."""
+        items = [self._grid, self.handles, self.structure_handles]
+        for layer in (self.outline_layer, self.structure_layer):
+            for value in vars(layer).values():
+                values = value.values() if isinstance(value, dict) else (
+                    value if isinstance(value, list | tuple) else (value,))
+                items += [v for v in values if isinstance(v, QGraphicsItem)]
+        for item in items:
+            if item.cacheMode() != QGraphicsItem.DeviceCoordinateCache:
+                item.setCacheMode(QGraphicsItem.DeviceCoordinateCache)
 
     def _legend_box(self):
         """The part legend's box in view coordinates [m] (labels keep off it)."""
