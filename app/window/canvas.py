@@ -31,7 +31,7 @@ import numpy as np
 import pyqtgraph as pg
 import shapely
 from PySide6.QtCore import Qt, QTimer, Signal
-from PySide6.QtWidgets import QGraphicsItem
+from PySide6.QtWidgets import QGraphicsItem, QGraphicsPathItem
 
 from wetline.app.model.step_timer import span
 from wetline.app.render.geometry import auto_scale
@@ -181,8 +181,12 @@ class SectionCanvas(pg.PlotWidget):
         layer = self.load_layer
         outer = self.structure_layer
         for item in (layer.diagram, layer.down, layer.up, outer.diagram):
-            r = item.mapRectToView(item.boundingRect()) if hasattr(item, "mapRectToView") \
-                else item.boundingRect()
+            if isinstance(item, QGraphicsPathItem):
+                # Qt's own stroked rectangle (its pen's width as a margin, as
+                # the fit has always had it; the items' own skip the stroke).
+                r = QGraphicsPathItem.boundingRect(item)
+            else:
+                r = item.mapRectToView(item.boundingRect())
             if r.width() > 0 or r.height() > 0:
                 x0, x1 = min(x0, r.left()), max(x1, r.right())
                 z0, z1 = min(z0, r.top()), max(z1, r.bottom())
