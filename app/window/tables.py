@@ -120,14 +120,14 @@ class _Model(QAbstractTableModel):
                 r, c, role = key
                 if r >= rows or c >= cols:
                     continue
-                value = self._value(self.index(r, c), role)
+                value = self._value(self.createIndex(r, c), role)  # (no bounds checks)
                 kept[key] = value
                 if type(value) is not type(old) or value != old:
                     changed.setdefault(r, set()).add(c)
             self._shown = kept
             for r in sorted(changed):
                 c = sorted(changed[r])
-                self.dataChanged.emit(self.index(r, c[0]), self.index(r, c[-1]))
+                self.dataChanged.emit(self.createIndex(r, c[0]), self.createIndex(r, c[-1]))
         h = self._headers()
         if (headers or h != getattr(self, "_shown_headers", None)) and cols:
             self._shown_headers = h
