@@ -361,16 +361,22 @@ class SectionCanvas(pg.PlotWidget):
         outline by part, the structure, the grid, the handles): a repaint
         over them (the liquid and its diagrams change under them at every
         step) copies the pixmap instead of drawing them again. Qt draws an
-        item again when it changes, and when the view zooms."""
-        items = [self._grid, self.handles, self.structure_handles]
+        item again when it changes, and when the view zooms. While a vertex
+        is dragged its handles change at every step: they are drawn directly
+        (a pixmap made again at each step costs more) and keep a pixmap again
+        once the drag ends; the outline's runs of parts the drag leaves as
+        they are keep theirs."""
+        items = [self._grid, self.structure_handles]
         for layer in (self.outline_layer, self.structure_layer):
             for value in vars(layer).values():
                 values = value.values() if isinstance(value, dict) else (
                     value if isinstance(value, list | tuple) else (value,))
                 items += [v for v in values if isinstance(v, QGraphicsItem)]
-        for item in items:
-            if item.cacheMode() != QGraphicsItem.DeviceCoordinateCache:
-                item.setCacheMode(QGraphicsItem.DeviceCoordinateCache)
+        dragging = self._doc.preview is not None
+        for item, cache in [(item, True) for item in items] + [(self.handles, not dragging)]:
+            mode = QGraphicsItem.DeviceCoordinateCache if cache else QGraphicsItem.NoCache
+            if item.cacheMode() != mode:
+                item.setCacheMode(mode)
 
     def _legend_box(self):
         """The part legend's box in view coordinates [m] (labels keep off it)."""

@@ -54,3 +54,27 @@ def test_the_canvas_shows_the_same_with_its_pixmaps(make_window, settle, sample)
     _uncached(c)
     assert moved == _grab(c, settle, w)
     assert moved != with_pixmaps
+
+
+def test_a_dragged_outline_is_drawn_as_it_moves(make_window, settle):
+    """During a drag the handles are drawn directly; the canvas shows the
+    dragged outline (not an old pixmap) and, released, the edit."""
+    w = make_window()
+    c = w.canvas
+    handles = c.handles
+    x, z = w.doc.section.outline[1]
+    handles.dragStarted.emit(1)
+    before = _grab(c, settle, w)
+    handles.dragMoved.emit(1, float(x) + 0.3, float(z))
+    during = _grab(c, settle, w)
+    assert handles.cacheMode() == QGraphicsItem.NoCache
+    assert during != before
+    modes = _uncached(c)
+    assert _grab(c, settle, w) == during
+    for item, mode in modes:
+        item.setCacheMode(mode)
+    handles.dragFinished.emit(1, float(x) + 0.3, float(z))
+    after = _grab(c, settle, w)
+    assert handles.cacheMode() == QGraphicsItem.DeviceCoordinateCache
+    _uncached(c)
+    assert _grab(c, settle, w) == after
