@@ -67,6 +67,7 @@ from wetline.core.structure import Ground, Structure, StructureError
 from .cases import CaseSolver, forget_derived, restore_derived, same_design
 from .display import DisplayChoice
 from .level_tables import case_level_tables
+from .step_timer import span
 
 __all__ = ["Document", "Draft", "Preview", "fill_range", "preview_steps", "outline_fault",
            "as_design", "UNDO_LIMIT", "CAVITY", "STRUCTURE", "VIEW_MODES"]
@@ -167,11 +168,22 @@ class Preview:
         return self.case is not None or self.error is not None
 
 
+PREVIEW_MIN_STEPS = 11
+"""Levels of the chart's table during a drag at least (the full table
+follows on release)."""
+
+
 def preview_steps(n_edges: int) -> int:
     """Levels of the chart's table during a drag of an outline with
     ``n_edges`` edges: all :data:`CHART_STEPS` for small sections, fewer
-    (at least 21) for large ones."""
-    return int(min(CHART_STEPS, max(21, PREVIEW_TABLE_ELEMENTS // max(n_edges, 1))))
+    (at least :data:`PREVIEW_MIN_STEPS`: 11 at 10,000 edges, where 21 cost
+    about 5 ms a step) for large ones.
+
+    >>> preview_steps(100), preview_steps(2000), preview_steps(10_000)
+    (121, 25, 11)
+    """
+    return int(min(CHART_STEPS, max(PREVIEW_MIN_STEPS,
+                                    PREVIEW_TABLE_ELEMENTS // max(n_edges, 1))))
 
 
 def fill_range(section: Section) -> tuple[float, float]:
@@ -483,9 +495,10 @@ class Document(QObject):
         (default: the same position) active. Clears any draft."""
         if not isinstance(design, Design):
             raise TypeError("a Document holds a core.load_cases.Design")
-        self.end_preview()
-        self.set_draft(None)
-        self._apply(design, self._active if active is None else active)
+        with span("edit"):
+            self.end_preview()
+            self.set_draft(None)
+            self._apply(design, self._active if active is None else active)
 
     def set_case(self, case: Case) -> None:
         """Replace the file-level case (the case itself, for a design without
@@ -768,7 +781,8 @@ class Document(QObject):
         preview = self._preview
         if preview is not None:
             if not preview.checked:
-                preview = self._check_preview(preview)
+                with span("solve and cases"):  # the dragged outline checked
+                    preview = self._check_preview(preview)
             if preview.case is None or preview.design is None:
                 return  # invalid: the last valid results stay
             case, design = preview.case, preview.design
@@ -777,21 +791,27 @@ class Document(QObject):
         self._results_of_preview = preview is not None
         if self._need_solve:
             self._need_solve = False
-            self.solved_case = self._solver.solve(design, self._active)
-            self.solution = self.solved_case.solution
-            self.solved.emit(self.solution)
+            with span("solve and cases"):
+                self.solved_case = self._solver.solve(design, self._active)
+                self.solution = self.solved_case.solution
+            with span("other views"):
+                self.solved.emit(self.solution)
         if self._need_table:
             self._need_table = False
             section = case.section
-            lo, hi = fill_range(section)
-            steps = CHART_STEPS if preview is None else preview_steps(section.n_edges)
-            levels = np.linspace(lo, hi, steps)
-            if section.is_open:
-                levels[-1] = section.spill_level
-            self.level_tables = case_level_tables(design, self._active, levels)
-            self.level_table = self.level_tables[0]
-            self.levelTableReady.emit(self.level_table)
+            with span("level table"):
+                lo, hi = fill_range(section)
+                steps = CHART_STEPS if preview is None else preview_steps(section.n_edges)
+                levels = np.linspace(lo, hi, steps)
+                if section.is_open:
+                    levels[-1] = section.spill_level
+                self.level_tables = case_level_tables(design, self._active, levels)
+                self.level_table = self.level_tables[0]
+            with span("other views"):
+                self.levelTableReady.emit(self.level_table)
         if self._need_envelope and not self.live_edit:
             self._need_envelope = False
-            self.envelope_cases, self.envelope = self._solver.envelope(self._design)
-            self.envelopeReady.emit(self.envelope)
+            with span("envelope"):
+                self.envelope_cases, self.envelope = self._solver.envelope(self._design)
+            with span("other views"):
+                self.envelopeReady.emit(self.envelope)

@@ -192,6 +192,31 @@ class LabelLayout:
         self._insert("obstacle", box, box)
         return box
 
+    def add_obstacles(self, boxes):
+        """:meth:`add_obstacle` for each row (x0, y0, x1, y1) of ``boxes``
+        [px] (the vertex handles of an outline in one call); the same as
+        adding them one by one."""
+        rows = np.asarray(boxes, dtype=np.float64).reshape(-1, 4)
+        if not len(rows):
+            return
+        lo = np.minimum(rows[:, :2], rows[:, 2:])
+        hi = np.maximum(rows[:, :2], rows[:, 2:])
+        keep = np.isfinite(rows).all(axis=1)
+        b = self.bounds
+        if b is not None:  # as _boxes_overlap(box, bounds, 0.0)
+            keep &= (lo[:, 0] < b[2]) & (b[0] < hi[:, 0]) & (lo[:, 1] < b[3]) & (b[1] < hi[:, 1])
+        lo, hi = lo[keep], hi[keep]
+        room = max(MAX_ITEMS - self._kept, 0)
+        lo, hi = lo[:room], hi[:room]
+        self._kept += len(lo)
+        c = self.cell
+        cells = np.floor(np.column_stack([lo[:, 0], hi[:, 0], lo[:, 1], hi[:, 1]]) / c)
+        for (a, e, f, g), (i0, i1, j0, j1) in zip(np.column_stack([lo, hi]).tolist(),
+                                                  cells.astype(np.int64).tolist(), strict=True):
+            box = (a, e, f, g)
+            self.obstacles.append(box)
+            self._insert_cells("obstacle", box, i0, i1, j0, j1)
+
     def add_line(self, x0, y0, x1, y1, clearance=0.0, soft=True):
         """Keep labels off the segment (x0, y0)-(x1, y1) [px]: within
         ``clearance`` [px] of it. A ``soft`` line (the outline) is crossed

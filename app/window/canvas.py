@@ -31,7 +31,9 @@ import numpy as np
 import pyqtgraph as pg
 import shapely
 from PySide6.QtCore import Qt, QTimer, Signal
+from PySide6.QtWidgets import QGraphicsItem, QGraphicsPathItem
 
+from wetline.app.model.step_timer import span
 from wetline.app.render.geometry import auto_scale
 from wetline.app.window.canvas_editing import RESERVED_PART_CHOICES, OutlineEditor
 from wetline.app.window.canvas_labels import CanvasLabels
@@ -186,8 +188,12 @@ class SectionCanvas(pg.PlotWidget):
         layer = self.load_layer
         outer = self.structure_layer
         for item in (layer.diagram, layer.down, layer.up, outer.diagram):
-            r = item.mapRectToView(item.boundingRect()) if hasattr(item, "mapRectToView") \
-                else item.boundingRect()
+            if isinstance(item, QGraphicsPathItem):
+                # Qt's own stroked rectangle (its pen's width as a margin, as
+                # the fit has always had it; the items' own skip the stroke).
+                r = QGraphicsPathItem.boundingRect(item)
+            else:
+                r = item.mapRectToView(item.boundingRect())
             if r.width() > 0 or r.height() > 0:
                 x0, x1 = min(x0, r.left()), max(x1, r.right())
                 z0, z1 = min(z0, r.top()), max(z1, r.bottom())
@@ -291,8 +297,16 @@ class SectionCanvas(pg.PlotWidget):
         self.schedule()
 
     # --------------------------------------------------------- drawing
+    def paintEvent(self, ev):
+        with span("canvas paint"):
+            super().paintEvent(ev)
+
     def redraw(self):
         """Draw everything pending now."""
+        with span("canvas layers"):
+            self._redraw()
+
+    def _redraw(self):
         self._redraw_timer.stop()
         if self._outline_dirty:
             self._outline_dirty = False
@@ -313,6 +327,7 @@ class SectionCanvas(pg.PlotWidget):
                 self.structure_handles.hide()
             self.outline_layer.draw_fault(self._doc.fault())
             self._draw_selection()
+            self._cache_still_items()
         solution = self._solution
         if solution is not None:
             doc = self._doc
@@ -350,6 +365,28 @@ class SectionCanvas(pg.PlotWidget):
             if self._first_fit:
                 self._first_fit = False
                 self.fit()
+
+    def _cache_still_items(self):
+        """Keep a pixmap of each item that a fill step leaves as it is (the
+        outline by part, the structure, the grid, the handles): a repaint
+        over them (the liquid and its diagrams change under them at every
+        step) copies the pixmap instead of drawing them again. Qt draws an
+        item again when it changes, and when the view zooms. While a vertex
+        is dragged its handles change at every step: they are drawn directly
+        (a pixmap made again at each step costs more) and keep a pixmap again
+        once the drag ends; the outline's runs of parts the drag leaves as
+        they are keep theirs."""
+        items = [self._grid, self.structure_handles]
+        for layer in (self.outline_layer, self.structure_layer):
+            for value in vars(layer).values():
+                values = value.values() if isinstance(value, dict) else (
+                    value if isinstance(value, list | tuple) else (value,))
+                items += [v for v in values if isinstance(v, QGraphicsItem)]
+        dragging = self._doc.preview is not None
+        for item, cache in [(item, True) for item in items] + [(self.handles, not dragging)]:
+            mode = QGraphicsItem.DeviceCoordinateCache if cache else QGraphicsItem.NoCache
+            if item.cacheMode() != mode:
+                item.setCacheMode(mode)
 
     def _legend_box(self):
         """The part legend's box in view coordinates [m] (labels keep off it)."""

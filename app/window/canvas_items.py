@@ -16,7 +16,7 @@ from PySide6.QtGui import QBrush, QColor, QPainterPath, QPen
 from PySide6.QtWidgets import QGraphicsPathItem
 
 __all__ = ["cosmetic_pen", "path_of", "rings_path", "edge_segments", "pairs_curve",
-           "filled_path_item", "add_item"]
+           "filled_path_item", "add_item", "FilledPathItem"]
 
 
 def cosmetic_pen(colour, width=1.0, style=Qt.SolidLine):
@@ -75,9 +75,43 @@ def pairs_curve(viewbox, pen, z, visible=True):
                     z, visible)
 
 
+class FilledPathItem(QGraphicsPathItem):
+    """A path item whose bounding rectangle is its path's control points
+    (plus a non-cosmetic pen's reach): Qt's own, with a pen, strokes the whole
+    path to find it, about 6 ms at every change of a diagram of 10,000
+    edges. A cosmetic pen's half pixel lies within the 2 px Qt's view adds
+    around every update for antialiasing."""
+
+    _rect = None
+
+    def setPath(self, path):
+        self.prepareGeometryChange()
+        self._rect = None
+        super().setPath(path)
+
+    def setPen(self, pen):
+        self.prepareGeometryChange()
+        self._rect = None
+        super().setPen(pen)
+
+    def boundingRect(self):
+        rect = self._rect
+        if rect is None:
+            rect = self.path().controlPointRect()
+            pen = self.pen()
+            if pen.style() != Qt.NoPen and not pen.isCosmetic():
+                # Square caps reach 0.71 widths out, mitres the miter limit
+                # (in widths) past the stroke's half width.
+                k = pen.miterLimit() + 0.5 if pen.joinStyle() == Qt.MiterJoin else 1.0
+                pad = max(k, 1.0) * pen.widthF()
+                rect = rect.adjusted(-pad, -pad, pad, pad)
+            self._rect = rect
+        return rect
+
+
 def filled_path_item(viewbox, brush, z, pen=None, visible=True):
     """A path item filled with ``brush`` (and outlined with ``pen``)."""
-    item = QGraphicsPathItem()
+    item = FilledPathItem()
     item.setBrush(QBrush(brush))
     item.setPen(pen if pen is not None else QPen(Qt.NoPen))
     return add_item(viewbox, item, z, visible)

@@ -21,6 +21,7 @@ import pyqtgraph as pg
 from PySide6.QtCore import QTimer
 from PySide6.QtGui import QFont, QFontMetricsF
 
+from wetline.app.model.step_timer import span
 from wetline.app.render.labels import LabelLayout
 
 __all__ = ["CanvasLabels", "LABEL_MARGIN", "MAX_HANDLE_OBSTACLES", "SAME_VALUE_PX",
@@ -107,6 +108,10 @@ class CanvasLabels:
     # --------------------------------------------------------- layout
     def lay_out(self):
         """Place the labels asked for at the current zoom (pixel sizes)."""
+        with span("label layout"):
+            self._lay_out()
+
+    def _lay_out(self):
         self._timer.stop()
         vb = self._vb
         px = vb.viewPixelSize()
@@ -117,21 +122,55 @@ class CanvasLabels:
         (x0, x1), (z0, z1) = vb.viewRange()
         e = VIEW_EDGE
         self.layout = LabelLayout(bounds=(x0 / sx + e, z0 / sz + e, x1 / sx - e, z1 / sz - e))
-        for vx, vz in np.asarray(self._handles).reshape(-1, 2) / self.px:
-            self.layout.add_obstacle(vx - 5, vz - 5, vx + 5, vz + 5)
+        v = np.asarray(self._handles, dtype=np.float64).reshape(-1, 2) / self.px
+        self.layout.add_obstacles(np.column_stack([v - 5.0, v + 5.0]))
         for a, b, c, d in self.view_obstacles():
             self.layout.add_obstacle(a / sx, b / sz, c / sx, d / sz)
         for a, b, c, d in self._shafts:
             self.layout.add_line(a / sx, b / sz, c / sx, d / sz, clearance=SHAFT_CLEARANCE,
                                  soft=False)
-        self.used = 0
+        placed = []
         for x, z, text, colour, anchor, bold, optional, once, near in self.requests:
             if once and self.layout.seen_near(text, x / sx, z / sz, SAME_VALUE_PX):
                 continue
-            self._place(x, z, text, colour, anchor, bold, optional, near)
-        for item in self.items[self.used:]:
+            shift = self._place(x, z, text, bold, anchor, optional, near)
+            if shift is not None:
+                placed.append(((text, colour, bold), anchor,
+                               (x + shift[0] * sx, z + shift[1] * sz)))
+        self._show(placed)
+
+    def _show(self, placed):
+        """Show the labels ``placed`` ((text, colour, bold), anchor, (x, z)
+        [m]) with the pool's items: an item that showed the same text
+        before shows it again (a text set again lays its document out
+        again, the dearest part of a label), and an item is moved or
+        re-anchored only if its place changed."""
+        by_key = {}
+        for item in reversed(self.items):  # (popped in the pool's order)
+            by_key.setdefault(item._key, []).append(item)
+        order = [None] * len(placed)
+        for k, (key, _, _) in enumerate(placed):
+            same = by_key.get(key)
+            if same:
+                order[k] = same.pop()
+        taken = {id(item) for item in order if item is not None}
+        spare = iter([item for item in self.items if id(item) not in taken])
+        shown = []
+        for k, (key, anchor, pos) in enumerate(placed):
+            item = order[k]
+            if item is None:
+                item = next(spare, None)
+                if item is None:
+                    item = self._new_item()
+            self._set(item, key, anchor, pos)
+            shown.append(item)
+        ids = {id(item) for item in shown}
+        rest = [item for item in self.items if id(item) not in ids]
+        for item in rest:
             if item.isVisible():
                 item.hide()
+        self.items = shown + rest  # the first `used` show labels, in the order placed
+        self.used = len(shown)
 
     def _text_size(self, text, bold):
         """(width, height) [px] of a label's whole text item (text plus the
@@ -153,39 +192,43 @@ class CanvasLabels:
             self._sizes[key] = size
         return size
 
-    def _place(self, x, z, text, colour, anchor, bold, optional, near=False):
+    def _place(self, x, z, text, bold, anchor, optional, near=False):
+        """The (dx, dy) shift [px] the label takes, or None if left out."""
         width, height = self._text_size(text, bold)
-        shift = self.layout.place_anchored(x / self.px[0], z / self.px[1], width, height,
-                                           anchor, required=not optional, margin=LABEL_MARGIN,
-                                           key=text, offsets=NEAR_OFFSETS if near else None)
-        if shift is None:
-            return None
-        item = self._item()
-        key = (text, colour, bold)
-        if getattr(item, "_key", None) != key:
+        return self.layout.place_anchored(x / self.px[0], z / self.px[1], width, height,
+                                          anchor, required=not optional, margin=LABEL_MARGIN,
+                                          key=text, offsets=NEAR_OFFSETS if near else None)
+
+    @staticmethod
+    def _set(item, key, anchor, pos):
+        """``item`` showing ``key`` (text, colour, bold) anchored at ``pos``."""
+        text, colour, bold = key
+        if item._key != key:
             item._key = key
-            if getattr(item, "_bold", False) != bold:  # plain text and a font: no HTML
+            if item._bold != bold:  # plain text and a font: no HTML
                 item._bold = bold
                 font = QFont(item.textItem.font())
                 font.setWeight(QFont.DemiBold if bold else QFont.Normal)
                 item.textItem.setFont(font)
             item.setText(text, color=colour)
-        item.setAnchor(anchor)
-        item.setPos(x + shift[0] * self.px[0], z + shift[1] * self.px[1])
+        anchor = tuple(anchor)
+        if item._anchor != anchor:
+            item._anchor = anchor
+            item.setAnchor(anchor)
+        if item._pos != pos:
+            item._pos = pos
+            item.setPos(*pos)
         if not item.isVisible():
             item.show()
-        return item
 
-    def _item(self):
-        """The next text item of the pool (made if the pool is short)."""
-        if self.used < len(self.items):
-            item = self.items[self.used]
-        else:
-            item = pg.TextItem(fill=LABEL_FILL)
-            item.setZValue(35)
-            self._vb.addItem(item)
-            self.items.append(item)
-        self.used += 1
+    def _new_item(self):
+        """A new text item for the pool."""
+        item = pg.TextItem(fill=LABEL_FILL)
+        item._key = item._anchor = item._pos = None
+        item._bold = False
+        item.setZValue(35)
+        self._vb.addItem(item)
+        self.items.append(item)
         return item
 
     # ---------------------------------------------------------- reading

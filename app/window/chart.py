@@ -24,6 +24,7 @@ from PySide6.QtCore import Qt
 
 from wetline.app.model import editing
 from wetline.app.model.document import fill_range
+from wetline.app.model.step_timer import span
 from wetline.app.render.style import FLOOR_COLOUR, LEVEL_MARK, LEVEL_SERIES, part_colours
 from wetline.app.window.grid import LightGrid
 from wetline.app.window.outer_legend import legend_outside
@@ -85,6 +86,10 @@ class LoadChart(pg.PlotWidget):
         document.envelopeReady.connect(self._on_envelopeReady)
         document.viewModeChanged.connect(self._on_envelopeReady)
 
+    def paintEvent(self, ev):
+        with span("chart paint"):
+            super().paintEvent(ev)
+
     @property
     def cursor_level(self):
         """Level [m] where the cursor stands."""
@@ -99,6 +104,10 @@ class LoadChart(pg.PlotWidget):
         self._on_envelopeReady()
 
     def _on_envelopeReady(self, *_):
+        with span("chart update"):
+            self._draw_marks()
+
+    def _draw_marks(self):
         """Mark each part's envelope values (envelope view), or clear the marks."""
         doc = self._doc
         env = doc.envelope
@@ -148,6 +157,10 @@ class LoadChart(pg.PlotWidget):
                              padding=0)
 
     def _on_levelTableReady(self, table):
+        with span("chart update"):
+            self._draw_curves(table)
+
+    def _draw_curves(self, table):
         plot = self.getPlotItem()
         section = self._doc.shown_case.section
         u = self._doc.units
@@ -228,6 +241,10 @@ class LoadChart(pg.PlotWidget):
         return x0 <= float(x.min()) and float(x.max()) <= x1 and y0 <= lo and hi <= y1
 
     def _on_solved(self, solution):
+        with span("chart update"):
+            self._move_cursor(solution)
+
+    def _move_cursor(self, solution):
         u = self._doc.units
         x = float(u.length(solution.level))
         self.cursor.setValue(x)

@@ -25,6 +25,7 @@ from PySide6.QtWidgets import (
 
 from wetline.app.model import editing
 from wetline.app.model.document import CAVITY, STRUCTURE
+from wetline.app.model.step_timer import span
 from wetline.core.number_input import parse_decimal
 from wetline.core.numbers import format_entered, format_number
 from wetline.core.section import AXIS, FLOOR, OPEN
@@ -34,6 +35,9 @@ __all__ = ["PartsModel", "EdgesModel", "VerticesModel", "PartsTable", "EdgesTabl
            "VerticesTable", "VerticesPane"]
 
 _RIGHT = int(Qt.AlignRight | Qt.AlignVCenter)
+CELLS_KEPT = 6000
+"""Cell values (cell and role) a model keeps as shown; more (a table
+scrolled through thousands of rows) and a refresh tells of every cell."""
 UPLIFT_TEXT = QColor("#8e24aa")
 
 
@@ -58,12 +62,72 @@ class _Model(QAbstractTableModel):
             return str(section)
         return None
 
+    _shown: dict | None = None
+
+    def data(self, index, role=Qt.DisplayRole):
+        """The cell's value for ``role``, as last given to the views (kept,
+        so that :meth:`refresh` tells them only of the cells that changed)."""
+        if not index.isValid():
+            return None
+        shown = self._shown
+        if shown is None:
+            shown = self._shown = {}
+        key = (index.row(), index.column(), role)
+        try:
+            return shown[key]
+        except KeyError:
+            pass
+        value = self._value(index, role)
+        if len(shown) < CELLS_KEPT:
+            shown[key] = value
+        return value
+
+    def _value(self, index, role):
+        """The cell's value for ``role`` (the model's own)."""
+        return None
+
+    def _forget_shown(self):
+        """The rows are new (a reset): nothing shown is kept."""
+        self._shown = None
+
+    def beginResetModel(self):
+        self._forget_shown()
+        super().beginResetModel()
+
+    def endResetModel(self):
+        self._forget_shown()
+        super().endResetModel()
+
     def refresh(self, headers=False):
-        """All cells (and the headers, if asked) may have changed; same shape."""
+        """Any cell (and the headers, if asked) may have changed; same shape.
+        The views hear of the cells whose value changed, row by row (a
+        value the same as shown repaints nothing); with more cells kept
+        than :data:`CELLS_KEPT`, of every cell."""
+        with span("tables"):
+            self._refresh(headers)
+
+    def _refresh(self, headers):
         rows, cols = self.rowCount(), self.columnCount()
-        if rows and cols:
-            self.dataChanged.emit(self.index(0, 0), self.index(rows - 1, cols - 1),
-                                  [Qt.DisplayRole, Qt.ForegroundRole])
+        shown = self._shown
+        if shown is None or len(shown) >= CELLS_KEPT:
+            self._shown = None
+            if rows and cols:
+                self.dataChanged.emit(self.index(0, 0), self.index(rows - 1, cols - 1))
+        elif shown:
+            changed = {}
+            kept = {}
+            for key, old in shown.items():
+                r, c, role = key
+                if r >= rows or c >= cols:
+                    continue
+                value = self._value(self.createIndex(r, c), role)  # (no bounds checks)
+                kept[key] = value
+                if type(value) is not type(old) or value != old:
+                    changed.setdefault(r, set()).add(c)
+            self._shown = kept
+            for r in sorted(changed):
+                c = sorted(changed[r])
+                self.dataChanged.emit(self.createIndex(r, c[0]), self.createIndex(r, c[-1]))
         h = self._headers()
         if (headers or h != getattr(self, "_shown_headers", None)) and cols:
             self._shown_headers = h
@@ -135,8 +199,8 @@ class PartsModel(_Model):
         elif self._doc.solution is not None:
             self._set_rows(list(self._doc.solution.parts.items()))
 
-    def data(self, index, role=Qt.DisplayRole):
-        if not index.isValid() or index.row() >= len(self._rows):
+    def _value(self, index, role):
+        if index.row() >= len(self._rows):
             return None
         name, load = self._rows[index.row()]
         c = index.column()
@@ -236,9 +300,7 @@ class EdgesModel(_Model):
         else:
             self.refresh()
 
-    def data(self, index, role=Qt.DisplayRole):
-        if not index.isValid():
-            return None
+    def _value(self, index, role):
         sol = self._doc.solution
         if sol is None or index.row() >= sol.section.n_edges:
             return None
@@ -337,9 +399,7 @@ class VerticesModel(_Model):
     def flags(self, index):
         return Qt.ItemIsEnabled | Qt.ItemIsSelectable | Qt.ItemIsEditable
 
-    def data(self, index, role=Qt.DisplayRole):
-        if not index.isValid():
-            return None
+    def _value(self, index, role):
         outline, parts = self.outline()
         i, c = index.row(), index.column()
         if i >= len(outline):
@@ -479,6 +539,10 @@ class PartsTable(QTableView):
         self.horizontalHeader().setStretchLastSection(True)
         self.setEditTriggers(QAbstractItemView.NoEditTriggers)
 
+    def paintEvent(self, ev):
+        with span("tables"):
+            super().paintEvent(ev)
+
 
 class EdgesTable(QTableView, _SelectionSync):
     def __init__(self, document, parent=None):
@@ -491,6 +555,10 @@ class EdgesTable(QTableView, _SelectionSync):
         self.verticalHeader().setDefaultSectionSize(22)
         self.horizontalHeader().setStretchLastSection(True)
         self._sync_init(document, "edge")
+
+    def paintEvent(self, ev):
+        with span("tables"):
+            super().paintEvent(ev)
 
 
 class VerticesTable(QTableView, _SelectionSync):
@@ -507,6 +575,10 @@ class VerticesTable(QTableView, _SelectionSync):
         self.verticalHeader().setDefaultSectionSize(22)
         self.horizontalHeader().setStretchLastSection(True)
         self._sync_init(document, "vertex")
+
+    def paintEvent(self, ev):
+        with span("tables"):
+            super().paintEvent(ev)
 
 
 class VerticesPane(QWidget):
