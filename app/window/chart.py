@@ -208,7 +208,10 @@ class LoadChart(pg.PlotWidget):
             # (A drag step whose curves fit the view keeps the axes: fitting
             # them again every step relabels and repaints both axes.)
             self._fit_view(vb, section, x, ys)
-        labels = (f"Level [{u.length_unit}]", f"Load [{scope.label}]")
+        layered = len(getattr(self._doc.active_load_case, "layers", None) or ()) > 1
+        labels = (f"Level [{u.length_unit}]"
+                  + (" (the top layer rising over the layers below)" if layered else ""),
+                  f"Load [{scope.label}]")
         if labels != getattr(self, "_axis_labels", None):  # a new label repaints the axis
             self._axis_labels = labels
             plot.setLabel("bottom", labels[0])

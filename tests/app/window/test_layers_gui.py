@@ -164,3 +164,12 @@ def test_uplift_panel_states_its_assumption(window_of):
     assert roof.worst_pockets == core_roof.worst_pockets
     v = window_of("chamber_with_lip", 0)
     assert "Air under ceilings vented" in v.uplift_panel.details.text()
+
+
+def test_the_chart_says_which_level_it_moves_for_a_layered_case(window_of):
+    # A layered case's loads against level move the free surface over the
+    # layers below (core ResolvedCase.level_tables); the axis says so.
+    layered = window_of("grease_trap")
+    assert "top layer rising" in layered.chart._axis_labels[0]
+    plain = window_of("grease_trap", 2)  # the water test: one liquid
+    assert plain.chart._axis_labels[0] == "Level [m]"
