@@ -23,22 +23,27 @@ cooperating pieces:
   and keys do to the outline, and a drag does to the structure's outline
   (its own square handles; every edit through
   :mod:`wetline.app.model.editing`).
+
+Two parts are mixed into the widget, each in its own module:
+:class:`wetline.app.window.canvas_view.CanvasView` (the view set up, its fit
+and the axes in the display unit) and
+:class:`wetline.app.window.canvas_pointer.CanvasPointer` (snapping, the text
+under the pointer, clicks and keys passed to the editor).
 """
 
 from __future__ import annotations
 
 import numpy as np
 import pyqtgraph as pg
-import shapely
-from PySide6.QtCore import Qt, QTimer, Signal
-from PySide6.QtWidgets import QGraphicsItem, QGraphicsPathItem
+from PySide6.QtCore import QTimer, Signal
+from PySide6.QtWidgets import QGraphicsItem
 
 from wetline.app.model.step_timer import span
 from wetline.app.render.geometry import auto_scale
 from wetline.app.window.canvas_editing import RESERVED_PART_CHOICES, OutlineEditor
 from wetline.app.window.canvas_labels import CanvasLabels
-from wetline.app.window.draw_input import STARTS
-from wetline.app.window.grid import LightGrid
+from wetline.app.window.canvas_pointer import CanvasPointer
+from wetline.app.window.canvas_view import CanvasView
 from wetline.app.window.interface_grips import InterfaceGrips
 from wetline.app.window.load_layer import LoadLayer
 from wetline.app.window.outline_layer import OutlineLayer
@@ -46,13 +51,11 @@ from wetline.app.window.parts_proposal import PartsProposal
 from wetline.app.window.snap import SnapGrid
 from wetline.app.window.structure_layer import StructureLayer
 from wetline.app.window.vertex_handles import MAX_HANDLES, VertexHandles
-from wetline.app.window.view_range import smallest_span, usable_range
-from wetline.core.numbers import format_entered
 
 __all__ = ["SectionCanvas", "RESERVED_PART_CHOICES"]
 
 
-class SectionCanvas(pg.PlotWidget):
+class SectionCanvas(CanvasView, CanvasPointer, pg.PlotWidget):
     """The section drawing with its loads, and the outline editor."""
 
     hoverText = Signal(str)
@@ -111,16 +114,6 @@ class SectionCanvas(pg.PlotWidget):
         self._apply_units()
         self.schedule(outline=True)
 
-    def _set_up_view(self):
-        plot = self.getPlotItem()
-        plot.setAspectLocked(True)
-        plot.setMenuEnabled(False)
-        plot.hideButtons()
-        self._grid = LightGrid(plot.getViewBox())
-        plot.getViewBox().disableAutoRange()  # fit() sets the range, never an empty one
-        self.setMouseTracking(True)
-        self.setFocusPolicy(Qt.StrongFocus)
-
     def _connect(self, document):
         document.sectionChanged.connect(self._on_sectionChanged)
         document.draftChanged.connect(self._on_draftChanged)
@@ -172,71 +165,6 @@ class SectionCanvas(pg.PlotWidget):
                               "Next vertex field; double-click or Enter closes it, Esc "
                               "cancels" if mode == "draw" else "")
 
-    def fit(self):
-        """Show the whole section with its diagrams and resultants."""
-        outline, _ = self._doc.working_outline()
-        structure = self._doc.working_structure_outline()
-        if structure is not None:
-            outline = np.vstack([outline, structure[0]])
-        x0, z0 = outline.min(axis=0)
-        x1, z1 = outline.max(axis=0)
-        ground = self._doc.ground
-        if ground is not None:
-            z0, z1 = min(z0, ground.level), max(z1, ground.level)
-        if self._doc.section.is_axisymmetric:
-            x0 = min(x0, -x1)
-        layer = self.load_layer
-        outer = self.structure_layer
-        for item in (layer.diagram, layer.down, layer.up, outer.diagram):
-            if isinstance(item, QGraphicsPathItem):
-                # Qt's own stroked rectangle (its pen's width as a margin, as
-                # the fit has always had it; the items' own skip the stroke).
-                r = QGraphicsPathItem.boundingRect(item)
-            else:
-                r = item.mapRectToView(item.boundingRect())
-            if r.width() > 0 or r.height() > 0:
-                x0, x1 = min(x0, r.left()), max(x1, r.right())
-                z0, z1 = min(z0, r.top()), max(z1, r.bottom())
-        pad = 0.08 * max(x1 - x0, z1 - z0)
-        # A box around one point or along one line (an outline being drawn)
-        # is widened to a tenth of the section: never an empty range.
-        span = 0.1 * float(np.ptp(self._doc.section.outline, axis=0).max())
-        xr = usable_range(x0 - pad, x1 + pad, span)
-        zr = usable_range(z0 - pad, z1 + pad, span)
-        vb = self.getPlotItem().getViewBox()
-        vb.setLimits(minXRange=smallest_span(max(map(abs, xr)), 1e-3 * span),
-                     minYRange=smallest_span(max(map(abs, zr)), 1e-3 * span))
-        vb.setRange(xRange=xr, yRange=zr, padding=0)
-
-    def fit_when_drawn(self):
-        """Fit the view once the next results are drawn (a file opened)."""
-        self._first_fit = True
-
-    @property
-    def snap_enabled(self):
-        """True if points made with the mouse snap to the grid."""
-        return self.snap_grid.enabled
-
-    @snap_enabled.setter
-    def snap_enabled(self, on):
-        self.snap_grid.enabled = bool(on)
-
-    @property
-    def snap_spacing(self):
-        """Snap grid spacing [m] (a round number of the display unit)."""
-        return self.snap_grid.spacing
-
-    @snap_spacing.setter
-    def snap_spacing(self, metres):
-        self.snap_grid.set_spacing(metres)
-
-    def snap(self, x, z):
-        """(x, z) [m] of a point made with the mouse: on the snap grid if
-        snapping is on, else rounded to the 1-2-5 step of the display unit
-        under one screen pixel (:class:`wetline.app.window.snap.SnapGrid`)."""
-        px = self.getPlotItem().getViewBox().viewPixelSize()
-        return self.snap_grid.point(x, z, pixel=min(px) if px[0] > 0 and px[1] > 0 else None)
-
     def schedule(self, outline=False):
         """Redraw at the next event-loop turn (the outline too, if asked)."""
         self._outline_dirty = self._outline_dirty or outline
@@ -262,23 +190,6 @@ class SectionCanvas(pg.PlotWidget):
     def _on_unitsChanged(self):
         self._apply_units()
         self.schedule()
-
-    def _apply_units(self):
-        """The axes, their grid and the snap spacing in the display length
-        unit (ft or in in US): the view stays in metres, the ticks are
-        round numbers of the unit shown."""
-        u = self._doc.units
-        per_m = float(u.length(1.0))  # display units per metre
-        plot = self.getPlotItem()
-        r = "r" if self._doc.section.is_axisymmetric else "x"
-        for name, text in (("bottom", f"{r} [{u.length_unit}]"),
-                           ("left", f"z [{u.length_unit}]")):
-            axis = plot.getAxis(name)
-            axis.enableAutoSIPrefix(False)
-            axis.setScale(per_m)
-            axis.setLabel(text)
-        self._grid.set_scale(per_m, per_m)
-        self.snap_grid.follow_units(u)
 
     def _on_diagramScaleChanged(self):
         self.schedule()
@@ -420,62 +331,6 @@ class SectionCanvas(pg.PlotWidget):
     def label_boxes(self):
         """Pixel boxes (x0, y0, x1, y1, y up) of the placed labels' text."""
         return self.labels.boxes()
-
-    # ------------------------------------------------------- mouse
-    def _view_point(self, scene_pos):
-        p = self.getPlotItem().getViewBox().mapSceneToView(scene_pos)
-        return p.x(), p.y()
-
-    def _on_mouseMoved(self, scene_pos):
-        if not self.getPlotItem().getViewBox().sceneBoundingRect().contains(scene_pos):
-            return
-        x, z = self._view_point(scene_pos)
-        self.pointer = (x, z)
-        self.hoverText.emit(self.describe_point(x, z))
-        if self._mode == "draw" and self.editor.drawn:
-            self.outline_layer.show_sketch(self.editor.drawn + [self.snap(x, z)])
-
-    def _on_mouseClicked(self, ev):
-        if ev.isAccepted() and ev.button() != Qt.LeftButton:
-            return
-        x, z = self._view_point(ev.scenePos())
-        self.editor.on_click(x, z, ev.button(), ev.double(), ev.screenPos())
-
-    def keyPressEvent(self, ev):
-        if self._mode == "draw" and ev.text() and ev.text() in STARTS:
-            self.typedStart.emit(ev.text())
-            return
-        if not self.editor.on_key(ev.key()):
-            super().keyPressEvent(ev)
-
-    def describe_point(self, x, z):
-        """x, z, depth below the free surface and pressure there, as text."""
-        units = self._doc.units
-        sol = self._solution
-        text = f"x {units.fmt_length(x)}   z {units.fmt_length(z)}"
-        if self._mode == "draw":  # where a click would put the vertex
-            sx, sz = self.snap(x, z)
-            text = (f"x {format_entered(units.length(sx))} {units.length_unit}   "
-                    f"z {format_entered(units.length(sz))} {units.length_unit}   "
-                    f"(snap {self.snap_grid.text() if self.snap_enabled else 'off'})")
-        if sol is None:
-            return text
-        hint = self.editor.interface_hint(x, z)
-        if hint:
-            text += f"   {hint}"
-        depth = sol.level - z
-        poly = self.load_layer.polygon(sol.section)
-        # The mirrored half of an axisymmetric section is the same vessel.
-        r = abs(x) if sol.section.is_axisymmetric else x
-        if not shapely.contains_xy(poly, r, z):
-            return text + "   outside the section"
-        if depth > 0:  # the case's law: layers and gas too
-            p = sol.law.pressure_at(z) if sol.law is not None else \
-                sol.density * sol.gravity * depth
-            text += f"   depth {units.fmt_length(depth)}   pressure {units.fmt_pressure(p)}"
-        else:
-            text += f"   {units.fmt_length(-depth)} above the free surface"
-        return text
 
     # -------------------------------------------- editing (the editor's)
     def pick_edge(self, x, z, tolerance_px=6):
