@@ -90,6 +90,7 @@ class SectionCanvas(CanvasView, CanvasPointer, pg.PlotWidget):
         self.outline_layer = OutlineLayer(self.getPlotItem())
         self.labels = CanvasLabels(vb, self)
         self.labels.view_obstacles = self._legend_box
+        self.labels.more_handles = self._structure_vertices
         self.editor = OutlineEditor(self, document)
         self.handles = VertexHandles(self.editor.pick_vertex)
         self.proposal = PartsProposal(self, document)
@@ -298,6 +299,11 @@ class SectionCanvas(CanvasView, CanvasPointer, pg.PlotWidget):
             mode = QGraphicsItem.DeviceCoordinateCache if cache else QGraphicsItem.NoCache
             if item.cacheMode() != mode:
                 item.setCacheMode(mode)
+
+    def _structure_vertices(self):
+        """The structure's vertex handles [m] (none without a structure)."""
+        structure = self._doc.structure
+        return np.empty((0, 2)) if structure is None else structure.outline
 
     def _legend_box(self):
         """The part legend's box in view coordinates [m] (labels keep off it)."""

@@ -70,6 +70,9 @@ class CanvasLabels:
         self._shafts = []
         self._handles = np.empty((0, 2))
         self.view_obstacles = lambda: ()
+        self.more_handles = lambda: np.empty((0, 2))
+        """Further vertex handles the labels keep off ((M, 2) [m]): the
+        structure's, where there is one."""
         """Boxes (x0, z0, x1, z1) [m] labels keep off whatever is drawn: the
         legend over the view (set by the canvas)."""
         self._sizes = {}
@@ -86,7 +89,9 @@ class CanvasLabels:
         whose vertex handles the labels keep off on small outlines)."""
         self.requests = []
         self._shafts = []
-        self._handles = outline if len(outline) <= MAX_HANDLE_OBSTACLES else np.empty((0, 2))
+        more = np.asarray(self.more_handles(), dtype=np.float64).reshape(-1, 2)
+        handles = np.concatenate([np.asarray(outline, dtype=np.float64).reshape(-1, 2), more])
+        self._handles = handles if len(handles) <= MAX_HANDLE_OBSTACLES else np.empty((0, 2))
 
     def keep_off_shaft(self, x0, z0, x1, z1):
         """Keep labels off the arrow shaft (x0, z0)-(x1, z1) [m]."""

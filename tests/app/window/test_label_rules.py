@@ -110,3 +110,23 @@ def test_each_part_total_is_written_once_and_runs_name_their_edges(window_on):
     items = {i.toPlainText(): i for i in w.canvas.labels.items[:w.canvas.labels.used]}
     total, run = items[shown[1]], next(items[t] for t in shown if t.startswith("edge 2"))
     assert total.textItem.font().bold() and not run.textItem.font().bold()
+
+
+@pytest.mark.parametrize("name", ["chamber_with_lip", "buried_wet_well"])
+def test_labels_keep_off_the_structure_handles(make_window, settle, sample, name):
+    # Seen on the chamber with a lip: "free surface 4 m" and "edge 5" lay
+    # over the square handles of the structure's vertices. Boxes and handles
+    # are compared in the layout's own pixel frame (y up), handles 8 px.
+    import numpy as np
+
+    from wetline.core.section_file import read_design
+
+    w = make_window(read_design(sample(name)))
+    settle(w)
+    labels = w.canvas.labels
+    sx, sz = labels.px
+    handles = w.doc.structure.outline / np.array([sx, sz])
+    for x0, y0, x1, y1 in labels.boxes():
+        inside = ((handles[:, 0] > x0 - 4) & (handles[:, 0] < x1 + 4)
+                  & (handles[:, 1] > y0 - 4) & (handles[:, 1] < y1 + 4))
+        assert not inside.any(), (x0, y0, x1, y1)
