@@ -335,7 +335,9 @@ class Structure:
             raise StructureError(str(e)) from None
         s = cls(outline=outer.outline, parts=outer.parts, unit_weight=unit_weight,
                 extra_weight=extra_weight, anchorage=anchorage, orientation=outer.orientation)
-        _check_encloses(s.outline, cavity)
+        own = s._own(cavity)
+        own.validated = True  # as a Section of the cavity's kind, above
+        _check_encloses(s.outline, cavity, own)
         return s
 
     def check(self, cavity: Section) -> None:
@@ -350,8 +352,7 @@ class Structure:
         Anywhere else the walls need a thickness: touching is refused.
         Points closer than 1e-9 of the structure's extent count as touching.
         """
-        _outer_section(self.outline, self.parts, cavity)
-        _check_encloses(self.outline, cavity)
+        _check_encloses(self.outline, cavity, self._own(cavity, checked=True))
 
     def replace(self, cavity: Section, **changes: Any) -> Structure:
         """A validated copy with some fields changed (see :meth:`build`)."""
@@ -384,8 +385,32 @@ class Structure:
     def section(self, cavity: Section) -> Section:
         """The outer outline as a :class:`Section` of the cavity's kind and
         width (trusted: built without checks), for the hydrostatic solver."""
-        return Section(outline=self.outline, parts=self.parts, kind=cavity.kind,
-                       width=cavity.width, name="structure", orientation=self.orientation)
+        return self._own(cavity).outer
+
+    @cached_property
+    def _memo(self) -> dict:
+        """{(kind, width): _Own}: what depends on the structure alone."""
+        return {}
+
+    def _own(self, cavity: Section, checked: bool = False) -> _Own:
+        """The structure's own geometry for a cavity's kind and width, made
+        once per structure (a drag of the cavity makes a new cavity at every
+        step, the structure stays; its outline is read-only). With
+        ``checked`` the outline is first validated as a Section of that kind
+        (StructureError as :func:`_outer_section`), once."""
+        if not isinstance(cavity, Section):
+            raise TypeError("cavity must be a Section")
+        key = (cavity.kind, cavity.width)
+        own = self._memo.get(key)
+        if own is None:
+            own = _Own(Section(outline=self.outline, parts=self.parts, kind=cavity.kind,
+                               width=cavity.width, name="structure",
+                               orientation=self.orientation))
+            self._memo[key] = own
+        if checked and not own.validated:
+            _outer_section(self.outline, self.parts, cavity)
+            own.validated = True
+        return own
 
 
 def _outer_section(outline, parts, cavity):
@@ -408,6 +433,57 @@ def _outer_section(outline, parts, cavity):
     return outer  # Section.build has checked the coordinate range too
 
 
+class _Own:
+    """A structure's own geometry for one kind and width of cavity, made on
+    first use: its Section, edges as shapely segments, polygon (prepared),
+    touching tolerance, rim band, the tree of its slanted edges and its
+    overhung edges. Private to this module; values as the functions that
+    used to make them at every call."""
+
+    def __init__(self, outer):
+        self.outer = outer
+        self.validated = False
+
+    @cached_property
+    def segments(self):
+        return _segments(self.outer.outline)
+
+    @cached_property
+    def polygon(self):
+        import shapely
+
+        poly = shapely.Polygon(self.outer.outline)
+        shapely.prepare(poly)
+        return poly
+
+    @cached_property
+    def tolerance(self):
+        return _tolerance(self.outer.outline)
+
+    @cached_property
+    def rim(self):
+        import shapely
+
+        rim = shapely.buffer(self.polygon.exterior, 4.0 * self.tolerance)
+        shapely.prepare(rim)
+        return rim
+
+    @cached_property
+    def slanted_tree(self):
+        """(indices of the edges with dx != 0, an STRtree of them)."""
+        import shapely
+
+        geo = self.outer.geometry
+        e = np.flatnonzero(geo.dx != 0)
+        p0 = self.outer.outline
+        p1 = np.roll(p0, -1, axis=0)
+        return e, shapely.STRtree(shapely.linestrings(np.stack([p0[e], p1[e]], axis=1)))
+
+    @cached_property
+    def overhung(self):
+        return _overhung(self.outer)
+
+
 def _segments(pts):
     import shapely
 
@@ -424,21 +500,24 @@ def _fmt(p):
     return f"({p[0]:.6g}, {p[1]:.6g}) m"
 
 
-def _check_encloses(pts, cavity):
+def _check_encloses(pts, cavity, own=None):
     """Raise StructureError unless the polygon ``pts`` holds the cavity
-    (see :meth:`Structure.check`)."""
+    (see :meth:`Structure.check`); ``own``: the structure's own geometry
+    (:class:`_Own` of ``pts``), reused if given."""
     import shapely
 
     cpts = cavity.outline
-    spoly = shapely.Polygon(pts)
+    if own is None:
+        own = _Own(Section(outline=pts, parts=(OUTER_WALL,) * len(pts), kind=cavity.kind,
+                           width=cavity.width, name="structure"))
+    spoly = own.polygon
     cpoly = shapely.Polygon(cpts)
-    tol = _tolerance(pts)
+    tol = own.tolerance
     is_open = np.array([p == OPEN for p in cavity.parts])
-    s_segs = _segments(pts)
+    s_segs = own.segments
     c_segs = _segments(cpts)
     open_union = shapely.union_all(c_segs[is_open]) if is_open.any() else None
 
-    shapely.prepare(spoly)
     shapely.prepare(cpoly)
     # 1. every cavity vertex inside the structure (or on it, within tol)
     maybe = np.flatnonzero(~shapely.contains_xy(spoly, cpts[:, 0], cpts[:, 1]))
@@ -507,8 +586,7 @@ def _check_encloses(pts, cavity):
                 "open edges)", edges=(si[k],), cavity_edges=(ci[k],), location=p)
     # 5. every open edge on the structure outline (it opens through the top)
     if open_union is not None:
-        rim = shapely.buffer(spoly.exterior, 4.0 * tol)
-        shapely.prepare(rim)
+        rim = own.rim
         opens = np.flatnonzero(is_open)
         covered = ~shapely.covers(rim, c_segs[opens])
         if covered.any():
@@ -832,14 +910,15 @@ def exterior_geometry(structure: Structure, cavity: Section, *,
     """
     if not checked:
         structure.check(cavity)
-    outer = structure.section(cavity)
+    own = structure._own(cavity)
+    outer = own.outer
     seg, owner = _soil_segments(outer, cavity)
-    floor_edges, pieces = _base_pieces(outer, cavity)
+    floor_edges, pieces = _base_pieces(outer, cavity, own.slanted_tree)
     for a in (seg, owner, pieces):
         a.setflags(write=False)
     return ExteriorGeometry(structure=structure, cavity=cavity, outer=outer,
                             self_weight=self_weight(structure, cavity), soil_segments=seg,
-                            soil_owner=owner, overhung=_overhung(outer),
+                            soil_owner=owner, overhung=dict(own.overhung),
                             floor_edges=floor_edges, base_pieces=pieces)
 
 
@@ -937,7 +1016,7 @@ def _overhung(outer, max_pairs=1_000_000):
     return dict(sorted(out.items()))
 
 
-def _base_pieces(outer, cavity):
+def _base_pieces(outer, cavity, slanted_tree=None):
     """Floor edges and the stretches of them over a straight underside.
 
     Each floor edge is cut at the x of every outer vertex inside its span;
@@ -982,10 +1061,9 @@ def _base_pieces(outer, cavity):
     # slanted outer edges a vertical ray down from the floor meets.
     import shapely
 
-    e = np.flatnonzero(geo.dx != 0)
-    p0 = outer.outline
-    p1 = np.roll(p0, -1, axis=0)
-    tree = shapely.STRtree(shapely.linestrings(np.stack([p0[e], p1[e]], axis=1)))
+    if slanted_tree is None:
+        slanted_tree = _Own(outer).slanted_tree
+    e, tree = slanted_tree
     foot = outer.z_min - 1.0
     rays = shapely.linestrings(np.stack([np.column_stack([xm, zfm]),
                                          np.column_stack([xm, np.full_like(xm, foot)])], axis=1))

@@ -37,6 +37,7 @@ class OutlineLayer:
         self._plot = plot
         vb = plot.getViewBox()
         self._part_curves = {}
+        self._drawn = {}  # part name: (pen key, x, z) as last given to its curve
         # Above the view, outside the drawing (never over the outline).
         self._legend = legend_outside(plot, "top", label_size="9pt")
         self.highlight = pairs_curve(vb, pg.mkPen(HIGHLIGHT_COLOUR, width=7), 8)
@@ -68,7 +69,11 @@ class OutlineLayer:
         return self.mirror.isVisible()
 
     def draw(self, outline, parts, axisymmetric):
-        """Each part's edges as one curve in its colour, and the mirror."""
+        """Each part's edges as one curve in its colour, and the mirror.
+
+        A part whose edges and pen are as last drawn keeps its curve as it
+        is (a vertex drag moves the runs of at most two parts; the others
+        keep their path and cached pixmap)."""
         names = tuple(dict.fromkeys(parts))
         colours = part_colours(names)
         parts_arr = np.array(parts, dtype=object)
@@ -77,6 +82,7 @@ class OutlineLayer:
                 curve = self._part_curves.pop(name)
                 self._legend.removeItem(curve)
                 self._plot.removeItem(curve)
+                self._drawn.pop(name, None)
         for name in names:
             x, z = edge_segments(outline, np.flatnonzero(parts_arr == name))
             curve = self._part_curves.get(name)
@@ -88,8 +94,14 @@ class OutlineLayer:
                 curve.setZValue(10)
                 self._plot.addItem(curve)
                 self._part_curves[name] = curve
+            key = (colours[name], width, style)
+            last = self._drawn.get(name)
+            if last is not None and last[0] == key and np.array_equal(last[1], x) \
+                    and np.array_equal(last[2], z):
+                continue
             curve.setPen(pg.mkPen(colours[name], width=width, style=style))
             curve.setData(x, z)
+            self._drawn[name] = (key, x, z)
         self._legend.fit_columns(len(names))
         self._draw_mirror(outline, parts_arr, axisymmetric)
 

@@ -27,6 +27,7 @@ from wetline.app.model import editing
 from wetline.app.model.document import fill_range
 from wetline.app.model.gravity import format_gravity, gravity_from_display, gravity_label
 from wetline.app.window.layers_panel import LayerList
+from wetline.app.window.steady_labels import SteadyColumn
 from wetline.core.fill import FillError, capacity
 from wetline.core.liquids import (
     LISTED_LIQUIDS,
@@ -435,11 +436,12 @@ class TotalsPanel(QGroupBox):
         self._doc = document
         form = QFormLayout(self)
         self.values = {}
+        self._column = SteadyColumn()  # a new value relays out the dock only if it is wider
         for key, title in self.ROWS:
             label = QLabel("-")
             label.setTextInteractionFlags(Qt.TextSelectableByMouse)
             label.setAlignment(Qt.AlignRight | Qt.AlignVCenter)
-            self.values[key] = label
+            self.values[key] = self._column.add(label)
             form.addRow(title, label)
         self.layers = QLabel()
         self.layers.setWordWrap(True)
@@ -463,24 +465,26 @@ class TotalsPanel(QGroupBox):
         sec = s.section
         scope, scale = doc.force_scope(sec), doc.force_scale
         v = self.values
+        put = self._column.set_text
         solved = doc.solved_case
         factor = 1.0 if solved is None else solved.load_factor
-        v["case"].setText(doc.active_name + ("" if factor == 1.0
+        put(v["case"], doc.active_name + ("" if factor == 1.0
                                              else f" (load factor {format_number(factor)})"))
-        v["level"].setText(u.fmt_length(s.level))
+        put(v["level"], u.fmt_length(s.level))
         area = u.units.text(s.volume / sec.width, "area")
-        v["volume"].setText(f"{u.fmt_volume(s.volume)}"
+        put(v["volume"], f"{u.fmt_volume(s.volume)}"
                             + ("" if sec.kind == "axisymmetric" else f" ({area} of section)"))
-        v["weight"].setText(scope.text(s.fluid_weight, scale=scale))
-        v["floor"].setText(scope.text(s.floor_force, scale=scale))
+        put(v["weight"], scope.text(s.fluid_weight, scale=scale))
+        put(v["floor"], scope.text(s.floor_force, scale=scale))
         held = s.support_reaction < -1e-9 * max(s.fluid_weight, 1e-300)
-        v["support"].setText(scope.text(s.support_reaction, scale=scale)
+        put(v["support"], scope.text(s.support_reaction, scale=scale)
                              + ("  (held down)" if held else ""))
         if held != getattr(self, "_held", None):  # a style sheet change is costly
             self._held = held
             v["support"].setStyleSheet("color: #8e24aa; font-weight: 600;" if held else "")
-        v["max_pressure"].setText(u.fmt_pressure(s.max_pressure))
-        v["spill"].setText(u.fmt_length(sec.spill_level) if sec.spill_level is not None
+            self._column.fit(v["support"])  # bold text is wider
+        put(v["max_pressure"], u.fmt_pressure(s.max_pressure))
+        put(v["spill"], u.fmt_length(sec.spill_level) if sec.spill_level is not None
                            else "none (closed)")
         self.layers.setText(layer_totals_text(s, u, scope, scale))
         self.layers.setVisible(bool(self.layers.text()))

@@ -41,6 +41,7 @@ from PySide6.QtWidgets import (
 from wetline.app.model import editing
 from wetline.app.render.style import MUTED, NOT_OK_COLOUR, OK_COLOUR
 from wetline.app.window.panels import parse_number
+from wetline.app.window.steady_labels import SteadyColumn
 from wetline.core.case import CaseError
 from wetline.core.load_cases import TRAPPED, VENTED
 from wetline.core.numbers import format_number
@@ -150,6 +151,10 @@ class _PartRow:
         for label in (self.now, self.worst):
             label.setTextFormat(Qt.RichText)
             label.setTextInteractionFlags(Qt.TextSelectableByMouse)
+        # a new verdict relays out the panel only if it is wider than any before
+        self.steady = SteadyColumn()
+        self.steady.add(self.now)
+        self.steady.add(self.worst)
         self.shown = {}  # field -> text written into the edit
 
     def widgets(self):
@@ -341,16 +346,16 @@ class UpliftPanel(QGroupBox):
             if r is None:
                 load = sol.parts.get(part)
                 lifted = load is not None and load.down < 0
-                row.now.setText(f'<span style="color:{MUTED};">-</span>')
-                row.worst.setText("")
+                row.steady.set_text(row.now, f'<span style="color:{MUTED};">-</span>')
+                row.steady.set_text(row.worst, "")
                 row.now.setToolTip("Enter a self-weight or holding-down resistance to check "
                                    "this part" + (" (it is pushed up now)" if lifted else ""))
                 continue
             level_now = units.fmt_length(sol.level)
             level_worst = units.fmt_length(r.worst_level)
-            row.now.setText(verdict_html(r.ok_now, r.factor))
+            row.steady.set_text(row.now, verdict_html(r.ok_now, r.factor))
             row.now.setToolTip(f"Factor at the current level {level_now}")
-            row.worst.setText(verdict_html(r.ok, r.worst_factor, level_worst))
+            row.steady.set_text(row.worst, verdict_html(r.ok, r.worst_factor, level_worst))
             row.worst.setToolTip("The level in the fill range with the greatest uplift")
             lines.append(
                 f"{part}: resistance {scope.text(r.resistance)}; uplift "
