@@ -16,13 +16,15 @@ from PySide6.QtCore import QRectF, Qt, Signal
 from PySide6.QtGui import QPainterPath
 from PySide6.QtWidgets import QGraphicsItem
 
+from wetline.app.window.vertex_handles import PickedDrag
+
 __all__ = ["InterfaceGrips", "GRIP_PX"]
 
 GRIP_PX = 6.0
 """Half the height of an interface's grip [px]."""
 
 
-class InterfaceGrips(pg.GraphicsObject):
+class InterfaceGrips(PickedDrag, pg.GraphicsObject):
     """Grips along the layer interfaces (data coordinates [m]).
 
     Signals carry the interface's index (0 = the top of the bottom layer)
@@ -39,7 +41,6 @@ class InterfaceGrips(pg.GraphicsObject):
         self._spans = []
         self._mirror = False
         self._rect = QRectF()
-        self._dragging = None
         self.setCursor(Qt.SizeVerCursor)
         # Inside the view box (which clips its children) Qt takes an item's
         # clip path for its hit area: clipped to its shape, that is the grips.
@@ -120,28 +121,11 @@ class InterfaceGrips(pg.GraphicsObject):
         """Nothing: the load layer draws the interfaces."""
 
     # ------------------------------------------------------------ mouse
-    def mouseDragEvent(self, ev):
-        if ev.button() != Qt.LeftButton:
-            ev.ignore()
-            return
-        if ev.isStart():
-            pos = ev.buttonDownPos()
-            k = self.pick(pos.x(), pos.y())
-            if k is None:
-                ev.ignore()
-                return
-            self._dragging = k
-            self.dragStarted.emit(k, pos.x(), pos.y())
-        elif self._dragging is None:
-            ev.ignore()
-            return
-        ev.accept()
-        p = ev.pos()
-        if ev.isFinish():
-            k, self._dragging = self._dragging, None
-            self.dragFinished.emit(k, p.x(), p.y())
-        else:
-            self.dragMoved.emit(self._dragging, p.x(), p.y())
+    def grab_at(self, x, z):
+        return self.pick(x, z)
+
+    def started_with(self, index, pos):
+        return (index, pos.x(), pos.y())
 
     @property
     def dragging(self):

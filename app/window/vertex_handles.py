@@ -6,13 +6,53 @@ import numpy as np
 import pyqtgraph as pg
 from PySide6.QtCore import Qt, Signal
 
-__all__ = ["VertexHandles", "MAX_HANDLES"]
+__all__ = ["PickedDrag", "VertexHandles", "MAX_HANDLES"]
 
 MAX_HANDLES = 3000
 """Above this many vertices the handles are hidden (edit in the table)."""
 
 
-class VertexHandles(pg.ScatterPlotItem):
+class PickedDrag:
+    """The left-button drag of a canvas item that picks what it grabs: the
+    press picks an index with ``grab_at(x, z)`` (data coordinates [m]; None:
+    the drag is left to the view, which pans), then ``dragStarted``,
+    ``dragMoved`` and ``dragFinished`` follow with that index and the
+    pointer's position. ``started_with(index, pos)`` gives the arguments of
+    ``dragStarted`` (default: the index alone)."""
+
+    _dragging = None
+
+    def grab_at(self, x, z):
+        raise NotImplementedError
+
+    def started_with(self, index, pos):
+        return (index,)
+
+    def mouseDragEvent(self, ev):
+        if ev.button() != Qt.LeftButton:
+            ev.ignore()
+            return
+        if ev.isStart():
+            pos = ev.buttonDownPos()
+            k = self.grab_at(pos.x(), pos.y())
+            if k is None:
+                ev.ignore()
+                return
+            self._dragging = k
+            self.dragStarted.emit(*self.started_with(k, pos))
+        elif self._dragging is None:
+            ev.ignore()
+            return
+        ev.accept()
+        p = ev.pos()
+        if ev.isFinish():
+            k, self._dragging = self._dragging, None
+            self.dragFinished.emit(k, p.x(), p.y())
+        else:
+            self.dragMoved.emit(self._dragging, p.x(), p.y())
+
+
+class VertexHandles(PickedDrag, pg.ScatterPlotItem):
     """Draggable vertex handles (the CustomGraphItem pattern: the item
     handles its own drags, so the view pans when no vertex is grabbed).
 
@@ -27,31 +67,10 @@ class VertexHandles(pg.ScatterPlotItem):
         super().__init__(size=9, pen=pg.mkPen("#203040", width=1.2),
                          brush=pg.mkBrush("#ffffff"), pxMode=True)
         self._pick = pick
-        self._dragging = None
         self.setZValue(40)
 
-    def mouseDragEvent(self, ev):
-        if ev.button() != Qt.LeftButton:
-            ev.ignore()
-            return
-        if ev.isStart():
-            pos = ev.buttonDownPos()
-            i = self._pick(pos.x(), pos.y())
-            if i is None:
-                ev.ignore()
-                return
-            self._dragging = i
-            self.dragStarted.emit(i)
-        elif self._dragging is None:
-            ev.ignore()
-            return
-        ev.accept()
-        p = ev.pos()
-        if ev.isFinish():
-            i, self._dragging = self._dragging, None
-            self.dragFinished.emit(i, p.x(), p.y())
-        else:
-            self.dragMoved.emit(self._dragging, p.x(), p.y())
+    def grab_at(self, x, z):
+        return self._pick(x, z)
 
     def set_positions(self, pos):
         """Show handles at ``pos`` ((N, 2) [m]). When only a few moved (a
