@@ -208,7 +208,7 @@ class LoadChart(pg.PlotWidget):
             # (A drag step whose curves fit the view keeps the axes: fitting
             # them again every step relabels and repaints both axes.)
             self._fit_view(vb, section, x, ys)
-        layered = len(getattr(self._doc.active_load_case, "layers", None) or ()) > 1
+        layered = len(self._doc.active_load_case.layers or ()) > 1
         labels = (f"Level [{u.length_unit}]"
                   + (" (the top layer rising over the layers below)" if layered else ""),
                   f"Load [{scope.label}]")

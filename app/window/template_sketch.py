@@ -107,6 +107,7 @@ class TemplateSketch(QWidget):
         self._unit = "m"
         self._factor = 1.0
         self._listed = []
+        self._span_texts = []
         self.texts = []
         """The dimension texts of the sketch ("Wet well width 2.4 m"), in the
         template's order: on the outline, or listed under it."""
@@ -131,7 +132,8 @@ class TemplateSketch(QWidget):
         self._listed = [
             f"{d.label} {format_entered(values[d.key] / self._factor)} {self._unit}"
             for d in template.dimensions if d.key not in found]
-        by_key = {sp.key: self._text(sp) for sp in spans}
+        self._span_texts = [self._text(sp) for sp in spans]
+        by_key = {sp.key: t for sp, t in zip(spans, self._span_texts, strict=True)}
         listed = iter(self._listed)
         self.texts = [by_key[d.key] if d.key in by_key else next(listed)
                       for d in template.dimensions]
@@ -154,7 +156,7 @@ class TemplateSketch(QWidget):
         pts = s.outline
         font = pixel_font(12)
         fm = QFontMetricsF(font)
-        texts = [self._text(sp) for sp in self._spans]
+        texts = self._span_texts
         listed_h = len(self._listed) * fm.height()
         h_spans = [k for k, sp in enumerate(self._spans) if sp.axis == 0]
         v_spans = [k for k, sp in enumerate(self._spans) if sp.axis == 1]
