@@ -7,7 +7,7 @@ import sys
 import traceback
 from pathlib import Path
 
-__all__ = ["launch", "excepthook", "default_case", "bundled_sample"]
+__all__ = ["launch", "open_main_window", "excepthook", "default_case", "bundled_sample"]
 
 SAMPLE_NAME = "sump_with_lid.section.json"
 """The bundled section the program opens on when given no file."""
@@ -54,15 +54,21 @@ def excepthook(exc_type, exc, tb):
         pass
 
 
-def launch(path=None):
-    """Open the main window on ``path`` (or the bundled sample) and run the
-    event loop; return the exit status.
+def open_main_window(path=None):
+    """(app, window): the application and the main window on ``path`` (or
+    the bundled sample), built but not yet shown.
 
+    The document is read before Qt is imported: PySide6 hooks every import
+    that follows its own (it reads each module's source to look for its
+    feature switches), so numpy, shapely and the core load faster first.
     A ``path`` given opens with that file as the document's file (an
     absolute path, so Save writes there whatever the working directory
     later is); if it cannot be read, the window says why and shows the
-    bundled sample instead. Recovery copies left by a crash are offered
-    once the window shows (:mod:`wetline.app.model.recovery`)."""
+    bundled sample instead."""
+    # The sample opens without its path, so Save asks where (the bundled
+    # file is never overwritten by accident).
+    case, _sample_path = default_case()
+
     from PySide6.QtWidgets import QApplication
 
     from wetline.app.model import recovery
@@ -72,16 +78,22 @@ def launch(path=None):
     app = QApplication.instance() or QApplication(sys.argv[:1])
     app.setApplicationName("Wetline")
     app.setOrganizationName("Wetline")
-    sys.excepthook = excepthook
-    case, _sample_path = default_case()
-    # The sample opens without its path, so Save asks where (the bundled
-    # file is never overwritten by accident).
     window = MainWindow(case, None, saved=True, recovery_folder=recovery.default_folder())
     if path is not None:
         path = os.path.abspath(os.fspath(path))
         if not window.open_path(path, ask=False):
             dialogs.show_error(window, "Wetline",
                                f"Started on the bundled sample instead of {path}.")
+    return app, window
+
+
+def launch(path=None):
+    """Open the main window on ``path`` (or the bundled sample, see
+    :func:`open_main_window`) and run the event loop; return the exit
+    status. Recovery copies left by a crash are offered once the window
+    shows (:mod:`wetline.app.model.recovery`)."""
+    sys.excepthook = excepthook
+    app, window = open_main_window(path)
     window.show()
     window.offer_recovery()
     return app.exec()
