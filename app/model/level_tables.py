@@ -24,12 +24,18 @@ from wetline.core.pressure_law import PressureLaw
 __all__ = ["case_level_tables"]
 
 
-def case_level_tables(design: Design, active: int,
-                      levels: NDArray[np.float64]) -> tuple[LevelTable, ...]:
+def case_level_tables(design: Design, active: int, levels: NDArray[np.float64],
+                      solved_levels: int | None = None) -> tuple[LevelTable, ...]:
     """The chart's tables of case ``active`` of ``design`` at ``levels`` [m]
     (ascending, from the lowest point to the spill or top level): pockets
     vented first, then trapped where the section can trap air. With layers
-    the levels start just above the top interface."""
+    the levels start just above the top interface.
+
+    ``solved_levels``, if given, caps the number of levels where the tables
+    are solved level by level (layers, a gas, trapped air: a pocket solve
+    and an exact integration at each, about 0.1 to 0.5 ms a level), over the
+    same range: a drag's preview, whose full table follows on release. The
+    closed-form table of one vented liquid keeps every level."""
     r = design.resolve(design.names[active])
     c = r.case
     section = c.section
@@ -41,6 +47,10 @@ def case_level_tables(design: Design, active: int,
     if law is None:
         law = PressureLaw.single(c.liquid.density, float(levels[-1]), c.gravity)
     levels = np.asarray(levels, dtype=np.float64)
+    if solved_levels is not None and levels.size > max(int(solved_levels), 2):
+        ends = float(levels[0]), float(levels[-1])
+        levels = np.linspace(*ends, max(int(solved_levels), 2))
+        levels[-1] = ends[1]  # the spill level, exactly
     if law.interfaces:
         top = law.interfaces[-1]
         hi = float(levels[-1])

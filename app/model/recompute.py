@@ -40,8 +40,9 @@ follows on release."""
 
 
 PREVIEW_MIN_STEPS = 11
-"""Levels of the chart's table during a drag at least (the full table
-follows on release)."""
+"""Levels of the chart's table during a drag at least, and at most where
+the table is solved level by level (layers, a gas, trapped air); the full
+table follows on release."""
 
 
 def preview_steps(n_edges: int) -> int:
@@ -174,7 +175,9 @@ class Recompute:
                 levels = np.linspace(lo, hi, steps)
                 if section.is_open:
                     levels[-1] = section.spill_level
-                self.level_tables = case_level_tables(design, self._active, levels)
+                self.level_tables = case_level_tables(
+                    design, self._active, levels,
+                    solved_levels=None if preview is None else PREVIEW_MIN_STEPS)
                 self.level_table = self.level_tables[0]
             with span("other views"):
                 self.levelTableReady.emit(self.level_table)

@@ -62,13 +62,20 @@ INVALID_FIELD_STYLE = (f"QLineEdit {{ border: 1px solid {NOT_OK_COLOUR}; "
 FIELDS = ("self_weight", "holding_down")
 
 
-def verdict_html(ok, factor, level_text=None):
+SAMPLED_TIP = ("Sampled at a few levels while the outline is dragged (the worst "
+               "uplift may be a little larger); searched in full on release")
+
+
+def verdict_html(ok, factor, level_text=None, sampled=False):
     """Rich text of one verdict: a coloured tag and below it the factor and,
-    optionally, the level it applies at."""
+    optionally, the level it applies at; ``sampled`` marks the factor as
+    approximate (a worst level sampled during a drag: "~")."""
     colour = OK_COLOUR if ok else NOT_OK_COLOUR
     tag = (f'<span style="background-color:{colour}; color:white; font-weight:600;">'
            f'&nbsp;{"OK" if ok else "NOT OK"}&nbsp;</span>')
     value = "no uplift" if math.isinf(factor) else format_number(factor)
+    if sampled:
+        value = "~" + value
     text = f"{tag}<br>{value}"
     if level_text:
         text += f' <span style="color:{MUTED};">at {html.escape(level_text)}</span>'
@@ -102,12 +109,18 @@ class UpliftChecker:
     def __init__(self):
         self._key = None
         self._worst = {}
+        self.sampled = False
+        """True if the last check's worst levels were sampled, not searched
+        (trapped air during a drag: a lower bound, searched on release)."""
 
-    def check(self, case, solution):
+    def check(self, case, solution, live=False):
         """The same list of :class:`wetline.core.uplift.UpliftResult` as
         ``case.uplift(solution)``; under a law with layers, a gas or trapped
         air, the worst level searched for that law (both pocket assumptions
-        where air is trapped, :func:`wetline.core.uplift.worst_uplifts_for`)."""
+        where air is trapped, :func:`wetline.core.uplift.worst_uplifts_for`).
+
+        ``live`` (a dragged outline's preview, a new outline at every step):
+        the trapped-air search is sampled, not refined, and not kept."""
         section = case.section
         density, gravity = case.liquid.density, case.gravity
         law = solution.law
@@ -123,13 +136,19 @@ class UpliftChecker:
         resistances = case.resistance_map
         missing = [p for p in section.loaded_part_names
                    if p in resistances and p not in self._worst]
-        if missing:
+        worst = self._worst
+        sampled = live and general and solution.pocket_mode == TRAPPED \
+            and section.pocket_tree.may_trap
+        if missing and sampled:
+            worst = {**worst, **worst_uplifts_for(solution, missing, refine=False)}
+        elif missing:
             if general:
                 self._worst.update(worst_uplifts_for(solution, missing))
             else:
                 self._worst.update(worst_uplifts(section, missing, density, gravity))
+        self.sampled = bool(missing) and sampled
         return uplift_check(case, resistances, case.required_uplift_factor, solution,
-                            worst=self._worst)
+                            worst=worst)
 
 
 class _PartRow:
@@ -336,7 +355,9 @@ class UpliftPanel(QGroupBox):
                 case = case.with_section(sol.section)
             except ValueError:
                 return
-        self.results = self._checker.check(case, sol) if case.resistances else []
+        live = doc.preview is not None
+        self.results = self._checker.check(case, sol, live) if case.resistances else []
+        sampled = self._checker.sampled and bool(self.results)
         by_part = {r.part: r for r in self.results}
         units = doc.units
         scope, scale = doc.force_scope(case.section), doc.force_scale
@@ -355,12 +376,15 @@ class UpliftPanel(QGroupBox):
             level_worst = units.fmt_length(r.worst_level)
             row.steady.set_text(row.now, verdict_html(r.ok_now, r.factor))
             row.now.setToolTip(f"Factor at the current level {level_now}")
-            row.steady.set_text(row.worst, verdict_html(r.ok, r.worst_factor, level_worst))
-            row.worst.setToolTip("The level in the fill range with the greatest uplift")
+            row.steady.set_text(row.worst, verdict_html(r.ok, r.worst_factor, level_worst,
+                                                        sampled))
+            row.worst.setToolTip(SAMPLED_TIP if sampled else
+                                 "The level in the fill range with the greatest uplift")
             lines.append(
                 f"{part}: resistance {scope.text(r.resistance)}; uplift "
                 f"{scope.text(r.uplift, scale=scale)} now, "
-                f"{scope.text(r.worst_uplift)} at {level_worst} (worst, air "
+                f"{scope.text(r.worst_uplift)} at {level_worst} "
+                f"({'worst of a few levels while dragging' if sampled else 'worst'}, air "
                 f"{r.worst_pockets}); required {format_number(r.required_factor)}")
         if self.results:
             lines.append(pockets_statement(sol, self.results))

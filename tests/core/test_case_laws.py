@@ -271,6 +271,25 @@ def test_uplift_check_states_its_assumption_and_searches_both():
     assert rt.uplift == pytest.approx(2 * 1000 * G0 * (3.5 - bell_interface(3.5)), rel=1e-9)
 
 
+def test_a_sampled_trapped_search_is_a_lower_bound_exact_at_its_level():
+    # The drag preview's search (refine=False) samples the range: what it
+    # finds is the uplift at a real level (Boyle's law for the roof's air,
+    # the bell_interface closed form), never more than the full search's.
+    from wetline.core.uplift import worst_uplifts_for
+
+    s = chamber()
+    for level in (2.2, 3.5):
+        d = design(s, LoadCase("trapped", pockets="trapped", fill_level=level))
+        sol = d.resolve("trapped").solve()
+        full = worst_uplifts_for(sol, ["roof", "floor"])
+        quick = worst_uplifts_for(sol, ["roof", "floor"], refine=False)
+        for part in ("roof", "floor"):
+            assert quick[part][1] <= full[part][1] * (1 + 1e-12)
+        h, up, pockets = quick["roof"]
+        assert pockets == "trapped" and h == pytest.approx(4.0)  # the range's end is sampled
+        assert up == pytest.approx(2 * 1000 * G0 * (h - bell_interface(h)), rel=1e-9)
+
+
 def test_level_tables_give_both_assumptions_where_air_can_be_trapped():
     s = chamber()
     d = design(s, LoadCase("c"), level=3.0)

@@ -127,3 +127,46 @@ def test_real_mouse_drag_updates_totals_before_release(make_window, settle):
     settle(w)
     assert w.doc.undo_stack.count() == 1
     assert w.totals.values["volume"].text() == texts[-1]
+
+
+def test_trapped_air_drag_samples_the_chart_and_the_worst_uplift_then_refines(
+        make_window, settle, sample):
+    # During a drag, the tables solved level by level (trapped air) take
+    # PREVIEW_MIN_STEPS levels and the uplift panel's worst level is sampled
+    # (marked "~"); on release both are computed in full. Each is checked
+    # against core's own functions on the dragged outline.
+    from wetline.app.model.recompute import CHART_STEPS, PREVIEW_MIN_STEPS
+    from wetline.app.window.uplift_panel import SAMPLED_TIP
+    from wetline.core.level_table import law_level_table
+    from wetline.core.section_file import read_design
+    from wetline.core.uplift import worst_uplifts_for
+
+    w = make_window(read_design(sample("chamber_with_lip")))
+    doc = w.doc
+    doc.select_case(2)  # riser half full, air trapped under the roof
+    settle(w)
+    assert doc.solution.pocket_mode == "trapped"
+    x, z = doc.section.outline[1]
+    w.canvas.handles.dragStarted.emit(1)
+    _drag_to(w, 1, float(x), float(z) - 0.1, settle)
+    sol = doc.solution
+    assert sol.section is not doc.section  # the preview's
+    vented, trapped = doc.level_tables
+    assert vented.levels.size == trapped.levels.size == PREVIEW_MIN_STEPS
+    r = doc.design.resolve(doc.design.names[2])
+    expect = law_level_table(sol.section, r.law.with_level(float(trapped.levels[-1])),
+                             levels=trapped.levels, pockets="trapped",
+                             atmospheric_pressure=r.atmospheric_pressure)
+    assert np.array_equal(trapped.part_down["roof"], expect.part_down["roof"])
+    _now, worst = w.uplift_panel.row_texts("roof")
+    quick = worst_uplifts_for(sol, ["roof"], refine=False)["roof"]
+    assert "~" in worst and w.uplift_panel._rows["roof"].worst.toolTip() == SAMPLED_TIP
+    assert w.uplift_panel.results[0].worst_uplift == quick[1]
+    w.canvas.handles.dragFinished.emit(1, float(x), float(z) - 0.1)
+    settle(w)
+    assert doc.preview is None and doc.solution.section is doc.section
+    assert all(t.levels.size == CHART_STEPS for t in doc.level_tables)
+    _now, worst = w.uplift_panel.row_texts("roof")
+    full = worst_uplifts_for(doc.solution, ["roof"])["roof"]
+    assert "~" not in worst and w.uplift_panel.results[0].worst_uplift == full[1]
+    assert full[1] >= quick[1]
