@@ -407,8 +407,8 @@ def solve_text(solved, units_name="si", names=()):
     if len(names) > 1:
         lines.append(f"  load case {solved.name!r} ({r.index + 1} of {len(names)}: "
                      f"{', '.join(repr(n) for n in names)})")
-    lines.append(f"  {sec.kind} section, {sec.n_edges} edges; forces in {scope.label} "
-                 f"{scope.words}")
+    lines.append(f"  {sec.kind} section, {sec.n_edges} edges; forces {scope.words} "
+                 f"({scope.label})")
     if len(sol.layers) <= 1:
         lines.append(f"  liquid: {liquid.name}, {u.text(liquid.density, 'density', 5)} "
                      f"({liquid.source})")
@@ -482,8 +482,8 @@ def cases_text(design, solved, units_name="si"):
     scope = force_scope(sec, u, design.case.length_unit)
     env = envelope(solved)
     lines = [f"{sec.name or 'Section'}: {len(solved)} load case{'s' * (len(solved) != 1)}",
-             f"  {sec.kind} section, {sec.n_edges} edges; forces in {scope.label} "
-             f"{scope.words}", ""]
+             f"  {sec.kind} section, {sec.n_edges} edges; forces {scope.words} "
+             f"({scope.label})", ""]
     table = cases_table(design, solved, u)
     lines += _render(table, ["<", "<"] + [">"] * 10 + ["<"] + [">"] * 2)
     lines.append("")

@@ -188,7 +188,7 @@ def test_us_units_on_a_unit_run_are_per_foot_run(capsys, tmp_path, unit, run_cas
     write_section_file(run_case(unit), path)
     status, out, _ = run(capsys, "solve", str(path), "--units", "us")
     assert status == 0
-    assert "forces in lbf/ft per ft run" in out and "per m run" not in out
+    assert "forces per ft run (lbf/ft)" in out and "per m run" not in out
     floor = next(line for line in out.splitlines() if line.strip().startswith("floor force"))
     assert floor.split()[2:4] == ["2016", "lbf/ft"]
     assert "fx [lbf/ft]" in out
