@@ -253,12 +253,24 @@ class CaseListPanel(QWidget):
         document.fillChanged.connect(self._show_fill_choice)  # at every slider step: light
         self.model.modelReset.connect(self._select_active)
         self.model.modelReset.connect(self._fit_columns)
+        self.model.dataChanged.connect(self._grow_columns)
+        document.unitsChanged.connect(self._fit_columns)
         self._fit_columns()
         self._write_back()
 
     def _fit_columns(self):
         for c in (1, 2, 3):
             self.table.resizeColumnToContents(c)
+
+    def _grow_columns(self, top_left, bottom_right, *_):
+        """Widen a column to a changed cell that no longer fits (a slider
+        step changes a cell or two: measured alone, not the whole column)."""
+        for c in range(max(top_left.column(), 1), min(bottom_right.column(), 3) + 1):
+            width = self.table.columnWidth(c)
+            for r in range(top_left.row(), bottom_right.row() + 1):
+                if self.table.sizeHintForIndex(self.model.index(r, c)).width() > width:
+                    self.table.resizeColumnToContents(c)
+                    break
 
     # ------------------------------------------------------- document -> view
     def _select_active(self):

@@ -427,3 +427,27 @@ def test_dragging_a_structure_vertex_on_the_canvas(well, settle):
     settle(well)
     assert doc.design is before and doc.draft.target == "structure"
     assert well.canvas.outline_layer.fault_text.isVisible()
+
+
+def test_the_list_columns_grow_to_texts_that_grow(well, settle):
+    # In feet the Fill column's texts are longer ("spill (13.12 ft)" where
+    # it read "spill (4 m)"); the column must show them whole, not cut.
+    from wetline.app.model.display import DisplayChoice
+
+    table = well.case_list.table
+    m = well.case_list.model
+
+    def cut_cells():
+        cut = []
+        for c in (1, 2, 3):
+            for r in range(m.rowCount()):
+                need = table.sizeHintForIndex(m.index(r, c)).width()
+                if need > table.columnWidth(c):
+                    cut.append((r, c, _cell(m, r, c)))
+        return cut
+
+    assert cut_cells() == []
+    editing.set_units(well.doc, DisplayChoice("us", "ft"))
+    settle(well)
+    assert _cell(m, 1, 1) == "spill (13.12 ft)"
+    assert cut_cells() == []
