@@ -1,7 +1,7 @@
 """The canvas's text labels: asked for in order of importance while the
 loads are drawn, laid out in pixels by the one layout engine
 (:class:`wetline.app.render.labels.LabelLayout`) and shown with a small pool
-of ``pyqtgraph.TextItem``.
+of :class:`LabelItem` (a text in a box, drawn with ``QPainter.drawText``).
 
 The most important are asked for first (each part's total, largest first;
 the runs of parts loaded on several runs; the free surface and spill level;
@@ -18,19 +18,20 @@ from __future__ import annotations
 
 import numpy as np
 import pyqtgraph as pg
-from PySide6.QtCore import QTimer
-from PySide6.QtGui import QFont, QFontMetricsF
+from PySide6.QtCore import QRectF, Qt, QTimer
+from PySide6.QtGui import QFont, QFontMetricsF, QPainter
+from PySide6.QtWidgets import QGraphicsItem
 
 from wetline.app.model.step_timer import span
 from wetline.app.render.labels import LabelLayout
 
-__all__ = ["CanvasLabels", "LABEL_MARGIN", "MAX_HANDLE_OBSTACLES", "SAME_VALUE_PX",
+__all__ = ["CanvasLabels", "LabelItem", "LABEL_MARGIN", "MAX_HANDLE_OBSTACLES", "SAME_VALUE_PX",
            "SHAFT_CLEARANCE", "VIEW_EDGE", "NEAR_OFFSETS"]
 
 MAX_HANDLE_OBSTACLES = 120
 """Up to this many vertices, labels keep off the vertex handles."""
 LABEL_MARGIN = 4.0
-"""The text item's document margin around its text [px]."""
+"""The margin of a label's box around its text [px]."""
 LABEL_FILL = pg.mkBrush(255, 255, 255, 170)
 """Behind each label, so lines under it do not cross its text."""
 SAME_VALUE_PX = 150.0
@@ -45,6 +46,76 @@ _SIZE_CACHE = 2000
 """Text sizes kept before the cache starts again."""
 
 
+class LabelItem(QGraphicsItem):
+    """One label: a text in a translucent box of :data:`LABEL_MARGIN` around
+    it, in screen pixels whatever the zoom (``ItemIgnoresTransformations``),
+    placed by an anchor as ``pyqtgraph.TextItem`` is ((0, 0) its top left
+    at the position, (1, 1) its bottom right).
+
+    A new text costs one width from cached font metrics and a repaint of the
+    box: a live step changes most labels' texts, and a text document laid
+    out again for each (``pyqtgraph.TextItem``) was the dearest part of the
+    labels.
+    """
+
+    def __init__(self, fonts):
+        super().__init__()
+        self.setFlag(QGraphicsItem.GraphicsItemFlag.ItemIgnoresTransformations)
+        self._fonts = fonts  # (regular, bold): (QFont, QFontMetricsF) each
+        self._text = ""
+        self._pen = pg.mkColor("k")
+        self.bold = False
+        self.anchor = (0.0, 0.0)
+        self._size = (2 * LABEL_MARGIN, 2 * LABEL_MARGIN)
+        self._rect = QRectF(0.0, 0.0, *self._size)
+
+    def set_label(self, text, colour, bold):
+        """Show ``text`` in ``colour`` (anything ``pyqtgraph.mkColor`` takes),
+        demi-bold if ``bold``."""
+        fm = self._fonts[1 if bold else 0][1]
+        self._text, self.bold = text, bool(bold)
+        self._pen = pg.mkColor(colour)
+        self._size = (fm.horizontalAdvance(text) + 2 * LABEL_MARGIN,
+                      fm.height() + 2 * LABEL_MARGIN)
+        self._place_box()
+
+    def set_anchor(self, anchor):
+        """The anchor (ax, ay), fractions of the box's width and height."""
+        self.anchor = (float(anchor[0]), float(anchor[1]))
+        self._place_box()
+
+    def _place_box(self):
+        self.prepareGeometryChange()
+        w, h = self._size
+        self._rect = QRectF(-self.anchor[0] * w, -self.anchor[1] * h, w, h)
+        self.update()
+
+    def toPlainText(self):
+        """The text shown."""
+        return self._text
+
+    def box_in_scene(self):
+        """The box (text and margin) in scene coordinates (QRectF): its
+        pixels offset from the anchor's place (a pyqtgraph view's scene is
+        in the view's pixels; ``mapRectToScene`` would apply the data
+        transform this item ignores)."""
+        return self._rect.translated(self.scenePos())
+
+    def boundingRect(self):
+        return self._rect
+
+    def paint(self, painter, option, widget=None):
+        painter.setRenderHint(QPainter.RenderHint.Antialiasing, True)
+        painter.setPen(Qt.PenStyle.NoPen)
+        painter.setBrush(LABEL_FILL)
+        painter.drawRect(self._rect)
+        painter.setFont(self._fonts[1 if self.bold else 0][0])
+        painter.setPen(self._pen)
+        text = self._rect.adjusted(LABEL_MARGIN, LABEL_MARGIN, -LABEL_MARGIN, -LABEL_MARGIN)
+        painter.drawText(text, Qt.AlignmentFlag.AlignLeft | Qt.AlignmentFlag.AlignTop,
+                         self._text)
+
+
 class CanvasLabels:
     """The labels of one view box.
 
@@ -52,7 +123,7 @@ class CanvasLabels:
     ----------
     requests : list
         The labels asked for since :meth:`clear`, in order of importance.
-    items : list of pyqtgraph.TextItem
+    items : list of LabelItem
         The pool; the first :attr:`used` show labels.
     layout : LabelLayout
         The last layout (pixels, y up).
@@ -76,7 +147,10 @@ class CanvasLabels:
         """Boxes (x0, z0, x1, z1) [m] labels keep off whatever is drawn: the
         legend over the view (set by the canvas)."""
         self._sizes = {}
-        self._metrics = None
+        regular = QFont()
+        strong = QFont(regular)
+        strong.setWeight(QFont.DemiBold)
+        self._fonts = ((regular, QFontMetricsF(regular)), (strong, QFontMetricsF(strong)))
         self._timer = QTimer(parent)
         self._timer.setSingleShot(True)
         self._timer.setInterval(0)
@@ -178,18 +252,12 @@ class CanvasLabels:
         self.used = len(shown)
 
     def _text_size(self, text, bold):
-        """(width, height) [px] of a label's whole text item (text plus the
-        item's document margin), cached by text."""
+        """(width, height) [px] of a label's box (text plus margin), cached
+        by text."""
         key = (text, bold)
         size = self._sizes.get(key)
         if size is None:
-            if self._metrics is None:
-                probe = pg.TextItem()  # kept alive while its font is read
-                regular = QFont(probe.textItem.font())
-                strong = QFont(regular)
-                strong.setWeight(QFont.DemiBold)
-                self._metrics = (QFontMetricsF(regular), QFontMetricsF(strong))
-            fm = self._metrics[1 if bold else 0]
+            fm = self._fonts[1 if bold else 0][1]
             size = (fm.horizontalAdvance(text) + 2 * LABEL_MARGIN,
                     fm.height() + 2 * LABEL_MARGIN)
             if len(self._sizes) > _SIZE_CACHE:
@@ -207,19 +275,12 @@ class CanvasLabels:
     @staticmethod
     def _set(item, key, anchor, pos):
         """``item`` showing ``key`` (text, colour, bold) anchored at ``pos``."""
-        text, colour, bold = key
         if item._key != key:
             item._key = key
-            if item._bold != bold:  # plain text and a font: no HTML
-                item._bold = bold
-                font = QFont(item.textItem.font())
-                font.setWeight(QFont.DemiBold if bold else QFont.Normal)
-                item.textItem.setFont(font)
-            item.setText(text, color=colour)
+            item.set_label(*key)
         anchor = tuple(anchor)
-        if item._anchor != anchor:
-            item._anchor = anchor
-            item.setAnchor(anchor)
+        if item.anchor != anchor:
+            item.set_anchor(anchor)
         if item._pos != pos:
             item._pos = pos
             item.setPos(*pos)
@@ -227,12 +288,11 @@ class CanvasLabels:
             item.show()
 
     def _new_item(self):
-        """A new text item for the pool."""
-        item = pg.TextItem(fill=LABEL_FILL)
-        item._key = item._anchor = item._pos = None
-        item._bold = False
+        """A new label for the pool."""
+        item = LabelItem(self._fonts)
+        item._key = item._pos = None
         item.setZValue(35)
-        self._vb.addItem(item)
+        self._vb.addItem(item, ignoreBounds=True)
         self.items.append(item)
         return item
 

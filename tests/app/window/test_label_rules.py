@@ -23,7 +23,7 @@ def text_rects(canvas):
     """(text, scene rectangle of its text) of every label shown."""
     out = []
     for item in canvas.labels.items[:canvas.labels.used]:
-        r = item.mapRectToScene(item.textItem.mapRectToParent(item.textItem.boundingRect()))
+        r = item.box_in_scene()
         out.append((item.toPlainText(), r.adjusted(LABEL_MARGIN, LABEL_MARGIN,
                                                     -LABEL_MARGIN, -LABEL_MARGIN)))
     return out
@@ -109,7 +109,7 @@ def test_each_part_total_is_written_once_and_runs_name_their_edges(window_on):
     assert not any(t.startswith("wall:") and "total" not in t for t in shown)
     items = {i.toPlainText(): i for i in w.canvas.labels.items[:w.canvas.labels.used]}
     total, run = items[shown[1]], next(items[t] for t in shown if t.startswith("edge 2"))
-    assert total.textItem.font().bold() and not run.textItem.font().bold()
+    assert total.bold and not run.bold
 
 
 @pytest.mark.parametrize("name", ["chamber_with_lip", "buried_wet_well"])

@@ -17,7 +17,7 @@ def _text_rects(canvas):
     """Scene rectangles of the visible labels' text (without the margin)."""
     rects = []
     for item in canvas.labels.items[:canvas.labels.used]:
-        r = item.mapRectToScene(item.textItem.mapRectToParent(item.textItem.boundingRect()))
+        r = item.box_in_scene()
         rects.append((item.toPlainText(), r.adjusted(LABEL_MARGIN, LABEL_MARGIN,
                                                       -LABEL_MARGIN, -LABEL_MARGIN)))
     return rects

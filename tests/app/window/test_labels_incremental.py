@@ -16,7 +16,7 @@ def _labels(labels):
     out = []
     for item in labels.items[:labels.used]:
         assert item.isVisible()
-        r = item.mapRectToScene(item.textItem.mapRectToParent(item.textItem.boundingRect()))
+        r = item.box_in_scene()
         r = r.adjusted(LABEL_MARGIN, LABEL_MARGIN, -LABEL_MARGIN, -LABEL_MARGIN)
         out.append((item.toPlainText(), tuple(item.anchor),
                     tuple(round(v, 6) for v in (r.x(), r.y(), r.width(), r.height()))))
@@ -66,8 +66,8 @@ def test_a_label_whose_text_did_not_change_keeps_its_item(make_window, settle):
 
     first = spill_item()
     calls = []
-    real = first.setText
-    first.setText = lambda *a, **k: (calls.append(a), real(*a, **k))
+    real = first.set_label
+    first.set_label = lambda *a, **k: (calls.append(a), real(*a, **k))
     for v in (700, 400, 600):
         slider.setValue(v)
         settle(w)
