@@ -61,6 +61,7 @@ class LabelItem(QGraphicsItem):
     def __init__(self, fonts):
         super().__init__()
         self.setFlag(QGraphicsItem.GraphicsItemFlag.ItemIgnoresTransformations)
+        self.setCacheMode(QGraphicsItem.CacheMode.DeviceCoordinateCache)
         self._fonts = fonts  # (regular, bold): (QFont, QFontMetricsF) each
         self._text = ""
         self._pen = pg.mkColor("k")
