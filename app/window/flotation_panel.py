@@ -25,6 +25,7 @@ from PySide6.QtCore import Qt
 from PySide6.QtWidgets import QGridLayout, QGroupBox, QLabel, QVBoxLayout, QWidget
 
 from wetline.app.render.style import MUTED, NOT_OK_COLOUR, OK_COLOUR
+from wetline.app.window.steady_labels import SteadyParagraph
 from wetline.core.numbers import format_number
 
 __all__ = ["FlotationPanel"]
@@ -64,12 +65,14 @@ class FlotationPanel(QGroupBox):
         grid.setHorizontalSpacing(10)
         self.values = {}
         self.titles = {}
+        self._steady = {}
         for r, (key, title) in enumerate(ROWS):
             name = QLabel(title)
             value = QLabel()
             value.setTextFormat(Qt.RichText)
             value.setTextInteractionFlags(Qt.TextSelectableByMouse)
             value.setWordWrap(True)
+            self._steady[key] = SteadyParagraph(value)
             grid.addWidget(name, r, 0, Qt.AlignTop)
             grid.addWidget(value, r, 1)
             self.titles[key] = name
@@ -111,11 +114,10 @@ class FlotationPanel(QGroupBox):
 
     def _row(self, key, text, show=True):
         label = self.values[key]
-        if label.text() != text:
-            label.setText(text)
         for w in (label, self.titles[key]):
             if w.isHidden() == show:
                 w.setVisible(show)
+        self._steady[key].set_text(text)
 
     def _update_case(self):
         doc = self._doc

@@ -27,7 +27,7 @@ from wetline.app.model import editing
 from wetline.app.model.document import fill_range
 from wetline.app.model.gravity import format_gravity, gravity_from_display, gravity_label
 from wetline.app.window.layers_panel import LayerList
-from wetline.app.window.steady_labels import SteadyColumn
+from wetline.app.window.steady_labels import SteadyColumn, SteadyParagraph
 from wetline.core.fill import FillError, capacity
 from wetline.core.liquids import (
     LISTED_LIQUIDS,
@@ -447,6 +447,7 @@ class TotalsPanel(QGroupBox):
         self.layers.setWordWrap(True)
         self.layers.setTextInteractionFlags(Qt.TextSelectableByMouse)
         self.layers.hide()
+        self._layers_text = SteadyParagraph(self.layers)
         form.addRow(self.layers)
         self.scope = QLabel()
         self.scope.setStyleSheet("color: #445;")
@@ -486,8 +487,9 @@ class TotalsPanel(QGroupBox):
         put(v["max_pressure"], u.fmt_pressure(s.max_pressure))
         put(v["spill"], u.fmt_length(sec.spill_level) if sec.spill_level is not None
                            else "none (closed)")
-        self.layers.setText(layer_totals_text(s, u, scope, scale))
-        self.layers.setVisible(bool(self.layers.text()))
+        text = layer_totals_text(s, u, scope, scale)
+        self.layers.setVisible(bool(text))
+        self._layers_text.set_text(text)
         self.scope.setText(f"Forces {scope.words}. Support reaction: what the "
                            "supports carry downward; negative means held down.")
 

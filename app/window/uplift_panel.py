@@ -41,7 +41,7 @@ from PySide6.QtWidgets import (
 from wetline.app.model import editing
 from wetline.app.render.style import MUTED, NOT_OK_COLOUR, OK_COLOUR
 from wetline.app.window.panels import parse_number
-from wetline.app.window.steady_labels import SteadyColumn
+from wetline.app.window.steady_labels import SteadyColumn, SteadyParagraph
 from wetline.core.case import CaseError
 from wetline.core.load_cases import TRAPPED, VENTED
 from wetline.core.numbers import format_number
@@ -207,6 +207,7 @@ class UpliftPanel(QGroupBox):
         self.details.setWordWrap(True)
         self.details.setStyleSheet("color: #445;")
         self.details.setTextInteractionFlags(Qt.TextSelectableByMouse)
+        self._details = SteadyParagraph(self.details)
         lay.addWidget(self.details)
 
         row = QHBoxLayout()
@@ -391,7 +392,7 @@ class UpliftPanel(QGroupBox):
         if not lines:
             lines.append("Enter a self-weight or holding-down resistance of a part to check "
                          f"it against uplift. Forces {scope.words} ({scope.label}).")
-        self.details.setText("\n".join(lines))
+        self._details.set_text("\n".join(lines))
 
     # ------------------------------------------------------- view -> document
     def _show_errors(self):
