@@ -2,7 +2,7 @@
 
 While a document has unsaved changes, an :class:`Autosaver` writes a copy
 of it into the recovery folder (the user's application data folder,
-``QStandardPaths.AppDataLocation`` / ``recovery``; never beside the user's
+``QStandardPaths.StandardLocation.AppDataLocation`` / ``recovery``; never beside the user's
 own file): shortly after the first edit (:data:`FIRST_DELAY_S`), then at
 most once per interval (:data:`DEFAULT_INTERVAL_S`, settable, 0 = off). A
 clean save, or a close or an open that discards the changes, removes it.
@@ -104,7 +104,7 @@ class RecoveryCopy:
 
 def default_folder() -> Path:
     """The recovery folder: ``recovery`` in the user's application data
-    folder (QStandardPaths.AppDataLocation, e.g. ``~/.local/share/Wetline/
+    folder (QStandardPaths.StandardLocation.AppDataLocation, e.g. ``~/.local/share/Wetline/
     Wetline/recovery`` on Linux)."""
     base = QStandardPaths.writableLocation(QStandardPaths.StandardLocation.AppDataLocation)
     return Path(base) / "recovery"

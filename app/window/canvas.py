@@ -296,7 +296,8 @@ class SectionCanvas(CanvasView, CanvasPointer, pg.PlotWidget):
                 items += [v for v in values if isinstance(v, QGraphicsItem)]
         dragging = self._doc.preview is not None
         for item, cache in [(item, True) for item in items] + [(self.handles, not dragging)]:
-            mode = QGraphicsItem.DeviceCoordinateCache if cache else QGraphicsItem.NoCache
+            cm = QGraphicsItem.CacheMode
+            mode = cm.DeviceCoordinateCache if cache else cm.NoCache
             if item.cacheMode() != mode:
                 item.setCacheMode(mode)
 

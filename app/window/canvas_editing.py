@@ -220,13 +220,13 @@ class OutlineEditor:
     def on_click(self, x, z, button, double, screen_pos):
         """A click at (x, z) [m] with ``button``."""
         if self._canvas.mode == "draw":
-            if button == Qt.LeftButton:
+            if button == Qt.MouseButton.LeftButton:
                 self.draw_click(x, z, double)
             return
-        if button == Qt.RightButton:
+        if button == Qt.MouseButton.RightButton:
             self._context_menu(x, z, screen_pos)
             return
-        if button != Qt.LeftButton:
+        if button != Qt.MouseButton.LeftButton:
             return
         v = self.pick_vertex(x, z)
         if v is not None and not double:
@@ -319,25 +319,25 @@ class OutlineEditor:
     def on_key(self, key):
         """Handle ``key``; False if it is not the editor's."""
         if self._canvas.mode == "draw":
-            if key in (Qt.Key_Return, Qt.Key_Enter):
+            if key in (Qt.Key.Key_Return, Qt.Key.Key_Enter):
                 self.finish_drawing()
                 return True
-            if key == Qt.Key_Escape:
+            if key == Qt.Key.Key_Escape:
                 self.cancel_drawing()
                 return True
-            if key == Qt.Key_Backspace and self.drawn:
+            if key == Qt.Key.Key_Backspace and self.drawn:
                 self.drawn.pop()
                 self._canvas.outline_layer.show_sketch(self.drawn)
                 return True
         c = self._canvas
         step = c.snap_spacing if c.snap_enabled else 0.01 * max(
             np.ptp(self._doc.section.outline, axis=0).max(), 1e-9)
-        moves = {Qt.Key_Left: (-step, 0), Qt.Key_Right: (step, 0),
-                 Qt.Key_Up: (0, step), Qt.Key_Down: (0, -step)}
+        moves = {Qt.Key.Key_Left: (-step, 0), Qt.Key.Key_Right: (step, 0),
+                 Qt.Key.Key_Up: (0, step), Qt.Key.Key_Down: (0, -step)}
         if key in moves and self._doc.selected_vertex is not None:
             self.nudge_selected(*moves[key])
             return True
-        if key == Qt.Key_Escape:
+        if key == Qt.Key.Key_Escape:
             self._doc.select_edge(None)
             return True
         return False

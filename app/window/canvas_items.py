@@ -19,7 +19,7 @@ __all__ = ["cosmetic_pen", "path_of", "rings_path", "edge_segments", "pairs_curv
            "filled_path_item", "add_item", "FilledPathItem"]
 
 
-def cosmetic_pen(colour, width=1.0, style=Qt.SolidLine):
+def cosmetic_pen(colour, width=1.0, style=Qt.PenStyle.SolidLine):
     """A pen ``width`` pixels wide at any zoom."""
     pen = QPen(QColor(colour))
     pen.setWidthF(width)
@@ -99,10 +99,10 @@ class FilledPathItem(QGraphicsPathItem):
         if rect is None:
             rect = self.path().controlPointRect()
             pen = self.pen()
-            if pen.style() != Qt.NoPen and not pen.isCosmetic():
+            if pen.style() != Qt.PenStyle.NoPen and not pen.isCosmetic():
                 # Square caps reach 0.71 widths out, mitres the miter limit
                 # (in widths) past the stroke's half width.
-                k = pen.miterLimit() + 0.5 if pen.joinStyle() == Qt.MiterJoin else 1.0
+                k = pen.miterLimit() + 0.5 if pen.joinStyle() == Qt.PenJoinStyle.MiterJoin else 1.0
                 pad = max(k, 1.0) * pen.widthF()
                 rect = rect.adjusted(-pad, -pad, pad, pad)
             self._rect = rect
@@ -113,5 +113,5 @@ def filled_path_item(viewbox, brush, z, pen=None, visible=True):
     """A path item filled with ``brush`` (and outlined with ``pen``)."""
     item = FilledPathItem()
     item.setBrush(QBrush(brush))
-    item.setPen(pen if pen is not None else QPen(Qt.NoPen))
+    item.setPen(pen if pen is not None else QPen(Qt.PenStyle.NoPen))
     return add_item(viewbox, item, z, visible)

@@ -150,7 +150,7 @@ class CanvasLabels:
         self._sizes = {}
         regular = QFont()
         strong = QFont(regular)
-        strong.setWeight(QFont.DemiBold)
+        strong.setWeight(QFont.Weight.DemiBold)
         self._fonts = ((regular, QFontMetricsF(regular)), (strong, QFontMetricsF(strong)))
         self._timer = QTimer(parent)
         self._timer.setSingleShot(True)

@@ -57,7 +57,7 @@ class CanvasPointer:
             self.outline_layer.show_sketch(self.editor.drawn + [self.snap(x, z)])
 
     def _on_mouseClicked(self, ev):
-        if ev.isAccepted() and ev.button() != Qt.LeftButton:
+        if ev.isAccepted() and ev.button() != Qt.MouseButton.LeftButton:
             return
         x, z = self._view_point(ev.scenePos())
         self.editor.on_click(x, z, ev.button(), ev.double(), ev.screenPos())

@@ -27,7 +27,7 @@ class CanvasView:
         self._grid = LightGrid(plot.getViewBox())
         plot.getViewBox().disableAutoRange()  # fit() sets the range, never an empty one
         self.setMouseTracking(True)
-        self.setFocusPolicy(Qt.StrongFocus)
+        self.setFocusPolicy(Qt.FocusPolicy.StrongFocus)
 
     def fit(self):
         """Show the whole section with its diagrams and resultants."""

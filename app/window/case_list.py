@@ -44,7 +44,7 @@ FILL_CHOICES = (("level", "Level"), ("volume", "Volume"), (SPILL, "Spill level")
                 (EMPTY, "Empty"))
 """The fill choice of a case: key and words."""
 
-_RIGHT = int(Qt.AlignRight | Qt.AlignVCenter)
+_RIGHT = int(Qt.AlignmentFlag.AlignRight | Qt.AlignmentFlag.AlignVCenter)
 _GROUNDWATER_TEXT = QColor("#0f7f8c")
 _BOLD = QFont()
 _BOLD.setBold(True)
@@ -72,8 +72,8 @@ class CasesModel(QAbstractTableModel):
     def columnCount(self, parent=QModelIndex()):
         return 0 if parent.isValid() else len(self.HEADERS)
 
-    def headerData(self, section, orientation, role=Qt.DisplayRole):
-        if role == Qt.DisplayRole and orientation == Qt.Horizontal:
+    def headerData(self, section, orientation, role=Qt.ItemDataRole.DisplayRole):
+        if role == Qt.ItemDataRole.DisplayRole and orientation == Qt.Orientation.Horizontal:
             return self.HEADERS[section]
         return None
 
@@ -110,8 +110,8 @@ class CasesModel(QAbstractTableModel):
             self.dataChanged.emit(self.index(r, c0), self.index(r, c1))
 
     def flags(self, index):
-        f = Qt.ItemIsEnabled | Qt.ItemIsSelectable
-        return f | Qt.ItemIsEditable if index.column() == 0 else f
+        f = Qt.ItemFlag.ItemIsEnabled | Qt.ItemFlag.ItemIsSelectable
+        return f | Qt.ItemFlag.ItemIsEditable if index.column() == 0 else f
 
     def fill_text(self, row):
         """The fill of case ``row`` in words (``"spill (4 m)"``, ``"3.2 m"``)."""
@@ -128,23 +128,23 @@ class CasesModel(QAbstractTableModel):
             return units.fmt_volume(case.fill_volume)
         return units.fmt_length(case.fill_level)
 
-    def data(self, index, role=Qt.DisplayRole):
+    def data(self, index, role=Qt.ItemDataRole.DisplayRole):
         if not index.isValid() or index.row() >= len(self._rows):
             return None
         r, c = index.row(), index.column()
         row = self._rows[r]
-        if role in (Qt.DisplayRole, Qt.EditRole):
+        if role in (Qt.ItemDataRole.DisplayRole, Qt.ItemDataRole.EditRole):
             return row[c]
-        if role == Qt.TextAlignmentRole and c == 2:
+        if role == Qt.ItemDataRole.TextAlignmentRole and c == 2:
             return _RIGHT
-        if role == Qt.FontRole and r == self._active:
+        if role == Qt.ItemDataRole.FontRole and r == self._active:
             return _BOLD
-        if role == Qt.ForegroundRole and c == 3 and row[4]:
+        if role == Qt.ItemDataRole.ForegroundRole and c == 3 and row[4]:
             return _GROUNDWATER_TEXT
         return None
 
-    def setData(self, index, value, role=Qt.EditRole):
-        if role != Qt.EditRole or not index.isValid() or index.column() != 0:
+    def setData(self, index, value, role=Qt.ItemDataRole.EditRole):
+        if role != Qt.ItemDataRole.EditRole or not index.isValid() or index.column() != 0:
             return False
         try:
             editing.rename_case(self._doc, index.row(), str(value))
@@ -172,18 +172,18 @@ class CaseListPanel(QWidget):
         self.model.errorRaised = self._show_error
         self.table = QTableView()
         self.table.setModel(self.model)
-        self.table.setSelectionBehavior(QAbstractItemView.SelectRows)
-        self.table.setSelectionMode(QAbstractItemView.SingleSelection)
-        self.table.setEditTriggers(QAbstractItemView.DoubleClicked
-                                   | QAbstractItemView.EditKeyPressed)
+        self.table.setSelectionBehavior(QAbstractItemView.SelectionBehavior.SelectRows)
+        self.table.setSelectionMode(QAbstractItemView.SelectionMode.SingleSelection)
+        self.table.setEditTriggers(QAbstractItemView.EditTrigger.DoubleClicked
+                                   | QAbstractItemView.EditTrigger.EditKeyPressed)
         self.table.verticalHeader().hide()
         self.table.verticalHeader().setDefaultSectionSize(22)
         header = self.table.horizontalHeader()
-        header.setSectionResizeMode(0, QHeaderView.Stretch)
+        header.setSectionResizeMode(0, QHeaderView.ResizeMode.Stretch)
         # Sized to the contents when the rows change, not at every slider step
         # (resizing to contents reads every cell of the column).
         for c in (1, 2, 3):
-            header.setSectionResizeMode(c, QHeaderView.Interactive)
+            header.setSectionResizeMode(c, QHeaderView.ResizeMode.Interactive)
         self.table.setMinimumHeight(120)
         lay.addWidget(self.table, 1)
         row = QHBoxLayout()
@@ -202,7 +202,7 @@ class CaseListPanel(QWidget):
         lay.addLayout(row)
 
         form = QFormLayout()
-        form.setFieldGrowthPolicy(QFormLayout.AllNonFixedFieldsGrow)
+        form.setFieldGrowthPolicy(QFormLayout.FieldGrowthPolicy.AllNonFixedFieldsGrow)
         self.fill = QComboBox()
         for key, words in FILL_CHOICES:
             self.fill.addItem(words, key)
@@ -279,8 +279,8 @@ class CaseListPanel(QWidget):
         try:
             idx = self.model.index(self._doc.active_index, 0)
             if sm.currentIndex().row() != idx.row() or not sm.isRowSelected(idx.row()):
-                sm.setCurrentIndex(idx, QItemSelectionModel.ClearAndSelect
-                                   | QItemSelectionModel.Rows)
+                sm.setCurrentIndex(idx, QItemSelectionModel.SelectionFlag.ClearAndSelect
+                                   | QItemSelectionModel.SelectionFlag.Rows)
                 self.table.scrollTo(idx)
                 self.table.viewport().update()  # the selection model's signals were blocked
         finally:

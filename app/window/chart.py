@@ -60,7 +60,7 @@ class LoadChart(pg.PlotWidget):
         self.cursor = pg.InfiniteLine(angle=90, movable=True,
                                       pen=pg.mkPen(CURSOR_COLOUR, width=1.5),
                                       hoverPen=pg.mkPen(CURSOR_COLOUR, width=3))
-        self.cursor.setCursor(Qt.SizeHorCursor)
+        self.cursor.setCursor(Qt.CursorShape.SizeHorCursor)
         self.cursor.setToolTip("Drag to set the fill level (or click in the chart)")
         self.cursor_label = pg.TextItem(color=CURSOR_COLOUR, anchor=(0, 0))
         plot.addItem(self.cursor, ignoreBounds=True)
@@ -171,7 +171,8 @@ class LoadChart(pg.PlotWidget):
         colours = part_colours(list(section.part_names) + list(table.part_down))
         names = tuple(n for n in table.part_down if n != FLOOR)  # floor = floor force
         for name in names:
-            series.append((table.part_down[name], f"{name} (down)", colours[name], Qt.DotLine))
+            series.append((table.part_down[name], f"{name} (down)", colours[name],
+                           Qt.PenStyle.DotLine))
         # Where air can be trapped under a ceiling: the same loads with the air
         # trapped, wherever they differ from vented (dash-dot, same colours),
         # so the designer sees which assumption governs the uplift.
@@ -180,13 +181,13 @@ class LoadChart(pg.PlotWidget):
             for key, name, colour, _style in LEVEL_SERIES:
                 y = getattr(t, key)
                 if not np.allclose(y, getattr(table, key), rtol=1e-9, atol=0.0):
-                    series.append((y, f"{name}, air trapped", colour, Qt.DashDotLine))
+                    series.append((y, f"{name}, air trapped", colour, Qt.PenStyle.DashDotLine))
             for name in names:
                 y = t.part_down.get(name)
                 if y is not None and not np.allclose(y, table.part_down[name], rtol=1e-9,
                                                      atol=0.0):
                     series.append((y, f"{name} (down), air trapped", colours[name],
-                                   Qt.DashDotLine))
+                                   Qt.PenStyle.DashDotLine))
         key = tuple((name, colour) for _, name, colour, _ in series)
         if key != self._series_key:
             # Other parts: new curves and legend. Otherwise (a slider, a
@@ -284,7 +285,7 @@ class LoadChart(pg.PlotWidget):
             self._doc.end_live_edit()
 
     def _on_mouseClicked(self, ev):
-        if ev.button() != Qt.LeftButton or ev.isAccepted():
+        if ev.button() != Qt.MouseButton.LeftButton or ev.isAccepted():
             return
         vb = self.getPlotItem().getViewBox()
         pos = ev.scenePos()

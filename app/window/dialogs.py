@@ -47,11 +47,11 @@ def _give_back(window, focus):
     window.raise_()
     # The activation is a window-system event: handle it now, not at the
     # next turn of the event loop (a key pressed at once would go nowhere).
-    QApplication.processEvents(QEventLoop.ExcludeUserInputEvents)
+    QApplication.processEvents(QEventLoop.ProcessEventsFlag.ExcludeUserInputEvents)
     if _alive(focus) and focus.window() is window and focus.isVisible():
-        focus.setFocus(Qt.ActiveWindowFocusReason)
+        focus.setFocus(Qt.FocusReason.ActiveWindowFocusReason)
     elif QApplication.focusWidget() is None:
-        window.setFocus(Qt.ActiveWindowFocusReason)
+        window.setFocus(Qt.FocusReason.ActiveWindowFocusReason)
 
 
 def _modal(function):
@@ -73,13 +73,14 @@ def show_error(parent, title, text):
 @_modal
 def ask_save_changes(parent, name):
     """"save", "discard" or "cancel" for a document with unsaved changes."""
-    box = QMessageBox(QMessageBox.Warning, "Unsaved changes",
+    box = QMessageBox(QMessageBox.Icon.Warning, "Unsaved changes",
                       f"Save the changes to {name}?",
-                      QMessageBox.Save | QMessageBox.Discard | QMessageBox.Cancel, parent)
-    box.setDefaultButton(QMessageBox.Save)
+                      QMessageBox.StandardButton.Save | QMessageBox.StandardButton.Discard
+                      | QMessageBox.StandardButton.Cancel, parent)
+    box.setDefaultButton(QMessageBox.StandardButton.Save)
     answer = box.exec()
-    return {QMessageBox.Save: "save", QMessageBox.Discard: "discard"}.get(
-        QMessageBox.StandardButton(answer), "cancel")
+    sb = QMessageBox.StandardButton
+    return {sb.Save: "save", sb.Discard: "discard"}.get(sb(answer), "cancel")
 
 
 @_modal
@@ -222,7 +223,7 @@ def make_progress(parent, title, text, steps):
     caller moves it and closes it)."""
     dlg = QProgressDialog(text, "Cancel", 0, steps, parent)
     dlg.setWindowTitle(title)
-    dlg.setWindowModality(Qt.WindowModal)
+    dlg.setWindowModality(Qt.WindowModality.WindowModal)
     dlg.setMinimumDuration(0)
     dlg.setAutoClose(False)
     dlg.setAutoReset(False)

@@ -153,7 +153,7 @@ class _Field(QLineEdit):
         self._owner = owner
 
     def keyPressEvent(self, ev):
-        if ev.key() == Qt.Key_Escape:
+        if ev.key() == Qt.Key.Key_Escape:
             self._owner.cancel()
             return
         super().keyPressEvent(ev)

@@ -69,11 +69,11 @@ class FlotationPanel(QGroupBox):
         for r, (key, title) in enumerate(ROWS):
             name = QLabel(title)
             value = QLabel()
-            value.setTextFormat(Qt.RichText)
-            value.setTextInteractionFlags(Qt.TextSelectableByMouse)
+            value.setTextFormat(Qt.TextFormat.RichText)
+            value.setTextInteractionFlags(Qt.TextInteractionFlag.TextSelectableByMouse)
             value.setWordWrap(True)
             self._steady[key] = SteadyParagraph(value)
-            grid.addWidget(name, r, 0, Qt.AlignTop)
+            grid.addWidget(name, r, 0, Qt.AlignmentFlag.AlignTop)
             grid.addWidget(value, r, 1)
             self.titles[key] = name
             self.values[key] = value

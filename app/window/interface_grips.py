@@ -41,7 +41,7 @@ class InterfaceGrips(PickedDrag, pg.GraphicsObject):
         self._spans = []
         self._mirror = False
         self._rect = QRectF()
-        self.setCursor(Qt.SizeVerCursor)
+        self.setCursor(Qt.CursorShape.SizeVerCursor)
         # Inside the view box (which clips its children) Qt takes an item's
         # clip path for its hit area: clipped to its shape, that is the grips.
         self.setFlag(QGraphicsItem.GraphicsItemFlag.ItemClipsToShape, True)

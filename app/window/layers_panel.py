@@ -289,7 +289,7 @@ class GasPanel(QGroupBox):
         super().__init__("Gas and trapped air", parent)
         self._doc = document
         form = QFormLayout(self)
-        form.setFieldGrowthPolicy(QFormLayout.AllNonFixedFieldsGrow)
+        form.setFieldGrowthPolicy(QFormLayout.FieldGrowthPolicy.AllNonFixedFieldsGrow)
         self.gas = QLineEdit()
         self.gas.setToolTip("Gauge pressure over the free surface: positive, or a vacuum "
                             "down to -101.325 kPa")

@@ -87,7 +87,7 @@ class LoadLayer:
         self.layer_fills = [filled_path_item(vb, brush, -9, visible=False)
                             for brush in LAYER_BRUSHES]
         self.interfaces = pairs_curve(vb, pg.mkPen(INTERFACE_LINE, width=1.5,
-                                                   style=Qt.DashLine), 6)
+                                                   style=Qt.PenStyle.DashLine), 6)
         self.air = filled_path_item(vb, AIR_BRUSH, -8, pen=cosmetic_pen(QColor(AIR_LINE), 1.0))
         self.air_lines = pairs_curve(vb, pg.mkPen(SURFACE, width=2), 6)
         self.interface_levels = []
@@ -99,7 +99,7 @@ class LoadLayer:
         self.gas_text = None
         """The label asked for the gas over the free surface, or None."""
         self.spill = add_item(vb, pg.PlotCurveItem(
-            pen=pg.mkPen(MUTED, width=1, style=Qt.DashLine)), 0)
+            pen=pg.mkPen(MUTED, width=1, style=Qt.PenStyle.DashLine)), 0)
         self.down = pairs_curve(vb, pg.mkPen(LOAD, width=3), 30)
         self.up = pairs_curve(vb, pg.mkPen(UPLIFT_COLOUR, width=3), 30)
         self._polygon = self._polygon_section = None
@@ -129,7 +129,7 @@ class LoadLayer:
         w = wetted_edges(solution, carries)
         x, z, connect = diagram_polygons(w, scale)
         path = path_of(x, z, connect)
-        path.setFillRule(Qt.WindingFill)
+        path.setFillRule(Qt.FillRule.WindingFill)
         self.diagram.setPath(path)
         tx, tz, px, pz = pressure_arrows(w, scale)
         self.arrows.setData(*arrow_strokes(tx, tz, px, pz, 0.02 * size))
@@ -182,7 +182,7 @@ class LoadLayer:
         self.envelope_edges = w
         x, z, connect = diagram_polygons(w, scale)
         path = path_of(x, z, connect)
-        path.setFillRule(Qt.WindingFill)
+        path.setFillRule(Qt.FillRule.WindingFill)
         self.diagram.setPath(path)
         tx, tz, px, pz = pressure_arrows(w, scale)
         self.arrows.setData(*arrow_strokes(tx, tz, px, pz, 0.02 * size))

@@ -91,10 +91,10 @@ class MainWindow(WindowActions, FileCommands, QMainWindow):
         scroll.setWidgetResizable(True)
         # wide enough for the liquid choices and their source text unclipped
         scroll.setMinimumWidth(left.sizeHint().width() + 24)
-        scroll.setHorizontalScrollBarPolicy(Qt.ScrollBarAlwaysOff)
-        self._dock("Fill and liquid", scroll, Qt.LeftDockWidgetArea)
+        scroll.setHorizontalScrollBarPolicy(Qt.ScrollBarPolicy.ScrollBarAlwaysOff)
+        self._dock("Fill and liquid", scroll, Qt.DockWidgetArea.LeftDockWidgetArea)
         self.case_list = CaseListPanel(doc)
-        self._dock("Load cases", self.case_list, Qt.LeftDockWidgetArea)
+        self._dock("Load cases", self.case_list, Qt.DockWidgetArea.LeftDockWidgetArea)
 
         self.totals = TotalsPanel(doc)
         self.parts_table = PartsTable(doc)
@@ -105,7 +105,7 @@ class MainWindow(WindowActions, FileCommands, QMainWindow):
         self.transfer = Transfer(self)
         self._build_actions()
         # The uplift check sits under the loads per part it is about.
-        parts_page = QSplitter(Qt.Vertical)
+        parts_page = QSplitter(Qt.Orientation.Vertical)
         parts_page.setChildrenCollapsible(False)
         parts_page.addWidget(self.parts_table)
         self.parts_table.setMinimumHeight(118)  # the header and three parts
@@ -118,7 +118,7 @@ class MainWindow(WindowActions, FileCommands, QMainWindow):
         uplift_scroll = QScrollArea()
         uplift_scroll.setWidget(checks)
         uplift_scroll.setWidgetResizable(True)
-        uplift_scroll.setHorizontalScrollBarPolicy(Qt.ScrollBarAlwaysOff)
+        uplift_scroll.setHorizontalScrollBarPolicy(Qt.ScrollBarPolicy.ScrollBarAlwaysOff)
         parts_page.addWidget(uplift_scroll)
         parts_page.setSizes([125, 400])
         self.parts_page = parts_page
@@ -135,16 +135,18 @@ class MainWindow(WindowActions, FileCommands, QMainWindow):
         rl.setContentsMargins(4, 4, 4, 4)
         rl.addWidget(self.totals)
         rl.addWidget(tabs, 1)
-        self._dock("Results", right, Qt.RightDockWidgetArea)
+        self._dock("Results", right, Qt.DockWidgetArea.RightDockWidgetArea)
         self.chart = LoadChart(doc)
         self.chart.setMinimumHeight(200)
-        self._dock("Loads against level", self.chart, Qt.BottomDockWidgetArea)
+        self._dock("Loads against level", self.chart, Qt.DockWidgetArea.BottomDockWidgetArea)
         self.resizeDocks([self.findChild(QDockWidget, "Loads against level")], [240],
-                         Qt.Vertical)
+                         Qt.Orientation.Vertical)
         self.resizeDocks([self.findChild(QDockWidget, "Fill and liquid"),
-                          self.findChild(QDockWidget, "Results")], [300, 450], Qt.Horizontal)
+                          self.findChild(QDockWidget, "Results")], [300, 450],
+                         Qt.Orientation.Horizontal)
         self.resizeDocks([self.findChild(QDockWidget, "Fill and liquid"),
-                          self.findChild(QDockWidget, "Load cases")], [420, 330], Qt.Vertical)
+                          self.findChild(QDockWidget, "Load cases")], [420, 330],
+                         Qt.Orientation.Vertical)
 
         self.hover = QLabel()
         self.statusBar().addWidget(self.hover, 1)
@@ -176,7 +178,8 @@ class MainWindow(WindowActions, FileCommands, QMainWindow):
         dock = QDockWidget(title, self)
         dock.setObjectName(title)
         dock.setWidget(widget)
-        dock.setFeatures(QDockWidget.DockWidgetMovable | QDockWidget.DockWidgetFloatable)
+        dock.setFeatures(QDockWidget.DockWidgetFeature.DockWidgetMovable
+                         | QDockWidget.DockWidgetFeature.DockWidgetFloatable)
         self.addDockWidget(area, dock)
         return dock
 

@@ -44,7 +44,7 @@ class OutlineLayer:
         self.selected = add_item(vb, pg.ScatterPlotItem(
             size=13, pen=pg.mkPen("#000000", width=2), brush=pg.mkBrush(HIGHLIGHT_COLOUR)), 41)
         self.draft_curve = add_item(vb, pg.PlotCurveItem(
-            pen=pg.mkPen(FAULT_COLOUR, width=2, style=Qt.DashLine)), 20)
+            pen=pg.mkPen(FAULT_COLOUR, width=2, style=Qt.PenStyle.DashLine)), 20)
         self.fault = add_item(vb, pg.ScatterPlotItem(
             size=16, symbol="x", pen=pg.mkPen(FAULT_COLOUR, width=2),
             brush=pg.mkBrush(FAULT_COLOUR)), 50)
@@ -54,9 +54,9 @@ class OutlineLayer:
         # The mirrored half of an axisymmetric section (drawn, never edited).
         self.mirror = pairs_curve(vb, cosmetic_pen(MIRROR_COLOUR, 2.0), 9, visible=False)
         self.centre_line = add_item(vb, pg.PlotCurveItem(
-            pen=pg.mkPen(MUTED, width=1, style=Qt.DashDotLine)), 11, visible=False)
+            pen=pg.mkPen(MUTED, width=1, style=Qt.PenStyle.DashDotLine)), 11, visible=False)
         self.sketch = add_item(vb, pg.PlotCurveItem(
-            pen=pg.mkPen("#1a1a1a", width=1.5, style=Qt.DashLine)), 45)
+            pen=pg.mkPen("#1a1a1a", width=1.5, style=Qt.PenStyle.DashLine)), 45)
 
     @property
     def legend(self):
@@ -86,8 +86,8 @@ class OutlineLayer:
         for name in names:
             x, z = edge_segments(outline, np.flatnonzero(parts_arr == name))
             curve = self._part_curves.get(name)
-            style = (Qt.DashLine if name == OPEN else Qt.DashDotLine if name == AXIS
-                     else Qt.SolidLine)
+            style = (Qt.PenStyle.DashLine if name == OPEN
+                     else Qt.PenStyle.DashDotLine if name == AXIS else Qt.PenStyle.SolidLine)
             width = 1.5 if name in (OPEN, AXIS) else 3
             if curve is None:
                 curve = pg.PlotCurveItem(connect="pairs", skipFiniteCheck=True, name=name)

@@ -43,7 +43,8 @@ class PreferencesDialog(QDialog):
         note.setWordWrap(True)
         note.setStyleSheet("color: #445;")
         form.addRow(note)
-        buttons = QDialogButtonBox(QDialogButtonBox.Ok | QDialogButtonBox.Cancel)
+        buttons = QDialogButtonBox(
+            QDialogButtonBox.StandardButton.Ok | QDialogButtonBox.StandardButton.Cancel)
         buttons.accepted.connect(self.accept)
         buttons.rejected.connect(self.reject)
         form.addRow(buttons)

@@ -112,10 +112,10 @@ class ReportInfoDialog(QDialog):
         self.history = QTableWidget(0, len(_HEADERS))
         self.history.setHorizontalHeaderLabels(list(_HEADERS))
         self.history.verticalHeader().setVisible(False)
-        self.history.setSelectionBehavior(QAbstractItemView.SelectRows)
+        self.history.setSelectionBehavior(QAbstractItemView.SelectionBehavior.SelectRows)
         head = self.history.horizontalHeader()
-        head.setSectionResizeMode(QHeaderView.Interactive)
-        head.setSectionResizeMode(2, QHeaderView.Stretch)
+        head.setSectionResizeMode(QHeaderView.ResizeMode.Interactive)
+        head.setSectionResizeMode(2, QHeaderView.ResizeMode.Stretch)
         for col, width in ((0, 70), (1, 96), (3, 80), (4, 80), (5, 80)):
             self.history.setColumnWidth(col, width)
         self.history.setMinimumSize(720, 150)
@@ -149,7 +149,8 @@ class ReportInfoDialog(QDialog):
         pl.addWidget(text, 1)
         lay.addWidget(precision)
 
-        box = QDialogButtonBox(QDialogButtonBox.Ok | QDialogButtonBox.Cancel)
+        box = QDialogButtonBox(
+            QDialogButtonBox.StandardButton.Ok | QDialogButtonBox.StandardButton.Cancel)
         box.accepted.connect(self.accept)
         box.rejected.connect(self.reject)
         lay.addWidget(box)

@@ -147,10 +147,11 @@ class StructureDialog(QDialog):
         self.error.setStyleSheet(ERROR_STYLE)
         self.error.hide()
         lay.addWidget(self.error)
-        buttons = QDialogButtonBox(QDialogButtonBox.Ok | QDialogButtonBox.Cancel)
+        buttons = QDialogButtonBox(
+            QDialogButtonBox.StandardButton.Ok | QDialogButtonBox.StandardButton.Cancel)
         self.remove_button = QPushButton("Remove structure")
         self.remove_button.setEnabled(structure is not None)
-        buttons.addButton(self.remove_button, QDialogButtonBox.DestructiveRole)
+        buttons.addButton(self.remove_button, QDialogButtonBox.ButtonRole.DestructiveRole)
         buttons.accepted.connect(self._on_ok)
         buttons.rejected.connect(self.reject)
         self.remove_button.clicked.connect(self._on_remove)

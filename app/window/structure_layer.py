@@ -68,13 +68,13 @@ class StructureLayer:
 
     def __init__(self, viewbox):
         vb = viewbox
-        hatch = QBrush(QColor(STRUCTURE_INK), Qt.BDiagPattern)
+        hatch = QBrush(QColor(STRUCTURE_INK), Qt.BrushStyle.BDiagPattern)
         self.section = filled_path_item(vb, QColor(0, 0, 0, 0), -12)
         self.section.setBrush(hatch)
-        self.section.setPen(QPen(Qt.NoPen))
+        self.section.setPen(QPen(Qt.PenStyle.NoPen))
         self.mirror_section = filled_path_item(vb, QColor(0, 0, 0, 0), -12, visible=False)
-        self.mirror_section.setBrush(QBrush(QColor(74, 82, 92, 110), Qt.BDiagPattern))
-        self.mirror_section.setPen(QPen(Qt.NoPen))
+        self.mirror_section.setBrush(QBrush(QColor(74, 82, 92, 110), Qt.BrushStyle.BDiagPattern))
+        self.mirror_section.setPen(QPen(Qt.PenStyle.NoPen))
         self.outline = add_item(vb, pg.PlotCurveItem(pen=cosmetic_pen(STRUCTURE_INK, 1.6)), 9)
         self.mirror_outline = add_item(vb, pg.PlotCurveItem(
             pen=cosmetic_pen(QColor(74, 82, 92, 110), 1.2)), 9, visible=False)
@@ -86,14 +86,14 @@ class StructureLayer:
                      self.mirror_outline, self.ground, self.ground_ticks):
             # Hatching a large area costs milliseconds a paint: kept as a
             # pixmap until the view moves or the outline changes.
-            item.setCacheMode(QGraphicsItem.DeviceCoordinateCache)
+            item.setCacheMode(QGraphicsItem.CacheMode.DeviceCoordinateCache)
         self.groundwater = add_item(vb, pg.PlotCurveItem(
-            pen=cosmetic_pen(GROUNDWATER_COLOUR, 1.6, Qt.DashLine)), 6)
+            pen=cosmetic_pen(GROUNDWATER_COLOUR, 1.6, Qt.PenStyle.DashLine)), 6)
         self.groundwater_mark = add_item(vb, pg.ScatterPlotItem(
             size=11, symbol="t", pen=pg.mkPen(GROUNDWATER_COLOUR, width=1.2),
             brush=pg.mkBrush(255, 255, 255, 230)), 7)
         self.drag = add_item(vb, pg.PlotCurveItem(
-            pen=cosmetic_pen(STRUCTURE_INK, 1.4, Qt.DashLine)), 21)
+            pen=cosmetic_pen(STRUCTURE_INK, 1.4, Qt.PenStyle.DashLine)), 21)
         self.diagram = filled_path_item(vb, OUTER_DIAGRAM_FILL, -6,
                                         pen=cosmetic_pen(OUTER_DIAGRAM_LINE, 1.0))
         self.arrows = pairs_curve(vb, pg.mkPen(OUTER_DIAGRAM_LINE, width=1), -4)
@@ -172,7 +172,7 @@ class StructureLayer:
             self._section_key = (id(s), id(cavity))
             self._section_objects = (s, cavity)  # keeps the ids meaningful
             path = rings_path([outer, np.asarray(cavity.outline)])
-            path.setFillRule(Qt.OddEvenFill)
+            path.setFillRule(Qt.FillRule.OddEvenFill)
             self.section.setPath(path)
             ring = np.vstack([outer, outer[:1]])
             self.outline.setData(ring[:, 0], ring[:, 1])
@@ -228,7 +228,7 @@ class StructureLayer:
                 self._water_edges = w
                 x, z, connect = diagram_polygons(w, scale)
                 p = path_of(x, z, connect)
-                p.setFillRule(Qt.WindingFill)
+                p.setFillRule(Qt.FillRule.WindingFill)
                 self.diagram.setPath(p)
                 tx, tz, px, pz = pressure_arrows(w, scale, count=40)
                 # Arrows point at the wall: the water pushes on the structure.

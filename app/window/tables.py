@@ -34,7 +34,7 @@ from wetline.core.structure import OUTER_WALL
 __all__ = ["PartsModel", "EdgesModel", "VerticesModel", "PartsTable", "EdgesTable",
            "VerticesTable", "VerticesPane"]
 
-_RIGHT = int(Qt.AlignRight | Qt.AlignVCenter)
+_RIGHT = int(Qt.AlignmentFlag.AlignRight | Qt.AlignmentFlag.AlignVCenter)
 CELLS_KEPT = 6000
 """Cell values (cell and role) a model keeps as shown; more (a table
 scrolled through thousands of rows) and a refresh tells of every cell."""
@@ -54,17 +54,17 @@ class _Model(QAbstractTableModel):
     def _headers(self):
         return self.headers
 
-    def headerData(self, section, orientation, role=Qt.DisplayRole):
-        if role == Qt.DisplayRole and orientation == Qt.Horizontal:
+    def headerData(self, section, orientation, role=Qt.ItemDataRole.DisplayRole):
+        if role == Qt.ItemDataRole.DisplayRole and orientation == Qt.Orientation.Horizontal:
             h = self._headers()
             return h[section] if section < len(h) else None
-        if role == Qt.DisplayRole and orientation == Qt.Vertical:
+        if role == Qt.ItemDataRole.DisplayRole and orientation == Qt.Orientation.Vertical:
             return str(section)
         return None
 
     _shown: dict | None = None
 
-    def data(self, index, role=Qt.DisplayRole):
+    def data(self, index, role=Qt.ItemDataRole.DisplayRole):
         """The cell's value for ``role``, as last given to the views (kept,
         so that :meth:`refresh` tells them only of the cells that changed)."""
         if not index.isValid():
@@ -131,7 +131,7 @@ class _Model(QAbstractTableModel):
         h = self._headers()
         if (headers or h != getattr(self, "_shown_headers", None)) and cols:
             self._shown_headers = h
-            self.headerDataChanged.emit(Qt.Horizontal, 0, cols - 1)
+            self.headerDataChanged.emit(Qt.Orientation.Horizontal, 0, cols - 1)
 
     def _on_unitsChanged(self):
         self.refresh(headers=True)
@@ -207,12 +207,12 @@ class PartsModel(_Model):
         doc = self._doc
         scope = doc.force_scope(doc.solution.section)
         if self.envelope and hasattr(load, "max_down"):
-            if role == Qt.DisplayRole:
+            if role == Qt.ItemDataRole.DisplayRole:
                 return (name, scope.number(load.max_down), load.max_down_case or "-",
                         scope.number(load.max_up), load.max_up_case or "-")[c]
-            if role == Qt.TextAlignmentRole and c in (1, 3):
+            if role == Qt.ItemDataRole.TextAlignmentRole and c in (1, 3):
                 return _RIGHT
-            if role == Qt.ForegroundRole and c in (3, 4) and load.max_up > 0:
+            if role == Qt.ItemDataRole.ForegroundRole and c in (3, 4) and load.max_up > 0:
                 return UPLIFT_TEXT
             return None
         if not hasattr(load, "down"):
@@ -222,7 +222,7 @@ class PartsModel(_Model):
         design = factor != 1.0
         lifted = load.down < 0
         last = 5 if design else 4
-        if role == Qt.DisplayRole:
+        if role == Qt.ItemDataRole.DisplayRole:
             if c == 0:
                 return name
             if c == 1:
@@ -235,9 +235,9 @@ class PartsModel(_Model):
                 return scope.number(factor * load.down, scale=factor * scale)
             if c == last:
                 return "uplift" if lifted else ("down" if load.down > 0 else "")
-        if role == Qt.TextAlignmentRole and 0 < c < last:
+        if role == Qt.ItemDataRole.TextAlignmentRole and 0 < c < last:
             return _RIGHT
-        if role == Qt.ForegroundRole and lifted and c >= 3:
+        if role == Qt.ItemDataRole.ForegroundRole and lifted and c >= 3:
             return UPLIFT_TEXT
         return None
 
@@ -305,10 +305,11 @@ class EdgesModel(_Model):
         if sol is None or index.row() >= sol.section.n_edges:
             return None
         i, c = index.row(), index.column()
-        if role == Qt.TextAlignmentRole and c > 0:
+        if role == Qt.ItemDataRole.TextAlignmentRole and c > 0:
             return _RIGHT
-        if role != Qt.DisplayRole:
-            if role == Qt.ForegroundRole and c == 0 and sol.section.parts[i] in (OPEN, AXIS):
+        if role != Qt.ItemDataRole.DisplayRole:
+            if role == Qt.ItemDataRole.ForegroundRole and c == 0 \
+                    and sol.section.parts[i] in (OPEN, AXIS):
                 return QColor("#7a8594")
             return None
         u = self._doc.units
@@ -397,28 +398,29 @@ class VerticesModel(_Model):
             self.refresh()
 
     def flags(self, index):
-        return Qt.ItemIsEnabled | Qt.ItemIsSelectable | Qt.ItemIsEditable
+        return Qt.ItemFlag.ItemIsEnabled | Qt.ItemFlag.ItemIsSelectable | Qt.ItemFlag.ItemIsEditable
 
     def _value(self, index, role):
         outline, parts = self.outline()
         i, c = index.row(), index.column()
         if i >= len(outline):
             return None
-        if role in (Qt.DisplayRole, Qt.EditRole):
+        if role in (Qt.ItemDataRole.DisplayRole, Qt.ItemDataRole.EditRole):
             if c < 2:
                 # Coordinates as entered (the precision policy), to edit too.
                 return format_entered(self._doc.units.length(outline[i, c]))
             return parts[i]
-        if role == Qt.TextAlignmentRole and c < 2:
+        if role == Qt.ItemDataRole.TextAlignmentRole and c < 2:
             return _RIGHT
         draft = self._doc.draft
-        if role == Qt.BackgroundRole and draft is not None and draft.target == self.target and (
-                i in draft.error.vertices or (c == 2 and i in draft.error.edges)):
+        if role == Qt.ItemDataRole.BackgroundRole and draft is not None \
+                and draft.target == self.target and (
+                    i in draft.error.vertices or (c == 2 and i in draft.error.edges)):
             return QColor("#ffd6d6")
         return None
 
-    def setData(self, index, value, role=Qt.EditRole):
-        if role != Qt.EditRole or not index.isValid():
+    def setData(self, index, value, role=Qt.ItemDataRole.EditRole):
+        if role != Qt.ItemDataRole.EditRole or not index.isValid():
             return False
         i, c = index.row(), index.column()
         doc = self._doc
@@ -478,13 +480,13 @@ class PartDelegate(QStyledItemDelegate):
 
     def setEditorData(self, editor, index):
         if isinstance(editor, QComboBox):
-            editor.setCurrentText(index.data(Qt.EditRole))
+            editor.setCurrentText(index.data(Qt.ItemDataRole.EditRole))
         else:
             super().setEditorData(editor, index)
 
     def setModelData(self, editor, model, index):
         if isinstance(editor, QComboBox):
-            model.setData(index, editor.currentText(), Qt.EditRole)
+            model.setData(index, editor.currentText(), Qt.ItemDataRole.EditRole)
         else:
             super().setModelData(editor, model, index)
 
@@ -521,8 +523,8 @@ class _SelectionSync:
                 sm.clearSelection()
             else:
                 idx = self.model().index(row, 0)
-                sm.setCurrentIndex(idx, QItemSelectionModel.ClearAndSelect
-                                   | QItemSelectionModel.Rows)
+                sm.setCurrentIndex(idx, QItemSelectionModel.SelectionFlag.ClearAndSelect
+                                   | QItemSelectionModel.SelectionFlag.Rows)
                 self.scrollTo(idx)
         finally:
             sm.blockSignals(False)
@@ -537,7 +539,7 @@ class PartsTable(QTableView):
         self.verticalHeader().hide()
         self.verticalHeader().setDefaultSectionSize(22)
         self.horizontalHeader().setStretchLastSection(True)
-        self.setEditTriggers(QAbstractItemView.NoEditTriggers)
+        self.setEditTriggers(QAbstractItemView.EditTrigger.NoEditTriggers)
 
     def paintEvent(self, ev):
         with span("tables"):
@@ -548,10 +550,10 @@ class EdgesTable(QTableView, _SelectionSync):
     def __init__(self, document, parent=None):
         super().__init__(parent)
         self.setModel(EdgesModel(document, self))
-        self.setSelectionBehavior(QAbstractItemView.SelectRows)
-        self.setSelectionMode(QAbstractItemView.SingleSelection)
+        self.setSelectionBehavior(QAbstractItemView.SelectionBehavior.SelectRows)
+        self.setSelectionMode(QAbstractItemView.SelectionMode.SingleSelection)
         self.setAlternatingRowColors(True)
-        self.setEditTriggers(QAbstractItemView.NoEditTriggers)
+        self.setEditTriggers(QAbstractItemView.EditTrigger.NoEditTriggers)
         self.verticalHeader().setDefaultSectionSize(22)
         self.horizontalHeader().setStretchLastSection(True)
         self._sync_init(document, "edge")
@@ -569,8 +571,8 @@ class VerticesTable(QTableView, _SelectionSync):
             model.errorRaised = message
         self.setModel(model)
         self.setItemDelegate(PartDelegate(document, self))
-        self.setSelectionBehavior(QAbstractItemView.SelectItems)
-        self.setSelectionMode(QAbstractItemView.SingleSelection)
+        self.setSelectionBehavior(QAbstractItemView.SelectionBehavior.SelectItems)
+        self.setSelectionMode(QAbstractItemView.SelectionMode.SingleSelection)
         self.setAlternatingRowColors(True)
         self.verticalHeader().setDefaultSectionSize(22)
         self.horizontalHeader().setStretchLastSection(True)
@@ -603,7 +605,7 @@ class VerticesPane(QWidget):
         for action in actions:
             button = QToolButton()
             button.setDefaultAction(action)
-            button.setToolButtonStyle(Qt.ToolButtonTextOnly)
+            button.setToolButtonStyle(Qt.ToolButtonStyle.ToolButtonTextOnly)
             row.addWidget(button)
             self.buttons.append(button)
         row.addStretch(1)

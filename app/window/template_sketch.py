@@ -101,7 +101,7 @@ class TemplateSketch(QWidget):
     def __init__(self, parent=None):
         super().__init__(parent)
         self.setMinimumSize(420, 320)
-        self.setSizePolicy(QSizePolicy.Expanding, QSizePolicy.Expanding)
+        self.setSizePolicy(QSizePolicy.Policy.Expanding, QSizePolicy.Policy.Expanding)
         self._section = None
         self._spans = []
         self._unit = "m"

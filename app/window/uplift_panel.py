@@ -160,7 +160,7 @@ class _PartRow:
         self.edits = {}
         for field in FIELDS:
             edit = QLineEdit()
-            edit.setAlignment(Qt.AlignRight | Qt.AlignVCenter)
+            edit.setAlignment(Qt.AlignmentFlag.AlignRight | Qt.AlignmentFlag.AlignVCenter)
             edit.setMinimumWidth(48)
             edit.setMaximumWidth(84)
             edit.setObjectName(f"{part}:{field}")
@@ -168,8 +168,8 @@ class _PartRow:
         self.now = QLabel()
         self.worst = QLabel()
         for label in (self.now, self.worst):
-            label.setTextFormat(Qt.RichText)
-            label.setTextInteractionFlags(Qt.TextSelectableByMouse)
+            label.setTextFormat(Qt.TextFormat.RichText)
+            label.setTextInteractionFlags(Qt.TextInteractionFlag.TextSelectableByMouse)
         # a new verdict relays out the panel only if it is wider than any before
         self.steady = SteadyColumn()
         self.steady.add(self.now)
@@ -206,14 +206,14 @@ class UpliftPanel(QGroupBox):
         self.details = QLabel()
         self.details.setWordWrap(True)
         self.details.setStyleSheet("color: #445;")
-        self.details.setTextInteractionFlags(Qt.TextSelectableByMouse)
+        self.details.setTextInteractionFlags(Qt.TextInteractionFlag.TextSelectableByMouse)
         self._details = SteadyParagraph(self.details)
         lay.addWidget(self.details)
 
         row = QHBoxLayout()
         row.addWidget(QLabel("Required factor"))
         self.factor = QLineEdit()
-        self.factor.setAlignment(Qt.AlignRight | Qt.AlignVCenter)
+        self.factor.setAlignment(Qt.AlignmentFlag.AlignRight | Qt.AlignmentFlag.AlignVCenter)
         self.factor.setMaximumWidth(80)
         self.factor.setToolTip("Required factor against uplift: (self-weight + holding-down)"
                                " / upward load")

@@ -29,7 +29,7 @@ class PickedDrag:
         return (index,)
 
     def mouseDragEvent(self, ev):
-        if ev.button() != Qt.LeftButton:
+        if ev.button() != Qt.MouseButton.LeftButton:
             ev.ignore()
             return
         if ev.isStart():

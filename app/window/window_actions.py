@@ -105,9 +105,9 @@ class WindowActions:
                                  "Click the vertices of a new outline", checkable=True)
         a["fit"] = self._action("&Fit view", self.canvas.fit, "F")
         a["raise"] = self._action("Raise level", lambda: self.fill_panel.step(+1),
-                                  Qt.Key_PageUp)
+                                  Qt.Key.Key_PageUp)
         a["lower"] = self._action("Lower level", lambda: self.fill_panel.step(-1),
-                                  Qt.Key_PageDown)
+                                  Qt.Key.Key_PageDown)
         a["width"] = self._action("Set &width...", self._ask_width)
         a["rename"] = self._action("Re&name section...", self._ask_name)
         a["structure"] = self._action(
