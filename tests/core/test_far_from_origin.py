@@ -229,8 +229,11 @@ def test_translating_a_section_changes_nothing_but_its_position(s, frac, dx, dz)
     # Only where the volume is well above its own round-off (about 1e-16 of
     # the capacity): at a cone's tip V grows as (h - z0)^3, and a level
     # 6e-8 of the height above the tip holds 1e-21 of the capacity, which no
-    # inverse can resolve to 1e-9 of the height.
-    if 1e-6 * capacity(s) < a.volume < capacity(s):
+    # inverse can resolve to 1e-9 of the height. The same holds under a
+    # pointed top, where the volume left above the level shrinks as fast
+    # (hypothesis found a level 1e-5 of the height below an apex of a
+    # revolved section: 1.1e-12 apart when moved by 1 m).
+    if 1e-6 * capacity(s) < a.volume < (1.0 - 1e-6) * capacity(s):
         ha = level_for_volume(s, a.volume)
         hb = level_for_volume(moved, a.volume)
         assert hb - shift[1] == pytest.approx(ha, rel=0, abs=1e-12 * max(abs(ha), abs(hb)))
