@@ -281,7 +281,7 @@ class Section:
         """Lowest point of all ``open`` edges [m], or None for a closed section."""
         if not self.is_open:
             return None
-        idx = np.array([i for i, p in enumerate(self.parts) if p == OPEN])
+        idx = np.flatnonzero(self.geometry.part_index == self.part_names.index(OPEN))
         z = self.outline[:, 1]
         return float(min(z[idx].min(), z[(idx + 1) % self.n_edges].min()))
 
@@ -338,7 +338,7 @@ class Section:
         np.divide(1.0, abs_dz, out=inv_abs_dz, where=abs_dz > 0)
         falls = (dz < 0).astype(np.float64)
         index = {p: k for k, p in enumerate(self.part_names)}
-        part_index = np.fromiter((index[p] for p in self.parts), dtype=np.intp,
+        part_index = np.fromiter(map(index.__getitem__, self.parts), dtype=np.intp,
                                  count=len(self.parts))
         vertex_z = np.append(z0, z0[0])
         arrays = dict(x0=x0, z0=z0, dx=dx, dz=dz, length=length, nx=nx, nz=nz,
@@ -433,14 +433,19 @@ def _checked_parts(parts: Sequence[str] | None, n: int) -> tuple[str, ...]:
     """One part name per edge (default all ``"wall"``)."""
     if parts is None:
         return ("wall",) * n
-    if isinstance(parts, str) or not all(isinstance(p, str) for p in parts):
+    if isinstance(parts, str):
         raise SectionError("parts must be a list of names, one per edge")
     names = tuple(parts)
+    # (Checked over the distinct names and types: a drag step builds a
+    # section of the same 10,000 names again, and a Python loop over them
+    # cost milliseconds.)
+    if not set(map(type, names)) <= {str} and not all(isinstance(p, str) for p in names):
+        raise SectionError("parts must be a list of names, one per edge")
     if len(names) != n:
         raise SectionError(f"parts has {len(names)} names but the outline has {n} edges")
-    for i, p in enumerate(names):
-        if not p.strip():
-            raise SectionError(f"edge {i} has an empty part name", edges=(i,))
+    if not all(p.strip() for p in set(names)):
+        i = next(i for i, p in enumerate(names) if not p.strip())
+        raise SectionError(f"edge {i} has an empty part name", edges=(i,))
     return names
 
 

@@ -437,12 +437,14 @@ class LoadMark:
 
 def edges_words(edges):
     """``"edge 2"``, ``"edges 2, 3"``, ``"edges 5 to 9"``: the edges of a run, in order."""
-    edges = tuple(int(e) for e in edges)
+    if not isinstance(edges, (tuple, list, np.ndarray)):
+        edges = tuple(edges)
+    first, last = int(edges[0]), int(edges[-1])  # (a run may hold 10,000 edges)
     if len(edges) == 1:
-        return f"edge {edges[0]}"
+        return f"edge {first}"
     if len(edges) == 2:
-        return f"edges {edges[0]}, {edges[1]}"
-    return f"edges {edges[0]} to {edges[-1]}"
+        return f"edges {first}, {last}"
+    return f"edges {first} to {last}"
 
 
 def load_marks(solution, runs, w=None):
@@ -480,7 +482,7 @@ def load_marks(solution, runs, w=None):
             run, fx, fz, x, z = items[0]
             totals.append(LoadMark(part, run.edges, fx, fz, x, z, total=True, arrow=True))
             continue
-        edges = tuple(e for run, *_ in items for e in run.edges)
+        edges = tuple(itertools.chain.from_iterable(run.edges for run, *_ in items))
         (_, fx, fz, x, z), = run_resultants(solution, [PartRun(part, edges)], w) or [
             (None, 0.0, 0.0, float(np.mean([i[3] for i in items])),
              float(np.mean([i[4] for i in items])))]
