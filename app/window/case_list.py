@@ -64,7 +64,7 @@ class CasesModel(QAbstractTableModel):
         document.casesChanged.connect(self._on_casesChanged)
         document.activeCaseChanged.connect(self._on_casesChanged)
         document.sectionChanged.connect(self._on_casesChanged)
-        document.unitsChanged.connect(self._on_casesChanged)
+        document.unitsChanged.connect(self._on_unitsChanged)
 
     def rowCount(self, parent=QModelIndex()):
         return 0 if parent.isValid() else len(self._rows)
@@ -78,15 +78,35 @@ class CasesModel(QAbstractTableModel):
         return None
 
     def _texts(self):
-        """Each row's cells as text, and whether it has groundwater."""
+        """Each row's cells as text, and whether it has groundwater.
+
+        A row's texts follow from its load case, its resolved case and the
+        display units; where all three are the objects of the last call (a
+        slider step re-resolves only the active case), the row's texts are
+        those of the last call."""
         doc = self._doc
         units = doc.units
+        design = doc.design
+        last = getattr(self, "_made", {})
+        made = {}
         rows = []
-        for r, lc in enumerate(doc.load_cases):
-            gw = lc.groundwater
-            rows.append((lc.name, self.fill_text(r), format_number(lc.load_factor),
-                         "none" if gw is None else units.fmt_length(gw.level), gw is not None))
+        for r, (lc, name) in enumerate(zip(doc.load_cases, doc.case_names, strict=True)):
+            key = (lc, design.resolve(name), units)
+            kept = last.get(r)
+            if kept is not None and all(a is b for a, b in zip(kept[0], key, strict=True)):
+                row = kept[1]
+            else:
+                gw = lc.groundwater
+                row = (lc.name, self.fill_text(r), format_number(lc.load_factor),
+                       "none" if gw is None else units.fmt_length(gw.level), gw is not None)
+            made[r] = (key, row)
+            rows.append(row)
+        self._made = made
         return rows
+
+    def _on_unitsChanged(self):
+        self._made = {}  # (the precision policy too: every text again)
+        self._on_casesChanged()
 
     def _on_casesChanged(self):
         rows = self._texts()

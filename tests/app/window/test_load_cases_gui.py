@@ -451,3 +451,26 @@ def test_the_list_columns_grow_to_texts_that_grow(well, settle):
     settle(well)
     assert _cell(m, 1, 1) == "spill (13.12 ft)"
     assert cut_cells() == []
+
+
+def test_the_list_writes_its_texts_again_for_new_units_and_precision(well, settle):
+    # The rows keep their texts while their cases are the same objects (a
+    # slider step changes one); new units or a new precision policy must
+    # still reach every row.
+    from dataclasses import replace
+
+    from wetline.app.model.display import DisplayChoice
+
+    m = well.case_list.model
+    editing.set_units(well.doc, DisplayChoice("us", "ft"))
+    settle(well)
+    assert _cell(m, 1, 1) == "spill (13.12 ft)"
+    report = replace(well.doc.case.report, significant_figures=6)
+    assert editing.set_report_info(well.doc, report) is not False
+    settle(well)
+    assert _cell(m, 1, 1) == "spill (13.1234 ft)"
+    slider = well.fill_panel.slider
+    slider.setValue(slider.value() - 50)  # the active case's fill: its row only
+    settle(well)
+    assert _cell(m, 1, 1) == "spill (13.1234 ft)"
+    assert _cell(m, 0, 1) == well.doc.units.fmt_length(well.doc.solution.level)
