@@ -70,14 +70,13 @@ class LabelItem(QGraphicsItem):
         self._size = (2 * LABEL_MARGIN, 2 * LABEL_MARGIN)
         self._rect = QRectF(0.0, 0.0, *self._size)
 
-    def set_label(self, text, colour, bold):
+    def set_label(self, text, colour, bold, size):
         """Show ``text`` in ``colour`` (anything ``pyqtgraph.mkColor`` takes),
-        demi-bold if ``bold``."""
-        fm = self._fonts[1 if bold else 0][1]
+        demi-bold if ``bold``, in a box of ``size`` (width, height) [px]
+        (:meth:`CanvasLabels._text_size`, the size the layout placed)."""
         self._text, self.bold = text, bool(bold)
         self._pen = pg.mkColor(colour)
-        self._size = (fm.horizontalAdvance(text) + 2 * LABEL_MARGIN,
-                      fm.height() + 2 * LABEL_MARGIN)
+        self._size = size
         self._place_box()
 
     def set_anchor(self, anchor):
@@ -273,12 +272,12 @@ class CanvasLabels:
                                           anchor, required=not optional, margin=LABEL_MARGIN,
                                           key=text, offsets=NEAR_OFFSETS if near else None)
 
-    @staticmethod
-    def _set(item, key, anchor, pos):
+    def _set(self, item, key, anchor, pos):
         """``item`` showing ``key`` (text, colour, bold) anchored at ``pos``."""
         if item._key != key:
             item._key = key
-            item.set_label(*key)
+            text, colour, bold = key
+            item.set_label(text, colour, bold, self._text_size(text, bold))
         anchor = tuple(anchor)
         if item.anchor != anchor:
             item.set_anchor(anchor)
