@@ -17,6 +17,7 @@ text needs another height or its panel is resized.
 
 from __future__ import annotations
 
+import shiboken6
 from PySide6.QtCore import QEvent, QObject
 
 __all__ = ["SteadyColumn", "SteadyParagraph"]
@@ -118,7 +119,8 @@ class SteadyParagraph(QObject):
             w = w.parentWidget()
         if around != self._around:
             for w in self._around:
-                w.removeEventFilter(self)
+                if shiboken6.isValid(w):  # (an old parent may be gone)
+                    w.removeEventFilter(self)
             for w in around:
                 w.installEventFilter(self)
             self._around = around
