@@ -47,9 +47,10 @@ def case_level_tables(design: Design, active: int, levels: NDArray[np.float64],
     if law is None:
         law = PressureLaw.single(c.liquid.density, float(levels[-1]), c.gravity)
     levels = np.asarray(levels, dtype=np.float64)
-    if solved_levels is not None and levels.size > max(int(solved_levels), 2):
+    cap = None if solved_levels is None else max(int(solved_levels), 2)
+    if cap is not None and levels.size > cap:
         ends = float(levels[0]), float(levels[-1])
-        levels = np.linspace(*ends, max(int(solved_levels), 2))
+        levels = np.linspace(*ends, cap)
         levels[-1] = ends[1]  # the spill level, exactly
     if law.interfaces:
         top = law.interfaces[-1]

@@ -69,6 +69,8 @@ class LabelItem(QGraphicsItem):
         self.anchor = (0.0, 0.0)
         self._size = (2 * LABEL_MARGIN, 2 * LABEL_MARGIN)
         self._rect = QRectF(0.0, 0.0, *self._size)
+        self._key = None  # (text, colour, bold) and place, kept by CanvasLabels
+        self._pos = None
 
     def set_label(self, text, colour, bold, size):
         """Show ``text`` in ``colour`` (anything ``pyqtgraph.mkColor`` takes),
@@ -290,7 +292,6 @@ class CanvasLabels:
     def _new_item(self):
         """A new label for the pool."""
         item = LabelItem(self._fonts)
-        item._key = item._pos = None
         item.setZValue(35)
         self._vb.addItem(item, ignoreBounds=True)
         self.items.append(item)

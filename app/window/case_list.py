@@ -58,6 +58,7 @@ class CasesModel(QAbstractTableModel):
     def __init__(self, document, parent=None):
         super().__init__(parent)
         self._doc = document
+        self._made = {}  # row: (the objects its texts follow from, the texts)
         self._rows = self._texts()
         self._active = document.active_index
         self.last_error = ""
@@ -87,8 +88,7 @@ class CasesModel(QAbstractTableModel):
         doc = self._doc
         units = doc.units
         design = doc.design
-        last = getattr(self, "_made", {})
-        made = {}
+        last, made = self._made, {}
         rows = []
         for r, (lc, name) in enumerate(zip(doc.load_cases, doc.case_names, strict=True)):
             key = (lc, design.resolve(name), units)
