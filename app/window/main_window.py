@@ -118,8 +118,11 @@ class MainWindow(WindowActions, FileCommands, QMainWindow):
         uplift_scroll = QScrollArea()
         uplift_scroll.setWidget(checks)
         uplift_scroll.setWidgetResizable(True)
-        uplift_scroll.setHorizontalScrollBarPolicy(Qt.ScrollBarPolicy.ScrollBarAlwaysOff)
+        # a dock narrower than the checks scrolls them rather than cutting
+        # their right-hand column off
+        uplift_scroll.setHorizontalScrollBarPolicy(Qt.ScrollBarPolicy.ScrollBarAsNeeded)
         parts_page.addWidget(uplift_scroll)
+        self.uplift_scroll = uplift_scroll
         parts_page.setSizes([125, 400])
         self.parts_page = parts_page
         a = self.actions_by_name

@@ -170,11 +170,17 @@ class _PartRow:
         for label in (self.now, self.worst):
             label.setTextFormat(Qt.TextFormat.RichText)
             label.setTextInteractionFlags(Qt.TextInteractionFlag.TextSelectableByMouse)
-        # a new verdict relays out the panel only if it is wider than any before
-        self.steady = SteadyColumn()
-        self.steady.add(self.now)
-        self.steady.add(self.worst)
+        # a new verdict relays out the panel only if it is wider than any
+        # before in its own cell (one width per label: a row's "now" and
+        # "worst" sharing the wider of the two made the panel outgrow its dock)
+        self.steady = {label: SteadyColumn() for label in (self.now, self.worst)}
+        for label, column in self.steady.items():
+            column.add(label)
         self.shown = {}  # field -> text written into the edit
+
+    def show(self, label, text):
+        """Write ``text`` into ``label`` (``now`` or ``worst``) through its column."""
+        self.steady[label].set_text(label, text)
 
     def widgets(self):
         return (self.name, *self.edits.values(), self.now, self.worst)
@@ -368,17 +374,16 @@ class UpliftPanel(QGroupBox):
             if r is None:
                 load = sol.parts.get(part)
                 lifted = load is not None and load.down < 0
-                row.steady.set_text(row.now, f'<span style="color:{MUTED};">-</span>')
-                row.steady.set_text(row.worst, "")
+                row.show(row.now, f'<span style="color:{MUTED};">-</span>')
+                row.show(row.worst, "")
                 row.now.setToolTip("Enter a self-weight or holding-down resistance to check "
                                    "this part" + (" (it is pushed up now)" if lifted else ""))
                 continue
             level_now = units.fmt_length(sol.level)
             level_worst = units.fmt_length(r.worst_level)
-            row.steady.set_text(row.now, verdict_html(r.ok_now, r.factor))
+            row.show(row.now, verdict_html(r.ok_now, r.factor))
             row.now.setToolTip(f"Factor at the current level {level_now}")
-            row.steady.set_text(row.worst, verdict_html(r.ok, r.worst_factor, level_worst,
-                                                        sampled))
+            row.show(row.worst, verdict_html(r.ok, r.worst_factor, level_worst, sampled))
             row.worst.setToolTip(SAMPLED_TIP if sampled else
                                  "The level in the fill range with the greatest uplift")
             lines.append(

@@ -321,3 +321,36 @@ def test_a_bad_required_factor_is_marked_too(sump_window):
     type_into(panel.factor, "1.3")
     assert panel.factor.property("invalid") is False
     assert sump_window.doc.case.required_uplift_factor == 1.3
+
+
+def test_the_verdicts_fit_the_visible_panel_at_the_default_window_size(
+        make_window, settle, sample):
+    """Defect: in US feet at a 1500 px window, the "Worst level" column of
+    the buried wet well ran past the scroll area's right edge ("at 14.76 ft"
+    cut off, no scroll bar): each row's two verdict labels shared one width,
+    the wider of the two, so the panel's minimum outgrew its dock."""
+    w = make_window()
+    w.resize(1500, 940)
+    assert w.open_path(str(sample("buried_wet_well")), ask=False)
+    editing.set_units(w.doc, DisplayChoice("us", "ft"))
+    for value in (500, 600, 700):
+        w.fill_panel.slider.setValue(value)
+        settle(w)
+    panel = w.uplift_panel
+    scroll = w.uplift_scroll
+    visible = scroll.viewport().width()
+    for part, row in panel._rows.items():
+        if not row.worst.text():
+            continue
+        right = row.worst.mapTo(scroll.widget(), row.worst.rect().topRight()).x()
+        needed = row.worst.sizeHint().width()
+        assert row.worst.width() >= needed, part  # its text whole
+        assert right <= visible, (part, right, visible)  # and inside the view
+    # the "now" column is as wide as its own texts, not as the worst column
+    now_widths = {row.now.width() for row in panel._rows.values()}
+    assert max(now_widths) <= max(r.now.sizeHint().width() for r in panel._rows.values())
+    # a window too narrow for the checks scrolls them instead of cutting them
+    w.resize(1000, 940)
+    settle(w)
+    widest = scroll.widget().minimumSizeHint().width()
+    assert widest <= scroll.viewport().width() or scroll.horizontalScrollBar().isVisible()
