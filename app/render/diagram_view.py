@@ -27,7 +27,6 @@ from wetline.app.render.geometry import (
 from wetline.app.render.label_painter import LabelPainter
 from wetline.app.render.style import INK, LEFT, MUTED, TOP, WRAP
 from wetline.app.render.text_blocks import text_height
-from wetline.core.numbers import format_entered
 
 __all__ = ["DiagramView", "ORDINATE_SHARE"]
 
@@ -90,9 +89,8 @@ class DiagramView:
                                        interfaces=scene.interfaces)
         du = scene.units
         fm = QFontMetricsF(fonts.label)
-        self.level_text_w = max(
-            (fm.horizontalAdvance(f"{lv.name} {format_entered(du.to_display(lv.z, 'length'))} "
-                                  f"{du.label('length')}") for lv in self.levels), default=0.0)
+        self.level_text_w = max((fm.horizontalAdvance(lv.text(du)) for lv in self.levels),
+                                default=0.0)
         self.width_spans = 1 if st is None else 2
         self._fit(size)
         self.labels = LabelPainter(self.inner.adjusted(0, self.caption_height, 0,

@@ -651,6 +651,13 @@ class Level:
     z: float
     name: str
 
+    def text(self, units) -> str:
+        """Its name and height as the drawing writes them, ``"floor 0 m"``:
+        the height to the policy's figures, as the window's labels and the
+        dimension lines give it (a free surface found from a volume is a
+        result; a level converted to feet is not 12 figures of an input)."""
+        return f"{self.name} {units.text(self.z, 'length')}"
+
 
 def dimension_levels(section, solution, *, groundwater=None, ground=None, interfaces=()):
     """The levels that matter, lowest first: the floor (the section's lowest

@@ -149,10 +149,10 @@ class SheetInputs:
                 ("Outline", f"{s.n_edges} vertices and {s.n_edges} edges; coordinates "
                             f"below in {escape(L)} (the file gives them in "
                             f"{escape(case.length_unit)})"),
-                ("Extent", f"x from {format_number(pts[:, 0].min())} to "
-                           f"{format_number(pts[:, 0].max())} {escape(L)}, z from "
-                           f"{format_number(pts[:, 1].min())} to "
-                           f"{format_number(pts[:, 1].max())} {escape(L)}"),
+                ("Extent", f"x from {format_entered(pts[:, 0].min())} to "
+                           f"{format_entered(pts[:, 0].max())} {escape(L)}, z from "
+                           f"{format_entered(pts[:, 1].min())} to "
+                           f"{format_entered(pts[:, 1].max())} {escape(L)}"),
                 ("Parts", escape(parts)),
                 ("Top", top)]
         out.append(kv_html(rows))
@@ -162,7 +162,7 @@ class SheetInputs:
                        "x to the right, z up.</p>")
             xl = "r" if s.is_axisymmetric else "x"
             header = ("vertex", f"{xl} [{L}]", f"z [{L}]", "edge i part")
-            rows = [(i, float(pts[i, 0]), float(pts[i, 1]), s.parts[i])
+            rows = [(i, Entered(float(pts[i, 0])), Entered(float(pts[i, 1])), s.parts[i])
                     for i in range(s.n_edges)]
             out.append(table_html(header, rows, align=["right", "right", "right", "left"],
                                    widths=[12, 22, 22, 44]))
@@ -200,7 +200,11 @@ class SheetInputs:
         else:
             how = "level given"
         rows.append(("Fill", escape(how)))
-        rows.append(("Requested level", escape(self.length(sol.requested_level))))
+        requested = self.length(sol.requested_level)
+        if case.fill_volume is None or self.level_given:  # typed: echoed as typed
+            requested = (f"{format_entered(du.to_display(sol.requested_level, 'length'))} "
+                         f"{du.label('length')}")
+        rows.append(("Requested level", escape(requested)))
         level = self.length(sol.level)
         if sol.level != sol.requested_level:
             level += ", capped at the spill level"

@@ -32,7 +32,6 @@ from wetline.app.render.style import (
     STRUCTURE_FILL,
     VCENTER,
 )
-from wetline.core.numbers import format_entered
 
 __all__ = ["draw_numbers", "draw_dimensions", "draw_structure", "draw_outer_diagram",
            "MAX_NUMBERS"]
@@ -137,7 +136,7 @@ def draw_dimensions(p, view):
                  view.labels.bounds.top() + 0.5 * step, view.labels.bounds.bottom() - 0.5 * step)
     p.setFont(font)
     for lv, y in zip(levels, ys, strict=True):
-        text = f"{lv.name} {format_entered(du.to_display(lv.z, 'length'))} {du.label('length')}"
+        text = lv.text(du)
         box = QRectF(view.area.left() + 0.3 * f, y - 0.5 * step, x_rail - view.area.left()
                      - 0.9 * f, step)
         p.setPen(QColor(INK))

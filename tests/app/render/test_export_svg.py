@@ -137,3 +137,28 @@ def test_command_line_export_svg(tmp_path, capsys, sample):
     status = main(["export", str(sample("sump_with_lid"))])
     o, err = capsys.readouterr()
     assert status == 2 and err.startswith("error: ") and "--svg" in err
+
+
+def test_level_names_in_the_drawing_read_as_in_the_window(tmp_path, capsys, template_case,
+                                                           sample):
+    """Defect: the exported drawing wrote each named level "as entered", to
+    12 figures: a free surface found from a volume read "free surface
+    1.7211268225 m" (a result, printed past the policy's 4 figures) and the
+    wet well's ground in feet "14.7637795276 ft", where the window, its
+    dimension lines and the tables say 1.721 m and 14.76 ft."""
+    from wetline.core.numbers import format_number
+
+    case = template_case("cone_hopper").with_volume(3.3)
+    level = case.solve().level
+    out = tmp_path / "cone.svg"
+    export_svg(case, out, size=SIZE)
+    texts = [e.text or "" for e in ET.parse(out).getroot().iter(SVG + "text")]
+    assert f"free surface {format_number(level)} m" in texts
+    assert not any(re.search(r"\d\.\d{6,}", t) for t in texts), texts
+
+    out = tmp_path / "well.svg"
+    status = main(["export", str(sample("buried_wet_well")), "--svg", str(out), "--units", "us"])
+    assert status == 0, capsys.readouterr().err
+    words = " ".join(e.text or "" for e in ET.parse(out).getroot().iter(SVG + "text"))
+    assert "ground 14.76 ft" in words
+    assert not re.search(r"\d\.\d{6,}", words), words

@@ -235,3 +235,18 @@ def test_a_short_table_ending_at_a_page_break_leaves_no_lone_header(qapp, sample
     case = design.resolve(design.names[0]).as_case()
     texts, _ = pages_text(report_pdf_bytes(case, date=DATE))
     assert sum(t.count("holding-down R") for t in texts) == 1
+
+
+def test_the_outline_table_echoes_the_coordinates_as_entered(qapp):
+    """Defect: the sheet's note says coordinates are echoed as entered, and
+    the outer outline's table does so, but the section's own vertex table
+    rounded them to the results' 4 figures: a vertex typed at 2.34567 m read
+    2.346 m, so a checker could not tell the drawn point from the typed one."""
+    pts = [(0.0, 0.0), (2.34567, 0.0), (2.34567, 3.0), (0.0, 3.0)]
+    case = Case.default(Section.build(pts, parts=["floor", "wall", "open", "wall"]), 1.5)
+    text = " ".join(pages_text(report_pdf_bytes(case, date=DATE))[0])
+    inputs = text[text.index("1.1 Section"):text.index("1.2 Liquid")]
+    assert "1 2.34567 0 wall" in inputs and "2 2.34567 3 open" in inputs
+    # the fill level typed is echoed as typed too; the level used is a result
+    text = " ".join(pages_text(report_pdf_bytes(case.with_level(1.23456), date=DATE))[0])
+    assert "Requested level 1.23456 m" in text and "Level used 1.235 m" in text
