@@ -27,6 +27,7 @@ from wetline.app.model.document import fill_range
 from wetline.app.model.step_timer import span
 from wetline.app.render.style import FLOOR_COLOUR, LEVEL_MARK, LEVEL_SERIES, part_colours
 from wetline.app.window.grid import LightGrid
+from wetline.app.window.level_cursor import LevelCursor
 from wetline.app.window.outer_legend import legend_outside
 from wetline.app.window.view_range import smallest_span, usable_range
 from wetline.core.section import FLOOR
@@ -57,14 +58,12 @@ class LoadChart(pg.PlotWidget):
         plot.getViewBox().disableAutoRange()
         self._curves = []
         self._series_key = None
-        self.cursor = pg.InfiniteLine(angle=90, movable=True,
-                                      pen=pg.mkPen(CURSOR_COLOUR, width=1.5),
-                                      hoverPen=pg.mkPen(CURSOR_COLOUR, width=3))
+        self.cursor = LevelCursor(pg.mkPen(CURSOR_COLOUR, width=1.5),
+                                  pg.mkPen(CURSOR_COLOUR, width=3), CURSOR_COLOUR)
+        """The cursor at the current level, its value beside its top."""
         self.cursor.setCursor(Qt.CursorShape.SizeHorCursor)
         self.cursor.setToolTip("Drag to set the fill level (or click in the chart)")
-        self.cursor_label = pg.TextItem(color=CURSOR_COLOUR, anchor=(0, 0))
         plot.addItem(self.cursor, ignoreBounds=True)
-        plot.addItem(self.cursor_label, ignoreBounds=True)
         self._zero = pg.InfiniteLine(angle=0, movable=False, pos=0,
                                      pen=pg.mkPen("#888888", width=1))
         plot.addItem(self._zero, ignoreBounds=True)
@@ -73,7 +72,6 @@ class LoadChart(pg.PlotWidget):
         self.cursor.sigDragged.connect(self._on_cursorDragged)
         self.cursor.sigPositionChangeFinished.connect(self._on_cursorReleased)
         self.scene().sigMouseClicked.connect(self._on_mouseClicked)
-        plot.getViewBox().sigRangeChanged.connect(self._place_cursor_label)
         self.marks = pg.ScatterPlotItem(size=11, symbol="d", pen=pg.mkPen("#1d2530", width=1))
         self.marks.setZValue(20)
         plot.addItem(self.marks, ignoreBounds=True)
@@ -252,13 +250,7 @@ class LoadChart(pg.PlotWidget):
         u = self._doc.units
         x = float(u.length(solution.level))
         self.cursor.setValue(x)
-        self.cursor_label.setText(f"{u.fmt_length(solution.level)}")
-        self._place_cursor_label()
-
-    def _place_cursor_label(self, *_):
-        """The level's value at the top of the chart, beside the cursor."""
-        top = self.getPlotItem().getViewBox().viewRange()[1][1]
-        self.cursor_label.setPos(self.cursor.value(), top)
+        self.cursor.setText(u.fmt_length(solution.level))
 
     # ----------------------------------------------------------- user
     def _level_range(self):

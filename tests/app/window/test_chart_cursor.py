@@ -94,3 +94,23 @@ def test_click_in_the_chart_sets_the_level_within_the_range(make_window, settle)
     settle(w)
     assert doc.case.fill_level == hi
     assert doc.undo_stack.count() == 2
+
+
+def test_the_cursor_spans_the_view_and_shows_the_level(make_window, settle):
+    """The cursor reads the current level beside its top and reaches from
+    the bottom to the top of the view, after a zoom as well."""
+    w = make_window()
+    chart, u = w.chart, w.doc.units
+    w.fill_panel.slider.setValue(500)
+    settle(w)
+    assert chart.cursor.text() == u.fmt_length(w.doc.solution.level)
+    assert chart.cursor.value() == pytest.approx(u.length(w.doc.solution.level))
+    vb = chart.getPlotItem().getViewBox()
+    vb.setYRange(-50.0, 250.0, padding=0)
+    settle(w)
+    rect = chart.cursor.mapRectToView(chart.cursor.boundingRect())
+    assert (rect.top(), rect.bottom()) == pytest.approx((-50.0, 250.0))
+    # a few pixels either side of the line: where it is grabbed
+    px = vb.viewPixelSize()[0]
+    assert rect.left() <= chart.cursor.value() - 3 * px
+    assert rect.right() >= chart.cursor.value() + 3 * px
