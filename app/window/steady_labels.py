@@ -52,16 +52,17 @@ class SteadyColumn:
     def fit(self, label):
         """Fit ``label`` (after a change of its text, font or style sheet):
         the column widens for it if it must, every label with it."""
-        width = label.sizeHint().width()
-        if width > self.width:
-            self.width = width
+        hint = label.sizeHint()  # one text layout: its width and height
+        if hint.width() > self.width:
+            self.width = hint.width()
             for other in self._labels:
-                self._fix(other)
+                self._fix(other, hint.height() if other is label else None)
         else:
-            self._fix(label)
+            self._fix(label, hint.height())
 
-    def _fix(self, label):
-        height = label.sizeHint().height()
+    def _fix(self, label, height=None):
+        if height is None:
+            height = label.sizeHint().height()
         if label.minimumSize() != label.maximumSize() or label.maximumWidth() != self.width \
                 or label.maximumHeight() != height:
             label.setFixedSize(self.width, height)
