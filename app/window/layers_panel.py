@@ -165,7 +165,7 @@ class LayerList(QWidget):
                 text = layer_word(i, layers[i].liquid.name)
                 if loads is not None:
                     top = loads[i].top
-                    text += ("  to the surface " if i == n - 1 else "  to ") + \
+                    text += (", up to the free surface at " if i == n - 1 else ", up to ") + \
                         units.fmt_length(top)
                 texts.append(text)
             if [self.list.item(k).text() for k in range(self.list.count())] != texts:

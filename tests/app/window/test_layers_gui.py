@@ -173,3 +173,17 @@ def test_the_chart_says_which_level_it_moves_for_a_layered_case(window_of):
     assert "top layer rising" in layered.chart._axis_labels[0]
     plain = window_of("grease_trap", 2)  # the water test: one liquid
     assert plain.chart._axis_labels[0] == "Level [m]"
+
+
+def test_layer_list_rows_read_as_sentences(window_of):
+    """Defect: each row read "2 fats, oils and grease  to the surface 2 m",
+    a double space standing for punctuation; each now says where the layer
+    reaches, with the level as the totals give it."""
+    w = window_of("grease_trap")
+    lst = w.liquid_panel.layer_list.list
+    sol = _core(w)
+    fmt = w.doc.units.fmt_length
+    texts = [lst.item(k).text() for k in range(lst.count())]
+    assert texts == [f"2 fats, oils and grease, up to the free surface at {fmt(sol.layers[1].top)}",
+                     f"1 raw sewage, up to {fmt(sol.layers[0].top)}"]
+    assert not any("  " in t for t in texts)
