@@ -39,3 +39,28 @@ def test_without_a_pen_or_with_a_cosmetic_one_it_is_the_path():
     assert item.boundingRect() == _zigzag().controlPointRect()
     item.setPath(path_of(np.array([5.0, 6.0]), np.array([1.0, 1.5]), "all"))
     assert item.boundingRect().left() == 5.0  # a new path: a new rectangle
+
+
+def _elements(path):
+    return [(e.type, e.x, e.y) for e in (path.elementAt(i) for i in range(path.elementCount()))]
+
+
+@pytest.mark.parametrize(("n", "share"), [(1, 0.0), (2, 1.0), (3, 1.0), (5, 0.0), (60, 0.1),
+                                         (300, 0.05), (300, 0.5), (2000, 1.0)])
+def test_paths_have_the_elements_pyqtgraph_makes(n, share):
+    """path_of writes each run of connected points as a polygon: the same
+    moveTo and lineTo elements, bit for bit, as pyqtgraph's arrayToQPath
+    (the reference, from PyPI), for runs of two points or more (a diagram's
+    polygons and lines), with few runs or past MAX_POLYGONS."""
+    import pyqtgraph as pg
+
+    rng = np.random.default_rng(n)
+    x, z = rng.normal(size=n) * 10.0 ** rng.integers(-3, 6), rng.normal(size=n)
+    connect = rng.random(n) >= share  # False: the point ends a run
+    for i in range(n - 1):
+        if i == 0 or not connect[i - 1]:
+            connect[i] = True  # no run of one point
+    expected = pg.arrayToQPath(x, z, connect=connect, finiteCheck=False)
+    assert _elements(path_of(x, z, connect)) == _elements(expected)
+    assert _elements(path_of(x, z, "all")) == _elements(
+        pg.arrayToQPath(x, z, connect="all", finiteCheck=False))
