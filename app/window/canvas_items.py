@@ -14,9 +14,10 @@ import pyqtgraph as pg
 from pyqtgraph import functions as pg_functions
 from PySide6.QtCore import Qt
 from PySide6.QtGui import QBrush, QColor, QPainterPath, QPen
-from PySide6.QtWidgets import QGraphicsPathItem
+from PySide6.QtWidgets import QGraphicsItem, QGraphicsPathItem
 
-__all__ = ["MAX_POLYGONS", "cosmetic_pen", "path_of", "rings_path", "edge_segments", "pairs_curve",
+__all__ = ["MAX_POLYGONS", "UPDATE_MARGIN_PX", "LineItem", "cosmetic_pen", "line_curve",
+           "path_of", "rings_path", "edge_segments", "pairs_curve",
            "filled_path_item", "add_item", "FilledPathItem"]
 
 
@@ -97,10 +98,31 @@ def add_item(viewbox, item, z, visible=True):
     return item
 
 
+UPDATE_MARGIN_PX = 2.0
+"""What Qt's view adds around every item's update for antialiasing [px]: a
+cosmetic pen up to twice as wide is repainted whole though a
+:class:`LineItem`'s rectangle is its points'."""
+
+
 def pairs_curve(viewbox, pen, z, visible=True):
-    """A ``connect='pairs'`` curve (many separate segments in one item)."""
+    """A ``connect='pairs'`` curve (many separate segments in one item), a
+    pyqtgraph curve that may take a device-pixel cache (see
+    :func:`line_curve` for one that changes at every fill step)."""
     return add_item(viewbox, pg.PlotCurveItem(connect="pairs", skipFiniteCheck=True, pen=pen),
                     z, visible)
+
+
+def line_curve(viewbox, pen, z, visible=True, connect="all"):
+    """A curve of points drawn with ``pen`` (anything ``pyqtgraph.mkPen``
+    takes) that changes with the fill (the load layer's): a
+    :class:`LineItem`, or pyqtgraph's ``PlotCurveItem`` for a pen wider than
+    :data:`UPDATE_MARGIN_PX` allows (it pads its rectangle)."""
+    pen = pg.mkPen(pen)
+    if pen.isCosmetic() and pen.widthF() <= 2.0 * UPDATE_MARGIN_PX:
+        item = LineItem(pen, connect)
+    else:
+        item = pg.PlotCurveItem(connect=connect, skipFiniteCheck=True, pen=pen)
+    return add_item(viewbox, item, z, visible)
 
 
 class FilledPathItem(QGraphicsPathItem):
@@ -143,3 +165,52 @@ def filled_path_item(viewbox, brush, z, pen=None, visible=True):
     item.setBrush(QBrush(brush))
     item.setPen(pen if pen is not None else QPen(Qt.PenStyle.NoPen))
     return add_item(viewbox, item, z, visible)
+
+
+class LineItem(FilledPathItem):
+    """A curve through points x, z [m] drawn with a cosmetic pen and no fill:
+    the part of ``pyqtgraph.PlotCurveItem`` the canvas uses (``setData``
+    with ``connect``, ``getData``, ``xData``, ``yData``, ``opts["pen"]``,
+    ``setPen``), painted by Qt itself. A ``PlotCurveItem`` paints, bounds
+    and measures its data in Python at every repaint, and a fill step
+    repaints nearly every curve of the canvas. The pixels are pyqtgraph's,
+    but that a solid connected line wider than a pixel is joined at its
+    vertices where pyqtgraph draws separate segments.
+
+    Its rectangle is its points' (:class:`FilledPathItem`): the pen's reach
+    lies within the view's margin around every update, but a device-pixel
+    cache would cut it off, so a line item refuses one.
+    """
+
+    def __init__(self, pen, connect="all"):
+        super().__init__()
+        self._connect = connect
+        self.xData = np.empty(0)
+        self.yData = np.empty(0)
+        self.opts = {}
+        self.setBrush(QBrush(Qt.BrushStyle.NoBrush))
+        self.setPen(pen)
+
+    def setPen(self, pen):
+        pen = pg.mkPen(pen)
+        self.opts["pen"] = pen
+        super().setPen(pen)
+
+    def setCacheMode(self, mode, size=None):
+        if mode != QGraphicsItem.CacheMode.NoCache:
+            raise ValueError("a LineItem is drawn afresh: its rectangle leaves out its pen")
+        super().setCacheMode(mode)
+
+    def setData(self, x, y, connect=None):
+        """Draw through the points ``x``, ``y`` [m]; ``connect`` as for
+        :func:`path_of` (kept for later calls, as pyqtgraph keeps it)."""
+        if connect is not None:
+            self._connect = connect
+        self.xData = np.asarray(x, dtype=float)
+        self.yData = np.asarray(y, dtype=float)
+        self.setPath(path_of(self.xData, self.yData, self._connect))
+
+    def getData(self):
+        """The points drawn, (x, z) [m]."""
+        return self.xData, self.yData
+

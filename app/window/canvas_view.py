@@ -9,6 +9,7 @@ import numpy as np
 from PySide6.QtCore import Qt
 from PySide6.QtWidgets import QGraphicsPathItem, QGraphicsView
 
+from wetline.app.window.canvas_items import LineItem
 from wetline.app.window.grid import LightGrid
 from wetline.app.window.view_range import smallest_span, usable_range
 
@@ -51,8 +52,15 @@ class CanvasView:
             x0 = min(x0, -x1)
         layer = self.load_layer
         outer = self.structure_layer
+        px, pz = self.getPlotItem().getViewBox().viewPixelSize()
         for item in (layer.diagram, layer.down, layer.up, outer.diagram):
-            if isinstance(item, QGraphicsPathItem):
+            if isinstance(item, LineItem):
+                # its points and its pen's half width and a pixel, as a
+                # pyqtgraph curve's own rectangle has them
+                reach = 0.5 * item.pen().widthF() + 1.0
+                r = item.path().controlPointRect().adjusted(-reach * px, -reach * pz,
+                                                            reach * px, reach * pz)
+            elif isinstance(item, QGraphicsPathItem):
                 # Qt's own stroked rectangle (its pen's width as a margin, as
                 # the fit has always had it; the items' own skip the stroke).
                 r = QGraphicsPathItem.boundingRect(item)

@@ -51,10 +51,9 @@ from wetline.app.render.style import (
 )
 from wetline.app.render.style import UPLIFT as UPLIFT_COLOUR
 from wetline.app.window.canvas_items import (
-    add_item,
     cosmetic_pen,
     filled_path_item,
-    pairs_curve,
+    line_curve,
     path_of,
     rings_path,
 )
@@ -82,14 +81,14 @@ class LoadLayer:
         self.mirror_liquid = filled_path_item(vb, MIRROR_LIQUID_BRUSH, -11, visible=False)
         self.diagram = filled_path_item(vb, DIAGRAM_BRUSH, -5,
                                         pen=cosmetic_pen(QColor(DIAGRAM_LINE), 1.0))
-        self.arrows = pairs_curve(vb, pg.mkPen(DIAGRAM_LINE, width=1), -4)
-        self.surface = add_item(vb, pg.PlotCurveItem(pen=pg.mkPen(SURFACE, width=2)), 5)
+        self.arrows = line_curve(vb, pg.mkPen(DIAGRAM_LINE, width=1), -4, connect="pairs")
+        self.surface = line_curve(vb, pg.mkPen(SURFACE, width=2), 5)
         self.layer_fills = [filled_path_item(vb, brush, -9, visible=False)
                             for brush in LAYER_BRUSHES]
-        self.interfaces = pairs_curve(vb, pg.mkPen(INTERFACE_LINE, width=1.5,
-                                                   style=Qt.PenStyle.DashLine), 6)
+        self.interfaces = line_curve(vb, pg.mkPen(INTERFACE_LINE, width=1.5,
+                                                   style=Qt.PenStyle.DashLine), 6, connect="pairs")
         self.air = filled_path_item(vb, AIR_BRUSH, -8, pen=cosmetic_pen(QColor(AIR_LINE), 1.0))
-        self.air_lines = pairs_curve(vb, pg.mkPen(SURFACE, width=2), 6)
+        self.air_lines = line_curve(vb, pg.mkPen(SURFACE, width=2), 6, connect="pairs")
         self.interface_levels = []
         """Levels [m] of the layer interfaces drawn (bottom up), for dragging."""
         self.interface_spans = []
@@ -98,10 +97,9 @@ class LoadLayer:
         """The labels asked for the pockets of trapped air, in order."""
         self.gas_text = None
         """The label asked for the gas over the free surface, or None."""
-        self.spill = add_item(vb, pg.PlotCurveItem(
-            pen=pg.mkPen(MUTED, width=1, style=Qt.PenStyle.DashLine)), 0)
-        self.down = pairs_curve(vb, pg.mkPen(LOAD, width=3), 30)
-        self.up = pairs_curve(vb, pg.mkPen(UPLIFT_COLOUR, width=3), 30)
+        self.spill = line_curve(vb, pg.mkPen(MUTED, width=1, style=Qt.PenStyle.DashLine), 0)
+        self.down = line_curve(vb, pg.mkPen(LOAD, width=3), 30, connect="pairs")
+        self.up = line_curve(vb, pg.mkPen(UPLIFT_COLOUR, width=3), 30, connect="pairs")
         self._polygon = self._polygon_section = None
         self.envelope_edges = None
         """The WettedEdges of the envelope diagram last drawn (None in case view)."""

@@ -64,3 +64,43 @@ def test_paths_have_the_elements_pyqtgraph_makes(n, share):
     assert _elements(path_of(x, z, connect)) == _elements(expected)
     assert _elements(path_of(x, z, "all")) == _elements(
         pg.arrayToQPath(x, z, connect="all", finiteCheck=False))
+
+
+@pytest.mark.parametrize("connect", ["all", "pairs"])
+def test_a_line_item_draws_what_a_pyqtgraph_curve_draws(qapp, connect):
+    """The load layer's curves are LineItems (Qt paints them): the same
+    pixels as pyqtgraph's PlotCurveItem (the reference) for the same points
+    and pen, solid and dashed, and its data read back as pyqtgraph's. (A
+    solid connected line wider than a pixel is joined at its vertices, where
+    pyqtgraph draws separate segments: the load layer has none.)"""
+    import pyqtgraph as pg
+    from PySide6.QtWidgets import QGraphicsItem
+
+    from wetline.app.window.canvas_items import LineItem
+
+    rng = np.random.default_rng(3)
+    x, z = rng.random(40) * 4.0, rng.random(40) * 3.0
+    images = []
+    for make in (lambda pen: pg.PlotCurveItem(connect=connect, skipFiniteCheck=True, pen=pen),
+                 lambda pen: LineItem(pen, connect)):
+        view = pg.PlotWidget(background="w")
+        view.resize(300, 240)
+        view.getPlotItem().hideAxis("left")
+        view.getPlotItem().hideAxis("bottom")
+        view.setRange(xRange=(0, 4), yRange=(0, 3), padding=0)
+        widths = (1.0, 2.5) if connect == "all" else (1.5, 2.5)
+        for k, style in enumerate((Qt.SolidLine, Qt.DashLine)):
+            item = make(pg.mkPen("#204080", width=widths[k], style=style))
+            item.setData(x + k * 0.01, z)
+            view.addItem(item)
+        view.show()
+        qapp.processEvents()
+        images.append(view.grab().toImage())
+        view.close()
+    assert images[0] == images[1]
+    line = LineItem(pg.mkPen("k"), connect)
+    line.setData([0.0, 1.0], [2.0, 3.0])
+    assert [list(a) for a in line.getData()] == [[0.0, 1.0], [2.0, 3.0]]
+    assert line.opts["pen"].color().name() == "#000000"
+    with pytest.raises(ValueError, match="drawn afresh"):
+        line.setCacheMode(QGraphicsItem.DeviceCoordinateCache)
