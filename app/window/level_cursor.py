@@ -15,7 +15,7 @@ from __future__ import annotations
 
 import pyqtgraph as pg
 from PySide6.QtCore import QLineF, QPointF, QRectF, Qt, Signal
-from PySide6.QtGui import QColor, QFontMetricsF
+from PySide6.QtGui import QColor, QFontMetricsF, QPainterPath
 from PySide6.QtWidgets import QApplication
 
 __all__ = ["LevelCursor", "GRAB_PX", "TEXT_FILL", "TEXT_GAP_PX"]
@@ -55,6 +55,7 @@ class LevelCursor(pg.GraphicsObject):
         self._px = (0.0, 0.0)  # view units per pixel (x, y)
         self._right = 1.0  # the view's right edge [view units]
         self._rect = QRectF()
+        self._grab = QRectF()  # the strip where the line is grabbed
         self._text_w = 0.0  # [view units]
         self.setZValue(15)
 
@@ -97,6 +98,7 @@ class LevelCursor(pg.GraphicsObject):
         y0, y1 = self._span
         px, _ = self._px
         half = GRAB_PX * px
+        self._grab = QRectF(-half, y0, 2.0 * half, y1 - y0)
         self._text_w = (TEXT_GAP_PX + self._metrics.horizontalAdvance(self._text) + 2.0) * px
         reach = max(half, self._text_w)  # the text goes left of the line near the right edge
         rect = QRectF(-reach, y0, 2.0 * reach, y1 - y0)
@@ -106,6 +108,13 @@ class LevelCursor(pg.GraphicsObject):
 
     def boundingRect(self):
         return self._rect
+
+    def shape(self):
+        """The strip along the line where it is grabbed (not its text: a
+        drag beside the line pans the chart, as anywhere else)."""
+        path = QPainterPath()
+        path.addRect(self._grab)
+        return path
 
     def paint(self, painter, *_):
         y0, y1 = self._span

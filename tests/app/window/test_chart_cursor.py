@@ -110,7 +110,29 @@ def test_the_cursor_spans_the_view_and_shows_the_level(make_window, settle):
     settle(w)
     rect = chart.cursor.mapRectToView(chart.cursor.boundingRect())
     assert (rect.top(), rect.bottom()) == pytest.approx((-50.0, 250.0))
-    # a few pixels either side of the line: where it is grabbed
+    # a few pixels either side of the line: where it is grabbed (not its text)
     px = vb.viewPixelSize()[0]
     assert rect.left() <= chart.cursor.value() - 3 * px
     assert rect.right() >= chart.cursor.value() + 3 * px
+    grab = chart.cursor.mapRectToView(chart.cursor.shape().boundingRect())
+    assert grab.width() == pytest.approx(8 * px, rel=1e-6)
+    assert (grab.top(), grab.bottom()) == pytest.approx((-50.0, 250.0))
+
+
+def test_a_drag_beside_the_cursor_leaves_the_level(make_window, settle):
+    """Only the strip along the line grabs the cursor: a drag that starts
+    beside it (where its value is written, at the top) changes no level."""
+    w = make_window()
+    doc, chart = w.doc, w.chart
+    at, send = _mouse(chart)
+    level = doc.solution.level
+    n = doc.undo_stack.count()
+    p0 = at(doc.units.length(level))
+    p0 = QPointF(p0.x() + 20, p0.y())
+    send(QEvent.MouseButtonPress, p0, Qt.LeftButton, Qt.LeftButton)
+    for k in range(1, 6):
+        send(QEvent.MouseMove, QPointF(p0.x() + 15 * k, p0.y()), Qt.NoButton, Qt.LeftButton)
+        settle(w)
+    send(QEvent.MouseButtonRelease, QPointF(p0.x() + 75, p0.y()), Qt.LeftButton, Qt.NoButton)
+    settle(w)
+    assert doc.solution.level == level and doc.undo_stack.count() == n
