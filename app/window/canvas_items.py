@@ -42,8 +42,9 @@ def path_of(x, z, connect):
     connected points is written into a ``QPolygonF`` (through a numpy view
     of its memory) and added to the path as a polygon, where
     ``arrayToQPath`` streams every point through a ``QDataStream`` (about
-    3 ms for the 40,000 points of a 10,000-edge diagram, against 1). A run of one point between two
-    others draws nothing and is not kept (Qt folds a moveTo into the next).
+    3 ms for the 40,000 points of a 10,000-edge diagram, against 1). A run
+    of one point between two others draws nothing and is not kept (Qt
+    folds a moveTo into the next).
     Past :data:`MAX_POLYGONS` runs, for a single point, or for ``connect``
     given by a name other than ``"all"``, ``arrayToQPath`` makes the path.
     """
@@ -213,4 +214,3 @@ class LineItem(FilledPathItem):
     def getData(self):
         """The points drawn, (x, z) [m]."""
         return self.xData, self.yData
-
