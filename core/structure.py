@@ -436,9 +436,8 @@ def _outer_section(outline, parts, cavity):
 class _Own:
     """A structure's own geometry for one kind and width of cavity, made on
     first use: its Section, edges as shapely segments, polygon (prepared),
-    touching tolerance, rim band, the tree of its slanted edges and its
-    overhung edges. Private to this module; values as the functions that
-    used to make them at every call."""
+    touching tolerance, rim band and overhung edges. Private to this
+    module; values as the functions that used to make them at every call."""
 
     def __init__(self, outer):
         self.outer = outer
@@ -467,17 +466,6 @@ class _Own:
         rim = shapely.buffer(self.polygon.exterior, 4.0 * self.tolerance)
         shapely.prepare(rim)
         return rim
-
-    @cached_property
-    def slanted_tree(self):
-        """(indices of the edges with dx != 0, an STRtree of them)."""
-        import shapely
-
-        geo = self.outer.geometry
-        e = np.flatnonzero(geo.dx != 0)
-        p0 = self.outer.outline
-        p1 = np.roll(p0, -1, axis=0)
-        return e, shapely.STRtree(shapely.linestrings(np.stack([p0[e], p1[e]], axis=1)))
 
     @cached_property
     def overhung(self):
@@ -913,7 +901,7 @@ def exterior_geometry(structure: Structure, cavity: Section, *,
     own = structure._own(cavity)
     outer = own.outer
     seg, owner = _soil_segments(outer, cavity)
-    floor_edges, pieces = _base_pieces(outer, cavity, own.slanted_tree)
+    floor_edges, pieces = _base_pieces(outer, cavity)
     for a in (seg, owner, pieces):
         a.setflags(write=False)
     return ExteriorGeometry(structure=structure, cavity=cavity, outer=outer,
@@ -1016,7 +1004,7 @@ def _overhung(outer, max_pairs=1_000_000):
     return dict(sorted(out.items()))
 
 
-def _base_pieces(outer, cavity, slanted_tree=None):
+def _base_pieces(outer, cavity):
     """Floor edges and the stretches of them over a straight underside.
 
     Each floor edge is cut at the x of every outer vertex inside its span;
@@ -1058,17 +1046,18 @@ def _base_pieces(outer, cavity, slanted_tree=None):
     xm = 0.5 * (xl + xr)
     zfm = z_floor(xm)
     # The first outer edge below each stretch's middle: the highest of the
-    # slanted outer edges a vertical ray down from the floor meets.
-    import shapely
-
-    if slanted_tree is None:
-        slanted_tree = _Own(outer).slanted_tree
-    e, tree = slanted_tree
-    foot = outer.z_min - 1.0
-    rays = shapely.linestrings(np.stack([np.column_stack([xm, zfm]),
-                                         np.column_stack([xm, np.full_like(xm, foot)])], axis=1))
-    pi, k = tree.query(rays, predicate="intersects")
-    ek = e[k]
+    # slanted outer edges a vertical ray down from the floor meets. An edge
+    # meets the ray at xm if its x-span holds xm: the pairs come from the
+    # middles sorted by x, a range of them per edge (a vertical line crosses
+    # a simple outline a few times, so there are a few pairs per middle).
+    e = np.flatnonzero(geo.dx != 0)
+    ends = np.column_stack([geo.x0[e], geo.x0[e] + geo.dx[e]])
+    by_x = np.argsort(xm, kind="stable")
+    start = np.searchsorted(xm[by_x], ends.min(axis=1), side="left")
+    count = np.searchsorted(xm[by_x], ends.max(axis=1), side="right") - start
+    ek = np.repeat(e, count)
+    pi = by_x[np.arange(int(count.sum())) - np.repeat(np.cumsum(count) - count, count)
+              + np.repeat(start, count)]
     ze = geo.z0[ek] + (xm[pi] - geo.x0[ek]) / geo.dx[ek] * geo.dz[ek]
     below = ze < zfm[pi]
     pi, ek, ze = pi[below], ek[below], ze[below]
