@@ -117,10 +117,12 @@ def totals_table(solution, units, length_unit="m"):
         ("max pressure", _num(u.to_display(solution.max_pressure, "pressure")),
          u.label("pressure"), ""),
     ]
+    # A summary, to the results' figures as the window's totals and the
+    # drawings give it; the outline's coordinates are echoed in full.
     if s.is_open:
-        rows.append(("spill level", _entered(u.to_display(s.spill_level, "length")), L, ""))
+        rows.append(("spill level", _num(u.to_display(s.spill_level, "length")), L, ""))
     else:
-        rows.append(("top of closed section", _entered(u.to_display(s.z_max, "length")), L, ""))
+        rows.append(("top of closed section", _num(u.to_display(s.z_max, "length")), L, ""))
     return Table("Totals", ("quantity", "value", "unit", "note"), tuple(rows))
 
 

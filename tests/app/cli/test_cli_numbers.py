@@ -159,3 +159,21 @@ def test_from_the_real_program(tank):
                            "-1e308"], capture_output=True, text=True)
     assert proc.returncode == 2
     assert proc.stderr == "error: --level must be -1e7 to 1e7 m, not -1e308\n"
+
+
+def test_the_spill_level_reads_as_in_the_window_and_the_drawing(capsys, sample):
+    """Defect: the totals of `solve` (and the sheet's, the same table) gave
+    the spill level "as entered", so a metre file read in feet printed
+    "spill level 6.56167979003 ft" beside "level 6.562 ft", where the
+    window's totals and the drawings say 6.562 ft. The outline's
+    coordinates, which it comes from, are still echoed in full."""
+    from wetline.core.numbers import format_number
+    from wetline.core.section_file import read_design
+
+    path = sample("grease_trap")
+    status, out, _ = run(capsys, "solve", path, "--units", "us")
+    assert status == 0
+    spill = read_design(path).section.spill_level / 0.3048
+    row = next(line for line in out.splitlines() if line.strip().startswith("spill level"))
+    assert row.split()[2:] == [format_number(spill), "ft"]
+    assert "6.56167979003" in out  # the edges' z end, a coordinate
