@@ -439,7 +439,7 @@ def _checked_parts(parts: Sequence[str] | None, n: int) -> tuple[str, ...]:
     # (Checked over the distinct names and types: a drag step builds a
     # section of the same 10,000 names again, and a Python loop over them
     # cost milliseconds.)
-    if not set(map(type, names)) <= {str} and not all(isinstance(p, str) for p in names):
+    if not all(issubclass(t, str) for t in set(map(type, names))):
         raise SectionError("parts must be a list of names, one per edge")
     if len(names) != n:
         raise SectionError(f"parts has {len(names)} names but the outline has {n} edges")
