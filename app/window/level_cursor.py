@@ -56,7 +56,8 @@ class LevelCursor(pg.GraphicsObject):
         self._right = 1.0  # the view's right edge [view units]
         self._rect = QRectF()
         self._grab = QRectF()  # the strip where the line is grabbed
-        self._text_w = 0.0  # [view units]
+        self._text_px = 0.0  # the text's width [px], measured once per text
+        self._text_w = 0.0  # its reach beside the line [view units]
         self.setZValue(15)
 
     # ----------------------------------------------------------- value
@@ -78,6 +79,7 @@ class LevelCursor(pg.GraphicsObject):
         """Show ``text`` beside the top of the line."""
         if text != self._text:
             self._text = text
+            self._text_px = self._metrics.horizontalAdvance(text)
             self._fit()
             self.update()
 
@@ -99,7 +101,7 @@ class LevelCursor(pg.GraphicsObject):
         px, _ = self._px
         half = GRAB_PX * px
         self._grab = QRectF(-half, y0, 2.0 * half, y1 - y0)
-        self._text_w = (TEXT_GAP_PX + self._metrics.horizontalAdvance(self._text) + 2.0) * px
+        self._text_w = (TEXT_GAP_PX + self._text_px + 2.0) * px
         reach = max(half, self._text_w)  # the text goes left of the line near the right edge
         rect = QRectF(-reach, y0, 2.0 * reach, y1 - y0)
         if rect != self._rect:
@@ -128,9 +130,8 @@ class LevelCursor(pg.GraphicsObject):
             if self.value() + self._text_w <= self._right:
                 x = top.x() + TEXT_GAP_PX
             else:  # it would run past the view's right edge: to the left of the line
-                x = top.x() - TEXT_GAP_PX - self._metrics.horizontalAdvance(self._text)
-            box = QRectF(x - 2.0, top.y(), self._metrics.horizontalAdvance(self._text) + 4.0,
-                         self._metrics.height())
+                x = top.x() - TEXT_GAP_PX - self._text_px
+            box = QRectF(x - 2.0, top.y(), self._text_px + 4.0, self._metrics.height())
             painter.fillRect(box, TEXT_FILL)  # curves under the text do not cross it
             painter.drawText(QPointF(x, top.y() + self._metrics.ascent()), self._text)
 
