@@ -49,7 +49,8 @@ from pathlib import Path
 os.environ.setdefault("QT_QPA_PLATFORM", "offscreen")
 
 import numpy as np
-from PySide6.QtCore import QSettings
+from PySide6.QtCore import QEvent, QObject, QSettings
+from PySide6.QtGui import QRegion
 from PySide6.QtWidgets import QApplication
 
 from wetline.app.model import editing, step_timer
@@ -202,7 +203,8 @@ def _close(w, app):
 class Timing:
     """Step times [ms], the breakdown per step [ms] and the release [ms]."""
 
-    def __init__(self, times, parts, release, invalid=0):
+    def __init__(self, times, parts, release, invalid=0, paint=(np.nan, np.nan)):
+        self.paint = paint  # paint_only's (wall, CPU) medians [ms]
         self.times = np.asarray(times)
         self.cpu = np.asarray(_CPU[-len(times):])
         self.parts = parts
@@ -224,12 +226,64 @@ class Timing:
         return values + [max(total - sum(values), 0.0)]
 
 
+class PaintLog(QObject):
+    """An application event filter that notes, step by step, which widgets
+    were painted and where (so that :func:`paint_only` can ask for the same
+    paints again with nothing changed)."""
+
+    def __init__(self):
+        super().__init__()
+        self.steps = []
+
+    def next_step(self):
+        self.steps.append([])
+
+    def eventFilter(self, obj, event):
+        if self.steps and event.type() == QEvent.Type.Paint:
+            self.steps[-1].append((obj, QRegion(event.region())))
+        return False
+
+
+def _paint_floor(app, w, acts):
+    """The steps ``acts`` done again (untimed) with their paints logged,
+    then :func:`paint_only` of them. The timed steps run without the log:
+    an application event filter in Python would slow every event."""
+    log = PaintLog()
+    app.installEventFilter(log)
+    try:
+        for act in acts:
+            _step(app, w, act, False, log)
+    finally:
+        app.removeEventFilter(log)
+    return paint_only(app, w, log)
+
+
+def paint_only(app, w, log):
+    """Each logged step's paints asked for again, nothing changed or
+    computed: the same widgets repaint the same regions (their content as
+    the last step left it). Median wall and CPU time per step [ms]: the part
+    of a step the painting itself sets, a floor under the step's time."""
+    wall, cpu = [], []
+    for paints in log.steps:
+        c0 = time.process_time()
+        t0 = time.perf_counter()
+        for widget, region in paints:
+            widget.update(region)
+        app.processEvents()
+        app.processEvents()
+        wall.append((time.perf_counter() - t0) * 1e3)
+        cpu.append((time.process_time() - c0) * 1e3)
+    return float(np.median(wall)), float(np.median(cpu))
+
+
 _CPU = []
 """CPU times of the steps of the last run [ms] (the wall time on a shared
 machine includes waiting for a core; this process's CPU time does not)."""
 
 
-def _step(app, w, act, forced):
+def _step(app, w, act, forced, log=None):
+    if log is not None:
+        log.next_step()
     c0 = time.process_time()
     t0 = time.perf_counter()
     act()
@@ -238,7 +292,8 @@ def _step(app, w, act, forced):
         w.canvas.redraw()
         w.repaint()  # the whole window, synchronously
     _drain(app, w)
-    _CPU.append((time.process_time() - c0) * 1e3)
+    if log is None:  # a timed step
+        _CPU.append((time.process_time() - c0) * 1e3)
     return (time.perf_counter() - t0) * 1e3
 
 
@@ -253,6 +308,7 @@ def run_slider(sc, steps=60, forced=False):
     times = [_step(app, w, lambda v=v: slider.setValue(int(v)), forced) for v in values]
     parts = step_timer.take()
     step_timer.stop()
+    paint = _paint_floor(app, w, [lambda v=v: slider.setValue(int(v)) for v in values])
     t0 = time.perf_counter()
     slider.setSliderDown(False)
     w.fill_panel._on_slider_released()
@@ -260,7 +316,7 @@ def run_slider(sc, steps=60, forced=False):
     release = (time.perf_counter() - t0) * 1e3
     assert w.doc.envelope_current, "the envelope follows the release"
     _close(w, app)
-    return Timing(times, parts, release)
+    return Timing(times, parts, release, paint=paint)
 
 
 def run_drag(sc, steps=60, forced=False):
@@ -274,14 +330,15 @@ def run_drag(sc, steps=60, forced=False):
     invalid = 0
     step_timer.start()
     times = []
-    for k in range(steps):
-        dz = -sc.depth * np.sin(np.pi * (k + 1) / (steps + 1))  # down and back up
-        times.append(_step(app, w, lambda dz=dz: handles.dragMoved.emit(i, float(x),
-                                                                         float(z + dz)), forced))
+    moves = [lambda dz=-sc.depth * np.sin(np.pi * (k + 1) / (steps + 1)):  # down and back up
+             handles.dragMoved.emit(i, float(x), float(z + dz)) for k in range(steps)]
+    for move in moves:
+        times.append(_step(app, w, move, forced))
         preview = w.doc.preview
         invalid += preview is None or preview.case is None
     parts = step_timer.take()
     step_timer.stop()
+    paint = _paint_floor(app, w, moves)
     t0 = time.perf_counter()
     handles.dragFinished.emit(i, float(x), float(z - sc.depth))  # (on the snap grid)
     _drain(app, w)
@@ -289,7 +346,7 @@ def run_drag(sc, steps=60, forced=False):
     assert w.doc.undo_stack.count() == 1, "a drag is one undo step"
     assert w.doc.envelope_current, "the envelope follows the release"
     _close(w, app)
-    return Timing(times, parts, release, invalid)
+    return Timing(times, parts, release, invalid, paint)
 
 
 def run_envelope(n, repeat=40):
@@ -334,6 +391,7 @@ def main(argv=None):
           f"load average {os.getloadavg()[0]:.1f}")
     ok = True
     chosen = [sc for sc in scenarios() if args.only in sc.title]
+    n_of = {sc.title: sc.n for sc in chosen}
     rows = []
     for kind, fn in (("slider", run_slider), ("drag", run_drag)):
         print(f"{kind} step to finished repaint: median / 90th percentile (ratio), "
@@ -353,11 +411,19 @@ def main(argv=None):
                 f = fn(sc, args.steps, forced=True)
                 print(f"  {'':<34} forcing a repaint of the whole window: "
                       f"{f.median:6.1f} / {f.p90:6.1f} ms")
-            rows.append((kind, sc.title, t.row()))
+            rows.append((kind, sc.title, t.row(), t))
     print("breakdown per step, mean [ms]:")
     print(f"  {'':<42}" + "".join(f"{h:>7}" for h in SHORT))
-    for kind, title, row in rows:
+    for kind, title, row, _ in rows:
         print(f"  {kind:<7} {title:<34}" + "".join(f"{v:7.2f}" for v in row))
+    print("painting alone: each step's repaints asked for again with nothing changed "
+          "(median wall / CPU [ms]),\nthe step's median, and the goal less the painting "
+          "(what is left for everything else)")
+    for kind, title, _, t in rows:
+        pw, pc = t.paint
+        g = goal(n_of[title])
+        print(f"  {kind:<7} {title:<34} {pw:6.1f} / {pc:6.1f}   step {t.median:6.1f}"
+              f"   goal {g:4.0f} less painting {g - pw:6.1f}")
     if not args.no_envelope:
         print("envelope of 20 cases after an edit, in the document (median wall / CPU)")
         for n in (100, 2000):
