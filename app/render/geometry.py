@@ -13,6 +13,7 @@ from __future__ import annotations
 import itertools
 import math
 from dataclasses import dataclass
+from functools import cached_property
 
 import numpy as np
 import shapely
@@ -316,6 +317,12 @@ class PartRun:
     part: str
     edges: tuple
 
+    @cached_property
+    def index(self):
+        """The edges as an array of indices (made once: the runs of a
+        section's parts outlive a drag of its outline)."""
+        return np.asarray(self.edges, dtype=np.intp)
+
 
 def part_runs(section):
     """The outline split into runs of consecutive edges with the same part;
@@ -353,7 +360,7 @@ def run_resultants(solution, runs, w=None):
     pos = np.full(solution.section.n_edges, -1, dtype=np.intp)
     pos[w.index] = np.arange(w.index.size)
     for run in runs:
-        edges = np.asarray(run.edges, dtype=np.intp)
+        edges = run.index
         idx = edges[pos[edges] >= 0]
         if idx.size == 0:
             continue

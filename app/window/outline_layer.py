@@ -37,7 +37,9 @@ class OutlineLayer:
         self._plot = plot
         vb = plot.getViewBox()
         self._part_curves = {}
-        self._drawn = {}  # part name: (pen key, x, z) as last given to its curve
+        self._drawn = {}  # part name: (pen key, its edges) as last drawn
+        self._groups_key = None  # (parts, what _groups made of them)
+        self._last_outline = None  # the outline as last drawn (a copy)
         # Above the view, outside the drawing (never over the outline).
         self._legend = legend_outside(plot, "top", label_size="9pt")
         self.highlight = pairs_curve(vb, pg.mkPen(HIGHLIGHT_COLOUR, width=7), 8)
@@ -71,20 +73,21 @@ class OutlineLayer:
     def draw(self, outline, parts, axisymmetric):
         """Each part's edges as one curve in its colour, and the mirror.
 
-        A part whose edges and pen are as last drawn keeps its curve as it
-        is (a vertex drag moves the runs of at most two parts; the others
-        keep their path and cached pixmap)."""
-        names = tuple(dict.fromkeys(parts))
+        A part whose edges, vertices and pen are as last drawn keeps its
+        curve as it is: a vertex drag moves the runs of at most two parts,
+        the others keep their path and cached pixmap (the vertices that
+        moved are found by comparing the outline with the last one)."""
+        names, index, mirrored = self._groups(parts)
         colours = part_colours(names)
-        parts_arr = np.array(parts, dtype=object)
+        moved = self._moved_edges(outline)
         for name in list(self._part_curves):
-            if name not in names:
+            if name not in index:
                 curve = self._part_curves.pop(name)
                 self._legend.removeItem(curve)
                 self._plot.removeItem(curve)
                 self._drawn.pop(name, None)
         for name in names:
-            x, z = edge_segments(outline, np.flatnonzero(parts_arr == name))
+            edges = index[name]
             curve = self._part_curves.get(name)
             style = (Qt.PenStyle.DashLine if name == OPEN
                      else Qt.PenStyle.DashDotLine if name == AXIS else Qt.PenStyle.SolidLine)
@@ -96,33 +99,50 @@ class OutlineLayer:
                 self._part_curves[name] = curve
             key = (colours[name], width, style)
             last = self._drawn.get(name)
-            if last is not None and last[0] == key and np.array_equal(last[1], x) \
-                    and np.array_equal(last[2], z):
+            if last is not None and last[0] == key and last[1] is edges \
+                    and moved is not None and not moved[edges].any():
                 continue
             curve.setPen(pg.mkPen(colours[name], width=width, style=style))
-            curve.setData(x, z)
-            self._drawn[name] = (key, x, z)
+            curve.setData(*edge_segments(outline, edges))
+            self._drawn[name] = (key, edges)
         self._legend.fit_columns(len(names))
-        self._draw_mirror(outline, parts_arr, axisymmetric)
+        self._draw_mirror(outline, mirrored, axisymmetric)
 
-    def _draw_mirror(self, outline, parts_arr, axisymmetric):
+    def _groups(self, parts):
+        """(names in order, {name: its edges (array)}, the edges a mirror
+        draws (neither open nor axis)) of the edges' ``parts``, made again
+        only when the parts change."""
+        parts = parts if isinstance(parts, tuple) else tuple(parts)
+        key = self._groups_key
+        if key is None or not (key[0] is parts or key[0] == parts):
+            names = tuple(dict.fromkeys(parts))
+            arr = np.array(parts, dtype=object)
+            index = {name: np.flatnonzero(arr == name) for name in names}
+            mirrored = np.flatnonzero((arr != AXIS) & (arr != OPEN))
+            self._groups_key = key = (parts, (names, index, mirrored))
+        return key[1]
+
+    def _moved_edges(self, outline):
+        """Mask of the edges with a vertex other than at the last draw (None:
+        every edge, the vertex count having changed or nothing drawn yet)."""
+        outline = np.array(outline, dtype=float)  # a copy, kept for the next draw
+        last, self._last_outline = self._last_outline, outline
+        if last is None or last.shape != outline.shape:
+            return None
+        moved = np.any(outline != last, axis=1)
+        return moved | np.roll(moved, -1)  # edge i runs from vertex i to i + 1
+
+    def _draw_mirror(self, outline, edges, axisymmetric):
         """The other half of an axisymmetric section, faintly (x -> -x), and
-        the axis as a centre line; hidden for plane sections."""
+        the axis as a centre line (``edges``: those it mirrors); hidden for
+        plane sections."""
         items = (self.mirror, self.centre_line)
         if not axisymmetric:
             for item in items:
                 if item.isVisible():
                     item.setVisible(False)
             return
-        x, z = edge_segments(outline, np.flatnonzero((parts_arr != AXIS) & (parts_arr != OPEN)))
-        self.mirror.setData(-x, z)
-        z0, z1 = float(outline[:, 1].min()), float(outline[:, 1].max())
-        over = 0.06 * max(z1 - z0, float(np.ptp(outline[:, 0])), 1e-9)
-        self.centre_line.setData([0.0, 0.0], [z0 - over, z1 + over])
-        for item in items:
-            if not item.isVisible():
-                item.setVisible(True)
-
+        x, z = edge_segments(outline, edges)
     def draw_fault(self, fault):
         """An invalid outline dashed, and its fault marked and told:
         ``fault`` is (outline [m], SectionError) or None."""

@@ -46,3 +46,32 @@ def test_parts_redrawn_only_where_vertices_moved(qtbot):
     for name, curve in curves.items():
         x, z = curve.getData()
         assert np.array_equal(np.column_stack([x, z]), _expected(moved, renamed, name))
+
+
+def test_shared_vertex_and_new_vertex_redraw_the_parts_they_touch(qtbot):
+    """A vertex shared by two parts redraws both; a vertex added (the count
+    changes) redraws every part; the outline given may be changed in place
+    after the draw (the layer keeps its own copy to compare with)."""
+    plot = pg.PlotWidget()
+    qtbot.addWidget(plot)
+    layer = OutlineLayer(plot.getPlotItem())
+    outline, parts = _square()
+    layer.draw(outline, parts, axisymmetric=False)
+    curves = layer._part_curves
+    before = {name: c.getData()[0] for name, c in curves.items()}
+    outline[2] = [2.5, 0.0]  # the corner between the floor and the right wall
+    layer.draw(outline, parts, axisymmetric=False)
+    for name, curve in curves.items():
+        x, z = curve.getData()
+        assert np.array_equal(np.column_stack([x, z]), _expected(outline, parts, name))
+    assert curves["floor"].getData()[0] is not before["floor"]
+    assert curves["wall"].getData()[0] is not before["wall"]
+    assert curves["open"].getData()[0] is before["open"]
+    grown = np.insert(outline, 3, [[2.5, 1.0]], axis=0)
+    grown_parts = ["floor", "floor", "wall", "wall", "open", "wall"]
+    before = {name: c.getData()[0] for name, c in curves.items()}
+    layer.draw(grown, grown_parts, axisymmetric=False)
+    for name, curve in curves.items():
+        x, z = curve.getData()
+        assert np.array_equal(np.column_stack([x, z]), _expected(grown, grown_parts, name))
+        assert curve.getData()[0] is not before[name]
