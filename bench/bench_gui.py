@@ -330,8 +330,9 @@ def run_drag(sc, steps=60, forced=False):
     invalid = 0
     step_timer.start()
     times = []
-    moves = [lambda dz=-sc.depth * np.sin(np.pi * (k + 1) / (steps + 1)):  # down and back up
-             handles.dragMoved.emit(i, float(x), float(z + dz)) for k in range(steps)]
+    depths = -sc.depth * np.sin(np.pi * np.arange(1, steps + 1) / (steps + 1))  # down, back up
+    moves = [lambda dz=float(dz): handles.dragMoved.emit(i, float(x), float(z + dz))
+             for dz in depths]
     for move in moves:
         times.append(_step(app, w, move, forced))
         preview = w.doc.preview

@@ -143,6 +143,14 @@ class OutlineLayer:
                     item.setVisible(False)
             return
         x, z = edge_segments(outline, edges)
+        self.mirror.setData(-x, z)
+        z0, z1 = float(outline[:, 1].min()), float(outline[:, 1].max())
+        over = 0.06 * max(z1 - z0, float(np.ptp(outline[:, 0])), 1e-9)
+        self.centre_line.setData([0.0, 0.0], [z0 - over, z1 + over])
+        for item in items:
+            if not item.isVisible():
+                item.setVisible(True)
+
     def draw_fault(self, fault):
         """An invalid outline dashed, and its fault marked and told:
         ``fault`` is (outline [m], SectionError) or None."""
