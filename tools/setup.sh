@@ -2,14 +2,19 @@
 # One-step set-up on a fresh Debian/Ubuntu machine (or any machine with
 # Python >= 3.11): the system libraries Qt needs (installed only if missing,
 # and only where apt-get is available as root), then Wetline and its test
-# tools from PyPI into the current Python.
+# tools from PyPI into the current Python. The libraries are those of Qt's
+# offscreen and X11 (xcb) platforms: the tests run offscreen, the program
+# opens its window through xcb (tests/packaging/test_display_libraries.py).
 set -euo pipefail
 cd "$(dirname "$0")/.."
 
 if command -v apt-get >/dev/null 2>&1 && command -v dpkg >/dev/null 2>&1; then
   need=()
   for pkg in libegl1 libgl1 libxkbcommon0 libfontconfig1 libfreetype6 libdbus-1-3 \
-             libglib2.0-0 fonts-dejavu-core fontconfig; do
+             libglib2.0-0 fonts-dejavu-core fontconfig \
+             libx11-xcb1 libxkbcommon-x11-0 libxcb-cursor0 libxcb-icccm4 libxcb-image0 \
+             libxcb-keysyms1 libxcb-randr0 libxcb-render-util0 libxcb-shape0 libxcb-shm0 \
+             libxcb-sync1 libxcb-util1 libxcb-xfixes0 libxcb-xkb1; do
     dpkg -s "$pkg" >/dev/null 2>&1 || need+=("$pkg")
   done
   if [ "${#need[@]}" -gt 0 ]; then
