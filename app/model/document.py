@@ -127,7 +127,8 @@ class Document(ViewState, OutlinePreview, Recompute, QObject):
     """The calculation sheet header fields changed."""
     casesChanged = Signal()
     """The load cases changed: added, removed, renamed, reordered, or any
-    case's values (fill, liquid, groundwater, load factor)."""
+    case's values (fill, liquid, groundwater, load factor); for a design
+    without cases, the fill of its own case (the list's one row)."""
     activeCaseChanged = Signal()
     """Another case became the active one (by choice, or as an edit moved it)."""
     structureChanged = Signal()
@@ -276,6 +277,9 @@ class Document(ViewState, OutlinePreview, Recompute, QObject):
                        or old_lc.pockets != new_lc.pockets
                        or old_lc.atmospheric_pressure != new_lc.atmospheric_pressure)
         liquid_changed = liquid_changed or law_changed
+        # A design without cases lists its own case as the one case: its
+        # fill is that case's.
+        cases_changed = cases_changed or (not design.cases and fill_changed)
         factor_changed = old_case.required_uplift_factor != case.required_uplift_factor
         if section_changed:
             n = design.section.n_edges

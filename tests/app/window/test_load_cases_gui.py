@@ -474,3 +474,31 @@ def test_the_list_writes_its_texts_again_for_new_units_and_precision(well, settl
     settle(well)
     assert _cell(m, 1, 1) == "spill (13.1234 ft)"
     assert _cell(m, 0, 1) == well.doc.units.fmt_length(well.doc.solution.level)
+
+
+def test_a_design_without_cases_shows_its_fill_as_the_slider_moves_it(make_window, settle):
+    """A file without load cases lists its own case as the one row: the row's
+    fill follows the slider, its typed level and an undo (it read the
+    opening fill, "2.2 m", after the slider had moved the fill elsewhere)."""
+    w = make_window()  # the sump template: no load cases
+    settle(w)
+    m = w.case_list.model
+    doc = w.doc
+    assert not doc.design.cases and m.rowCount() == 1
+    slider = w.fill_panel.slider
+    slider.setSliderDown(True)
+    slider.sliderPressed.emit()
+    for v in (300, 500):
+        slider.setValue(v)
+        settle(w)
+        assert _cell(m, 0, 1) == doc.units.fmt_length(doc.solution.level)
+    slider.setSliderDown(False)
+    slider.sliderReleased.emit()
+    settle(w)
+    assert _cell(m, 0, 1) == doc.units.fmt_length(doc.solution.level)
+    editing.fill_to_level(doc, 1.25)
+    settle(w)
+    assert _cell(m, 0, 1) == "1.25 m"
+    doc.undo_stack.undo()
+    settle(w)
+    assert _cell(m, 0, 1) == doc.units.fmt_length(doc.solution.level) != "1.25 m"
