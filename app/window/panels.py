@@ -271,8 +271,9 @@ class FillPanel(QGroupBox):
         self.slider.valueChanged.connect(self._on_slider_moved)
         document.fillChanged.connect(self._on_fillChanged)
         document.sectionChanged.connect(self._on_fillChanged)
-        document.unitsChanged.connect(self._on_fillChanged)
+        document.unitsChanged.connect(self._on_unitsChanged)
         document.solved.connect(self._on_solved)
+        self._range_key = None  # (section, units) of the range label's text
         self._on_fillChanged()
 
     # ------------------------------------------------------------ helpers
@@ -321,22 +322,39 @@ class FillPanel(QGroupBox):
             if vol is not None:
                 self._set_slider(self._slider_fraction_of(volume=vol))
         self.value.blockSignals(False)
-        section = doc.section
+        self._write_range(doc.section)
+
+    def _write_range(self, section, again=False):
+        """The spill level (or closed top) and capacity of ``section``: the
+        document's, or the dragged outline's while a drag is solved. Written
+        again only for another section or other units (a fill step keeps
+        them), or if ``again`` (the precision may have changed)."""
+        units = self._doc.units
+        key = self._range_key
+        if not again and key is not None and key[0] is section and key[1] is units:
+            return
+        self._range_key = (section, units)
         if section.is_open:
             text = f"Spill level {units.fmt_length(section.spill_level)}; " \
                    f"capacity {units.fmt_volume(capacity(section))}"
         else:
             text = (f"Closed section: top {units.fmt_length(section.z_max)}; a level above "
                     f"it is a head above the roof. Capacity {units.fmt_volume(capacity(section))}")
-        self.range_label.setText(text)
+        if text != self.range_label.text():
+            self.range_label.setText(text)
 
     # --------------------------------------------------------- document
     def _on_fillChanged(self):
         self._write_back()
 
+    def _on_unitsChanged(self):
+        self._write_back()
+        self._write_range(self._doc.section, again=True)
+
     def _on_solved(self, solution):
         if self.mode.currentIndex() != 0 or self._doc.case.fill_level is None:
             self._write_back()
+        self._write_range(solution.section)
         notes = []
         for w in solution.warnings:
             if "capped" in w:

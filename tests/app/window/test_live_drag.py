@@ -8,7 +8,7 @@ from PySide6.QtCore import QEvent, QPointF, Qt
 from PySide6.QtGui import QMouseEvent
 from PySide6.QtWidgets import QApplication
 
-from wetline.core.fill import volume_below
+from wetline.core.fill import capacity, volume_below
 from wetline.core.level_table import level_table
 from wetline.core.numbers import format_number
 
@@ -38,6 +38,11 @@ def test_totals_tables_and_chart_show_the_dragged_outline(make_window, settle):
         volume = volume_below(dragged, before.level)
         assert sol.volume == volume
         assert w.totals.values["volume"].text().startswith(u.fmt_volume(volume))
+        # The fill panel's spill level and capacity: the dragged outline's
+        # (they read the file's while the totals read the drag's).
+        assert w.fill_panel.range_label.text() == (
+            f"Spill level {u.fmt_length(dragged.spill_level)}; "
+            f"capacity {u.fmt_volume(capacity(dragged))}")
         scope, scale = doc.force_scope(dragged), doc.force_scale
         assert w.totals.values["weight"].text() == scope.text(sol.fluid_weight, scale=scale)
         assert w.totals.values["floor"].text() == scope.text(sol.floor_force, scale=scale)
