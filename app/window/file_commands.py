@@ -143,7 +143,7 @@ class FileCommands:
         except Exception as exc:
             dialogs.show_error(self, "Export failed", str(exc))
             return False
-        self._status(f"Exported {path}")
+        self.transfer.exported(path, "the diagram")
         return True
 
     def _add_recent(self, path):

@@ -139,6 +139,21 @@ class Transfer(QObject):
     def _status(self, text):
         self._window.statusBar().showMessage(text, 8000)
 
+    def exported(self, path, what):
+        """Tell on the status line that ``what`` (``"the diagram"``, ...) of
+        the active case went to ``path``: named by its case where the design
+        has several, and said not to be the envelope while the window shows
+        it (a diagram and per-edge results are of one case)."""
+        doc = self.doc
+        if len(doc.case_names) == 1 and doc.view_mode != "envelope":
+            text = f"Exported {what} to {path}"
+        else:
+            text = f"Exported {what} of case '{doc.active_name}' to {path}"
+            if doc.view_mode == "envelope":
+                text += (" (an export of one case, not the envelope shown: the calculation "
+                         "sheet has the envelope)")
+        self._status(text)
+
     def _folder(self):
         if self.doc.path:
             return str(Path(self.doc.path).parent)
@@ -273,7 +288,7 @@ class Transfer(QObject):
                        units=self.doc.units.system)
         except Exception as exc:
             return self._error("Cannot export the SVG", exc)
-        self._status(f"Exported {path}")
+        self.exported(path, "the diagram")
         return True
 
     def export_edges_csv(self):
@@ -292,7 +307,7 @@ class Transfer(QObject):
             write_atomically(path, text)
         except Exception as exc:
             return self._error("Cannot export the CSV", exc)
-        self._status(f"Exported per-edge results to {path}")
+        self.exported(path, "per-edge results")
         return True
 
     def export_level_csv(self):
@@ -309,7 +324,7 @@ class Transfer(QObject):
             write_atomically(path, text)
         except Exception as exc:
             return self._error("Cannot export the CSV", exc)
-        self._status(f"Exported loads against level to {path}")
+        self.exported(path, "loads against level")
         return True
 
     def export_dxf(self):

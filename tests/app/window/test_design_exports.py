@@ -132,3 +132,26 @@ def test_the_png_export_asks_for_a_path_and_draws_the_active_case(well, tmp_path
     monkeypatch.setattr(dialogs, "ask_export_path", lambda parent, suggested: str(out))
     assert w.export_dialog()
     assert out.read_bytes()[:8] == b"\x89PNG\r\n\x1a\n"
+
+
+def test_an_export_in_the_envelope_view_says_it_is_of_the_active_case(well, tmp_path):
+    """The window may show the envelope while a diagram or per-edge export is
+    of one case: the status line names the case and says the envelope is not
+    what was written (it read only "Exported PATH", the file then showing a
+    case the window did not)."""
+    w = well
+    w.doc.select_case(1)
+    w.set_view_mode("envelope")
+    w.doc.flush()
+    status = w.statusBar()
+    for export, name in ((w.export_to, "d.png"), (w.transfer.export_svg_to, "d.svg"),
+                         (w.transfer.export_edges_csv_to, "e.csv")):
+        path = tmp_path / name
+        assert export(path)
+        text = status.currentMessage()
+        assert f"of case '{NAMES[1]}' to {path}" in text
+        assert "not the envelope" in text and "calculation sheet" in text
+    w.set_view_mode("case")
+    assert w.export_to(tmp_path / "c.png")
+    assert status.currentMessage() == (f"Exported the diagram of case '{NAMES[1]}' to "
+                                       f"{tmp_path / 'c.png'}")
