@@ -88,6 +88,7 @@ from ezdxf.lldxf.validator import INVALID_LAYER_NAME_CHARACTERS
 
 from .atomic_write import atomic_path
 from .limits import COORDINATE_LIMIT, MAX_FILE_BYTES, MAX_VERTICES
+from .numbers import count_of
 from .section import Section, SectionError
 from .units import UnitError, length_factor, to_si_exactly, ureg
 
@@ -388,11 +389,6 @@ def _read_marked(path: Path) -> Drawing:
     if not ezdxf.is_dxf_stream(io.StringIO(text)):
         raise ValueError("not a DXF file")
     return ezdxf.read(io.StringIO(text))
-
-
-def _plural(n: int, word: str, words: str | None = None) -> str:
-    """``"1 edge"``, ``"3 edges"``; ``words`` for irregular plurals."""
-    return f"{n} {word}" if n == 1 else f"{n} {words or word + 's'}"
 
 
 def _check_arc_tolerance(arc_tolerance: object) -> float | None:
@@ -732,7 +728,7 @@ def _read_polyline(entity: LWPolyline | Polyline, how: _Reading, survey: _Survey
     pts, dropped = _drop_repeats(_flatten(rows, arcs), tol)
     if len(pts) < 3:
         survey.few.append(f"{what} with only "
-                          f"{_plural(len(pts), 'distinct vertex', 'distinct vertices')}")
+                          f"{count_of(len(pts), 'distinct vertex', 'distinct vertices')}")
         return None
     pts = _to_world(entity, pts)
     parts, missing = _match_parts(pts, lines(), tol)
@@ -762,16 +758,16 @@ def _outline_notes(how: _Reading, dropped: int, arcs: _Arcs, unmatched: int,
     flattened arcs, part lines missing, a suspiciously small size."""
     notes = list(how.warnings)
     if dropped:
-        notes.append(f"{_plural(dropped, 'repeated vertex', 'repeated vertices')} dropped")
+        notes.append(f"{count_of(dropped, 'repeated vertex', 'repeated vertices')} dropped")
     if arcs.index.size:
         rule = (f"chords within {ARC_SAGITTA_RATIO:.1%} of the arc's radius"
                 if how.arc_tolerance is None else
                 f"chords within {how.arc_tolerance:g} m of the arc")
         chords = int(arcs.counts[arcs.index].sum())
-        notes.append(f"{_plural(int(arcs.index.size), 'arc segment')} flattened into "
-                     f"{_plural(chords, 'straight edge')} ({rule})")
+        notes.append(f"{count_of(int(arcs.index.size), 'arc segment')} flattened into "
+                     f"{count_of(chords, 'straight edge')} ({rule})")
     if unmatched:
-        notes.append(f"{_plural(unmatched, 'edge')} of this Wetline outline "
+        notes.append(f"{count_of(unmatched, 'edge')} of this Wetline outline "
                      f"{'has' if unmatched == 1 else 'have'} no part line; parts not "
                      "recovered (all 'wall')")
     if how.unit_assumed and across < 0.05:
@@ -816,7 +812,7 @@ def _scan(path: str | os.PathLike[str], unit: str | None,
 
 def _nothing_found(name: str, survey: _Survey) -> str:
     """The message for a drawing with no usable closed polyline."""
-    bits = [f"{_plural(n, one, many)} on layer {layer}"
+    bits = [f"{count_of(n, one, many)} on layer {layer}"
             for (one, many, layer), n in survey.found.items()]
     bits += survey.faults + survey.few
     if bits:
@@ -828,13 +824,13 @@ def _nothing_found(name: str, survey: _Survey) -> str:
         message = f"{name} has no closed polyline in its modelspace"
     hints = []
     others = survey.others
-    loose = [_plural(others[k], k) for k in ("LINE", "ARC", "SPLINE", "ELLIPSE", "CIRCLE")
+    loose = [count_of(others[k], k) for k in ("LINE", "ARC", "SPLINE", "ELLIPSE", "CIRCLE")
              if k in others]
     if loose:
         hints.append(f"it holds {', '.join(loose)}: join the outline into one closed "
                      "polyline in the CAD program")
     if "INSERT" in others:
-        hints.append(f"{_plural(others['INSERT'], 'block reference')} not searched: "
+        hints.append(f"{count_of(others['INSERT'], 'block reference')} not searched: "
                      "explode them first")
     if hints:
         message += "; " + "; ".join(hints)

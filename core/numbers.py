@@ -22,8 +22,8 @@ import contextvars
 import math
 from collections.abc import Iterator
 
-__all__ = ["DEFAULT_DIGITS", "ENTERED_DIGITS", "FIGURES_RANGE", "NOISE", "Entered", "figures",
-           "format_entered", "format_number", "is_noise", "nice_step", "round_to_step",
+__all__ = ["DEFAULT_DIGITS", "ENTERED_DIGITS", "FIGURES_RANGE", "NOISE", "Entered", "count_of",
+           "figures", "format_entered", "format_number", "is_noise", "nice_step", "round_to_step",
            "set_figures", "using_figures"]
 
 DEFAULT_DIGITS = 4
@@ -229,6 +229,16 @@ class Entered(float):
     """
 
     __slots__ = ()
+
+
+def count_of(n: int, word: str, words: str | None = None) -> str:
+    """A count and its noun: ``"1 edge"``, ``"3 edges"``; ``words`` for an
+    irregular plural.
+
+    >>> count_of(1, "case"), count_of(4, "case"), count_of(2, "vertex", "vertices")
+    ('1 case', '4 cases', '2 vertices')
+    """
+    return f"{n} {word}" if n == 1 else f"{n} {words or word + 's'}"
 
 
 def round_to_step(value: float, step: float) -> float:

@@ -57,6 +57,7 @@ from wetline.app.window.canvas_items import (
     path_of,
     rings_path,
 )
+from wetline.core.numbers import count_of
 
 __all__ = ["LoadLayer", "MAX_PRESSURE_LABELS", "MAX_RESULTANT_LABELS"]
 
@@ -186,7 +187,7 @@ class LoadLayer:
         self.arrows.setData(*arrow_strokes(tx, tz, px, pz, 0.02 * size))
         z_top = float(section.outline[:, 1].max())
         labels.ask(left, z_top + 2 * margin,
-                   f"envelope of {len(solved)} cases (design values)",
+                   f"envelope of {count_of(len(solved), 'case')} (design values)",
                    DIAGRAM_TEXT, (0, 0), bold=True)
         if spill is not None:
             labels.ask(xmax + 2 * margin, spill, "spill level", MUTED, (0, 0.5))

@@ -502,3 +502,10 @@ def test_a_design_without_cases_shows_its_fill_as_the_slider_moves_it(make_windo
     doc.undo_stack.undo()
     settle(w)
     assert _cell(m, 0, 1) == doc.units.fmt_length(doc.solution.level) != "1.25 m"
+
+
+def test_the_envelope_of_one_case_is_told_in_the_singular(make_window, settle):
+    w = make_window()  # the sump template: one case
+    w.set_view_mode("envelope")
+    settle(w)
+    assert w.canvas.shown_labels()[0] == "envelope of 1 case (design values)"
