@@ -274,7 +274,9 @@ class SectionCanvas(CanvasView, CanvasPointer, pg.PlotWidget):
             self.structure_layer.draw(design, loads, scale, scope, doc.units, self.labels,
                                       self._line_span(design))
             self.labels.lay_out()
-            if self._first_fit:
+            # Fit once the results drawn are the section's: a new section's
+            # outline may be drawn before its results come.
+            if self._first_fit and solution.section is doc.shown_design.section:
                 self._first_fit = False
                 self.fit()
 

@@ -225,7 +225,7 @@ class FileCommands:
             dialogs.show_error(self, "Cannot restore the recovery copy", str(exc))
             return False
         self.doc.load(design, copy.original_path, saved=False)
-        self.canvas._first_fit = True
+        self.canvas.fit_when_drawn()
         if self.autosaver is not None and self.autosaver.write_now() is not None:
             recovery.remove_copy(self.autosaver.folder, copy.id)
         self._status(f"Restored {copy.describe()}: save it to keep it")

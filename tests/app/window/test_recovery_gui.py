@@ -5,6 +5,7 @@ and the interval set in Edit > Preferences."""
 import shutil
 from datetime import UTC, datetime, timedelta
 
+import numpy as np
 import pytest
 
 from wetline.app.model import editing, recovery
@@ -160,3 +161,27 @@ def test_the_preferences_dialog_edits_interval_and_undo_steps(qtbot):
     dlg.undo_limit.setValue(5)  # below the fewest offered
     assert dlg.autosave.text() == "off"
     assert dlg.values() == {"autosave_interval_s": 0, "undo_limit": 10}
+
+
+def test_a_restored_copy_is_fitted_in_the_view(make_window, sump_file, recovery_folder,
+                                               monkeypatch, settle, sample, qtbot):
+    """The view fits the restored section as it fits a file opened. It took
+    in the diagram of the file the window had opened as well (the canvas
+    redrew the new outline before its results came, and fitted then), the
+    restored floor's diagram cut off below the view; seen restoring a copy
+    at start under Xvfb. The event loop runs as it does there (no flush)."""
+    case = read_section_file(sump_file)
+    low = case.with_section(case.section.replace(outline=case.section.outline + [0.0, -10.0]))
+    left_by_a_crash(recovery_folder, low, str(sump_file))
+    monkeypatch.setattr(dialogs, "ask_recovery", lambda parent, copies: ("restore", 0))
+    w = make_window(read_section_file(sample("chamber_with_lip")),
+                    recovery_folder=recovery_folder)
+    settle(w)
+    assert w.offer_recovery()
+    qtbot.wait(300)  # the coalescing timers fire in their own order
+    (x0, x1), (z0, z1) = w.canvas.getPlotItem().getViewBox().viewRange()
+    outline = w.doc.section.outline
+    assert x0 <= outline[:, 0].min() and outline[:, 0].max() <= x1
+    assert z0 <= outline[:, 1].min() and outline[:, 1].max() <= z1
+    # Fitted to it alone: not reaching up to the chamber (z 0 to 4) as well.
+    assert z1 < 0.0 and z1 - z0 < 3.0 * np.ptp(outline[:, 1])
