@@ -181,7 +181,7 @@ class SectionCanvas(CanvasView, CanvasPointer, pg.PlotWidget):
     def _on_previewChanged(self):
         preview = self._doc.preview
         if preview is not None and preview.error is not None:
-            self.message.emit(f"Invalid outline: {preview.error}")
+            self.message.emit(f"Invalid outline: {self._doc.units.explain(preview.error)}")
         self.schedule(outline=True)
 
     def _on_solved(self, solution):
@@ -237,7 +237,7 @@ class SectionCanvas(CanvasView, CanvasPointer, pg.PlotWidget):
             else:
                 self.structure_handles.setData(pos=np.empty((0, 2)))
                 self.structure_handles.hide()
-            self.outline_layer.draw_fault(self._doc.fault())
+            self.outline_layer.draw_fault(self._doc.fault(), self._doc.units.explain)
             self._draw_selection()
             self._cache_still_items()
         solution = self._solution

@@ -132,7 +132,7 @@ class OutlineEditor:
                                   merge_key=("interface", index, self._interface_drags))
         except (LoadCaseError, ValueError) as exc:
             self._interface_refused = True
-            self._canvas.message.emit(f"Interface not moved: {exc}")
+            self._canvas.message.emit(f"Interface not moved: {self._doc.units.explain(exc)}")
             return
         if self._interface_refused:  # the refusal no longer holds
             self._interface_refused = False
@@ -155,7 +155,8 @@ class OutlineEditor:
         x, z = self._canvas.snap(x, z)
         self._doc.end_preview()
         if not editing.move_vertex(self._doc, index, x, z):
-            self._canvas.message.emit(f"Invalid outline: {self._doc.draft.error} "
+            self._canvas.message.emit(f"Invalid outline: "
+                                      f"{self._doc.units.explain(self._doc.draft.error)} "
                                       "(results keep the last valid outline)")
         self._canvas.schedule(outline=True)
 
@@ -300,7 +301,8 @@ class OutlineEditor:
         if not pts:
             return False
         if not editing.draw_outline(self._doc, pts):
-            self._canvas.message.emit(f"Invalid outline: {self._doc.draft.error}")
+            self._canvas.message.emit(
+                f"Invalid outline: {self._doc.units.explain(self._doc.draft.error)}")
             self._canvas.schedule(outline=True)
             return False
         self._canvas.proposal.offer(self._doc.section.parts)

@@ -169,7 +169,7 @@ class CasesModel(QAbstractTableModel):
         try:
             editing.rename_case(self._doc, index.row(), str(value))
         except ValueError as exc:
-            self.last_error = str(exc)
+            self.last_error = self._doc.units.explain(exc)
             self.errorRaised(self.last_error)
             return False
         self.last_error = ""
@@ -390,7 +390,7 @@ class CaseListPanel(QWidget):
         try:
             editing.delete_case(self._doc, self._doc.active_index)
         except ValueError as exc:
-            self._show_error(str(exc))
+            self._show_error(self._doc.units.explain(exc))
 
     def _on_move(self, step):
         editing.move_case(self._doc, self._doc.active_index, step)
@@ -413,7 +413,7 @@ class CaseListPanel(QWidget):
                     0.0 if sol is None else sol.volume)
                 editing.fill_to_volume(doc, volume)
         except (ValueError, FillError) as exc:
-            self._refuse(str(exc))
+            self._refuse(self._doc.units.explain(exc))
 
     def _refuse(self, text):
         """Show the document's values again, and why the input was refused."""
@@ -431,7 +431,7 @@ class CaseListPanel(QWidget):
         try:
             editing.set_groundwater(self._doc, self._groundwater_from_fields() if on else None)
         except ValueError as exc:
-            self._refuse(str(exc))
+            self._refuse(self._doc.units.explain(exc))
 
     def _on_groundwater_edited(self):
         if not self.groundwater.isChecked():
@@ -439,7 +439,7 @@ class CaseListPanel(QWidget):
         try:
             editing.set_groundwater(self._doc, self._groundwater_from_fields())
         except ValueError as exc:
-            self._show_error(str(exc))
+            self._show_error(self._doc.units.explain(exc))
             return
         self._show_error("")
 
@@ -448,6 +448,6 @@ class CaseListPanel(QWidget):
             value = parse_number(self.load_factor.text(), "Load factor")
             editing.set_load_factor(self._doc, value)
         except ValueError as exc:
-            self._show_error(str(exc))
+            self._show_error(self._doc.units.explain(exc))
             return
         self._show_error("")

@@ -214,7 +214,7 @@ class LayerList(QWidget):
         try:
             edit()
         except (LoadCaseError, FillError, ValueError) as exc:
-            _show(self.error, str(exc))
+            _show(self.error, self._doc.units.explain(exc))
             return False
         _show(self.error, "")
         return True
@@ -274,7 +274,7 @@ class LayerList(QWidget):
                 args = ((editing.set_layer_volume, units.volume_si(value)) if by_volume
                         else (editing.set_layer_top, units.length_si(value)))
         except ValueError as exc:
-            _show(self.error, str(exc))
+            _show(self.error, self._doc.units.explain(exc))
             return
         function, value = args
         self._run(lambda: function(doc, i, float(value)))
@@ -365,7 +365,7 @@ class GasPanel(QGroupBox):
         try:
             edit()
         except (LoadCaseError, ValueError) as exc:
-            _show(self.error, str(exc))
+            _show(self.error, self._doc.units.explain(exc))
             return
         _show(self.error, "")
 
@@ -379,7 +379,7 @@ class GasPanel(QGroupBox):
         try:
             value = doc.units.pressure_si(_number(text, "Gas pressure"))
         except ValueError as exc:
-            _show(self.error, str(exc))
+            _show(self.error, self._doc.units.explain(exc))
             return
         self._run(lambda: editing.set_gas_pressure(doc, float(value)))
 
@@ -393,7 +393,7 @@ class GasPanel(QGroupBox):
         try:
             value = doc.units.pressure_si(_number(text, "Atmospheric pressure"))
         except ValueError as exc:
-            _show(self.error, str(exc))
+            _show(self.error, self._doc.units.explain(exc))
             return
         self._run(lambda: editing.set_atmospheric_pressure(doc, float(value)))
 

@@ -218,7 +218,8 @@ class MainWindow(WindowActions, FileCommands, QMainWindow):
             self._tb_undo.setEnabled(draft is not None or self.doc.undo_stack.canUndo())
         self.actions_by_name["discard"].setEnabled(draft is not None)
         if draft is not None:
-            self._status(f"Invalid outline: {draft.error} - results show the last valid "
+            self._status(f"Invalid outline: {self.doc.units.explain(draft.error)} - results "
+                         "show the last valid "
                          "outline; fix it, undo, or discard it")
 
     def _on_modeChanged(self, mode):
@@ -328,7 +329,7 @@ class MainWindow(WindowActions, FileCommands, QMainWindow):
                 doc, choice.walls, unit_weight=choice.unit_weight,
                 extra_weight=choice.extra_weight, anchorage=choice.anchorage, ground=ground)
         except ValueError as exc:  # StructureError, LoadCaseError, a value out of range
-            dialogs.show_error(self, "Structure", str(exc))
+            dialogs.show_error(self, "Structure", self.doc.units.explain(exc))
             return False
         if changed:
             self.canvas.fit()
@@ -344,7 +345,7 @@ class MainWindow(WindowActions, FileCommands, QMainWindow):
         try:
             editing.set_kind(self.doc, kind)
         except (SectionError, StructureError, LoadCaseError) as exc:
-            self._status(f"Cannot switch to {kind}: {exc}")
+            self._status(f"Cannot switch to {kind}: {self.doc.units.explain(exc)}")
             self._on_sectionChanged()
 
     def _ask_width(self):
@@ -359,7 +360,7 @@ class MainWindow(WindowActions, FileCommands, QMainWindow):
         try:
             editing.set_width(self.doc, self.doc.units.length_si(parse_number(text, "Width")))
         except (ValueError, SectionError) as exc:
-            self._status(str(exc))
+            self._status(self.doc.units.explain(exc))
 
     def _ask_name(self):
         name, ok = QInputDialog.getText(self, "Name", "Section name:",

@@ -151,9 +151,10 @@ class OutlineLayer:
             if not item.isVisible():
                 item.setVisible(True)
 
-    def draw_fault(self, fault):
+    def draw_fault(self, fault, explain=str):
         """An invalid outline dashed, and its fault marked and told:
-        ``fault`` is (outline [m], SectionError) or None."""
+        ``fault`` is (outline [m], SectionError) or None; ``explain`` gives
+        the error's words (the display's, in its length unit)."""
         if fault is None:
             self.draft_curve.setData([], [])
             self.fault.setData([], [])
@@ -164,7 +165,7 @@ class OutlineLayer:
         self.draft_curve.setData(pts[:, 0], pts[:, 1])
         where = fault_location(outline, error)
         self.fault.setData([where[0]], [where[1]])
-        self.fault_text.setText(str(error))
+        self.fault_text.setText(explain(error))
         self.fault_text.setPos(where[0], where[1])
         self.fault_text.show()
 

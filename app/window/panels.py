@@ -204,12 +204,12 @@ class LiquidPanel(QGroupBox):
         try:
             liquid = self.liquid_from_fields()
         except (LiquidError, ValueError) as exc:
-            _show(self.error, str(exc))
+            _show(self.error, self._doc.units.explain(exc))
             return
         try:
             editing.set_layer_liquid(self._doc, self.layer_list.selected, liquid)
         except LoadCaseError as exc:  # a denser layer over a lighter one
-            _show(self.error, str(exc))
+            _show(self.error, self._doc.units.explain(exc))
             return
         _show(self.error, "")
 
@@ -224,7 +224,7 @@ class LiquidPanel(QGroupBox):
             value = gravity_from_display(units, parse_number(text, "Gravity"))
             editing.set_gravity(self._doc, value)
         except ValueError as exc:
-            _show(self.error, str(exc))
+            _show(self.error, self._doc.units.explain(exc))
             return
         _show(self.error, "")
 
@@ -415,7 +415,7 @@ class FillPanel(QGroupBox):
             else:
                 editing.fill_to_percent(doc, v)
         except (ValueError, FillError) as exc:
-            _show(self.error, str(exc))
+            _show(self.error, self._doc.units.explain(exc))
             return
         _show(self.error, "")
 

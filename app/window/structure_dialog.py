@@ -200,7 +200,7 @@ class StructureDialog(QDialog):
         try:
             self.choice = self.read_choice()
         except ValueError as exc:
-            self.error.setText(str(exc))
+            self.error.setText(self._units.explain(exc))
             self.error.show()
             return
         self.accept()

@@ -443,7 +443,7 @@ class VerticesModel(_Model):
                 set_part = editing.set_structure_part if structure else editing.set_edge_part
                 ok = set_part(doc, i, str(value))
         except ValueError as exc:
-            self.last_error = str(exc)
+            self.last_error = self._doc.units.explain(exc)
             self.errorRaised(self.last_error)
             return False
         what = "structure outline" if structure else "outline"

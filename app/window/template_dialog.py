@@ -128,6 +128,6 @@ class TemplateDialog(QDialog):
                 self.template, texts, self.width_field.text(), self._units,
                 self.name_field.text().strip())
         except (ValueError, SectionError) as exc:
-            self.error.setText(str(exc))
+            self.error.setText(self._units.explain(exc))
             return
         super().accept()

@@ -459,7 +459,7 @@ class UpliftPanel(QGroupBox):
             self._unmark(key)  # before the edit: the document's change repaints the row
             editing.set_resistance(doc, part, field, value)
         except ValueError as exc:
-            self._mark(key, edit, str(exc), current)
+            self._mark(key, edit, self._doc.units.explain(exc), current)
 
     def _on_factor_edited(self):
         if self.factor.text().strip() == self._factor_shown:

@@ -187,3 +187,23 @@ def test_layer_list_rows_read_as_sentences(window_of):
     assert texts == [f"2 fats, oils and grease, up to the free surface at {fmt(sol.layers[1].top)}",
                      f"1 raw sewage, up to {fmt(sol.layers[0].top)}"]
     assert not any("  " in t for t in texts)
+
+
+def test_a_refusal_of_core_reads_in_the_display_unit(window_of, settle):
+    """A level under the grease trap's layer, typed in feet, is refused in
+    feet: the window said "the fill level 1.56163 m is not above the top of
+    layer 1 'raw sewage' at 1.85 m" (core's words, in metres) to a user
+    working in feet."""
+    from wetline.app.model import editing
+    from wetline.app.model.display import DisplayChoice
+
+    w = window_of("grease_trap")
+    editing.set_units(w.doc, DisplayChoice("us", "ft"))
+    settle(w)
+    panel = w.fill_panel
+    panel.value.setText("5.123456")
+    panel.value.editingFinished.emit()
+    settle(w)
+    text = panel.error.text()
+    assert "layer 1 'raw sewage' at 6.07 ft" in text, text
+    assert "the fill level 5.123 ft" in text and " m " not in text and " m:" not in text
