@@ -32,6 +32,13 @@ it (at 10,000 vertices the handles are hidden and the signal is sent
 directly: the same path, timed). ``--forced`` also times each step forcing a
 synchronous repaint of the whole window (an upper bound).
 
+After each scenario's timed steps, the same steps are done again untimed
+with their paints logged (which widgets, which regions), and those repaints
+are asked for once more with nothing changed or computed: "painting alone"
+is printed beside the step's median, with the goal less it (what is left of
+the goal for all the computing). It is a floor measured in the same run: no
+change to the computing goes below it.
+
 Then the envelope of 20 cases after an edit, in the document's own
 recompute: after an edit of the active case (the other cases' results are
 kept) and after an edit of the section (every case solved again), against
