@@ -176,7 +176,8 @@ class OutlineEditor:
             return
         x, z = self._canvas.snap(x, z)
         if not editing.move_structure_vertex(self._doc, index, x, z):
-            self._canvas.message.emit(f"Invalid structure outline: {self._doc.draft.error} "
+            why = self._doc.units.explain(self._doc.draft.error)
+            self._canvas.message.emit(f"Invalid structure outline: {why} "
                                       "(results keep the last valid structure)")
         self._canvas.schedule(outline=True)
 
@@ -215,7 +216,7 @@ class OutlineEditor:
     def set_part(self, edge, name):
         """Give ``edge`` the part ``name``."""
         if not editing.set_edge_part(self._doc, edge, name):
-            self._canvas.message.emit(f"Invalid: {self._doc.draft.error}")
+            self._canvas.message.emit(f"Invalid: {self._doc.units.explain(self._doc.draft.error)}")
 
     # ------------------------------------------------------------ mouse
     def on_click(self, x, z, button, double, screen_pos):

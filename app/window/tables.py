@@ -447,7 +447,7 @@ class VerticesModel(_Model):
             self.errorRaised(self.last_error)
             return False
         what = "structure outline" if structure else "outline"
-        self.last_error = "" if ok else f"Invalid {what}: {doc.draft.error}"
+        self.last_error = "" if ok else f"Invalid {what}: {doc.units.explain(doc.draft.error)}"
         if not ok:
             self.errorRaised(self.last_error)
         return True

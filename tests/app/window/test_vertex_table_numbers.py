@@ -34,3 +34,21 @@ def test_decimals_the_parser_reads_move_the_vertex_exactly(make_window, text, va
     model = w.vertices_table.model()
     assert model.setData(model.index(1, 0), text, Qt.EditRole), model.last_error
     assert w.doc.section.outline[1, 0] == value == parse_decimal(text)
+
+
+def test_an_outline_refused_by_core_is_told_in_the_display_unit(make_window, sample, settle):
+    """A vertex typed in feet that leaves the structure is refused in feet:
+    the table said "cavity vertex 2 at (3, 9.144) m lies outside the
+    structure outline" for 30 ft typed (seen under Xvfb)."""
+    from wetline.app.model import editing
+    from wetline.app.model.display import DisplayChoice
+    from wetline.core.section_file import read_design
+
+    w = make_window(read_design(sample("buried_wet_well")))
+    editing.set_units(w.doc, DisplayChoice("us", "ft"))
+    settle(w)
+    m = w.vertices_table.model()
+    assert m.setData(m.index(2, 1), "30", Qt.ItemDataRole.EditRole)
+    settle(w)
+    assert m.last_error == ("Invalid outline: cavity vertex 2 at (9.843, 30) ft lies outside "
+                            "the structure outline")
