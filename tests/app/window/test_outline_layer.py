@@ -5,6 +5,7 @@ move did not touch are left as they were (same data arrays, no new pen)."""
 
 import numpy as np
 import pyqtgraph as pg
+import pytest
 
 from wetline.app.window.outline_layer import OutlineLayer
 
@@ -22,19 +23,32 @@ def _expected(outline, parts, name):
     return np.array([q for pair in pairs for q in pair])
 
 
-def test_parts_redrawn_only_where_vertices_moved(qtbot):
+def _each_part_has_its_edges(curves, outline, parts):
+    for name, curve in curves.items():
+        x, z = curve.getData()
+        assert np.array_equal(np.column_stack([x, z]), _expected(outline, parts, name))
+
+
+@pytest.fixture
+def square_layer(qtbot):
+    """An outline layer that has drawn the square; (layer, outline, parts)
+    while the plot holding it lives (the fixture keeps it)."""
     plot = pg.PlotWidget()
     qtbot.addWidget(plot)
     layer = OutlineLayer(plot.getPlotItem())
     outline, parts = _square()
     layer.draw(outline, parts, axisymmetric=False)
+    yield layer, outline, parts
+    del plot
+
+
+def test_parts_redrawn_only_where_vertices_moved(square_layer):
+    layer, outline, parts = square_layer
     curves = layer._part_curves
     before = {name: (c.getData()[0], c.opts["pen"]) for name, c in curves.items()}
     moved, _ = _square(dz=-0.2)  # the floor's middle vertex down
     layer.draw(moved, parts, axisymmetric=False)
-    for name, curve in curves.items():
-        x, z = curve.getData()
-        assert np.array_equal(np.column_stack([x, z]), _expected(moved, parts, name))
+    _each_part_has_its_edges(curves, moved, parts)
     assert curves["floor"].getData()[0] is not before["floor"][0]
     for name in ("wall", "open"):  # untouched: the very same data and pen
         assert curves[name].getData()[0] is before[name][0]
@@ -43,27 +57,19 @@ def test_parts_redrawn_only_where_vertices_moved(qtbot):
     renamed = ["floor", "floor", "wall", "open", "side"]
     layer.draw(moved, renamed, axisymmetric=False)
     assert set(curves) == {"floor", "wall", "open", "side"}
-    for name, curve in curves.items():
-        x, z = curve.getData()
-        assert np.array_equal(np.column_stack([x, z]), _expected(moved, renamed, name))
+    _each_part_has_its_edges(curves, moved, renamed)
 
 
-def test_shared_vertex_and_new_vertex_redraw_the_parts_they_touch(qtbot):
+def test_shared_vertex_and_new_vertex_redraw_the_parts_they_touch(square_layer):
     """A vertex shared by two parts redraws both; a vertex added (the count
     changes) redraws every part; the outline given may be changed in place
     after the draw (the layer keeps its own copy to compare with)."""
-    plot = pg.PlotWidget()
-    qtbot.addWidget(plot)
-    layer = OutlineLayer(plot.getPlotItem())
-    outline, parts = _square()
-    layer.draw(outline, parts, axisymmetric=False)
+    layer, outline, parts = square_layer
     curves = layer._part_curves
     before = {name: c.getData()[0] for name, c in curves.items()}
     outline[2] = [2.5, 0.0]  # the corner between the floor and the right wall
     layer.draw(outline, parts, axisymmetric=False)
-    for name, curve in curves.items():
-        x, z = curve.getData()
-        assert np.array_equal(np.column_stack([x, z]), _expected(outline, parts, name))
+    _each_part_has_its_edges(curves, outline, parts)
     assert curves["floor"].getData()[0] is not before["floor"]
     assert curves["wall"].getData()[0] is not before["wall"]
     assert curves["open"].getData()[0] is before["open"]
@@ -71,7 +77,5 @@ def test_shared_vertex_and_new_vertex_redraw_the_parts_they_touch(qtbot):
     grown_parts = ["floor", "floor", "wall", "wall", "open", "wall"]
     before = {name: c.getData()[0] for name, c in curves.items()}
     layer.draw(grown, grown_parts, axisymmetric=False)
-    for name, curve in curves.items():
-        x, z = curve.getData()
-        assert np.array_equal(np.column_stack([x, z]), _expected(grown, grown_parts, name))
-        assert curve.getData()[0] is not before[name]
+    _each_part_has_its_edges(curves, grown, grown_parts)
+    assert all(curves[name].getData()[0] is not before[name] for name in curves)
