@@ -563,6 +563,11 @@ class EdgesTable(QTableView, _SelectionSync):
             super().paintEvent(ev)
 
 
+COORDINATE_WIDTH_TEXT = "-8888.88888888"
+"""The widest coordinate the vertex table makes room for: 12 figures, a
+sign and a point."""
+
+
 class VerticesTable(QTableView, _SelectionSync):
     def __init__(self, document, message=None, parent=None):
         super().__init__(parent)
@@ -576,6 +581,11 @@ class VerticesTable(QTableView, _SelectionSync):
         self.setAlternatingRowColors(True)
         self.verticalHeader().setDefaultSectionSize(22)
         self.horizontalHeader().setStretchLastSection(True)
+        # x and z wide enough for a coordinate to 12 figures with its sign
+        # (format_entered: a metre file's vertices shown in feet read so).
+        width = self.fontMetrics().horizontalAdvance(COORDINATE_WIDTH_TEXT) + 16
+        for column in (0, 1):
+            self.setColumnWidth(column, max(self.columnWidth(column), width))
         self._sync_init(document, "vertex")
 
     def paintEvent(self, ev):

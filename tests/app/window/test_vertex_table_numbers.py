@@ -52,3 +52,21 @@ def test_an_outline_refused_by_core_is_told_in_the_display_unit(make_window, sam
     settle(w)
     assert m.last_error == ("Invalid outline: cavity vertex 2 at (9.843, 30) ft lies outside "
                             "the structure outline")
+
+
+def test_a_coordinate_of_twelve_figures_fits_its_column(make_window, sample, settle):
+    """A metre file shown in feet gives its coordinates to 12 figures (as
+    entered, converted): the table's x and z columns are wide enough to show
+    them whole (they read "9.842519685..." under Xvfb)."""
+    from wetline.app.model import editing
+    from wetline.app.model.display import DisplayChoice
+    from wetline.core.section_file import read_design
+
+    w = make_window(read_design(sample("buried_wet_well")))
+    editing.set_units(w.doc, DisplayChoice("us", "ft"))
+    settle(w)
+    table = w.vertices_table
+    m = table.model()
+    assert m.index(1, 0).data() == "9.84251968504"
+    for column in (0, 1):
+        assert table.columnWidth(column) >= table.sizeHintForColumn(column)
