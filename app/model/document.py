@@ -312,6 +312,11 @@ class Document(ViewState, OutlinePreview, Recompute, QObject):
         if solve:
             self._need_solve = True
             self._need_table = self._need_table or section_changed or liquid_changed
+            # A closed section filled above the chart's range: the range grows
+            # (a fill by volume stays below the roof).
+            if fill_changed and case.fill_level is not None \
+                    and case.fill_level > self.level_range[1]:
+                self._need_table = True
         if solve or cases_changed or factor_changed:
             self._need_envelope = True
         if self._need_solve or self._need_table or self._need_envelope:

@@ -27,7 +27,7 @@ from .level_tables import case_level_tables
 from .outline_preview import Preview
 from .step_timer import span
 
-__all__ = ["Recompute", "fill_range", "preview_steps", "CHART_STEPS",
+__all__ = ["Recompute", "fill_range", "level_range", "preview_steps", "CHART_STEPS",
            "PREVIEW_MIN_STEPS", "PREVIEW_TABLE_ELEMENTS"]
 
 CHART_STEPS = 121
@@ -69,6 +69,24 @@ def fill_range(section: Section) -> tuple[float, float]:
     return lo, section.z_max + (section.z_max - section.z_min)
 
 
+def level_range(section: Section, level: float | None = None) -> tuple[float, float]:
+    """Levels the fill slider and the chart span [m]: :func:`fill_range`,
+    its top raised to ``level`` (a fill level, or None for a fill by volume)
+    for a closed section filled to a head above the roof higher than that
+    (the file's or a typed level: it is allowed, and must be on the chart
+    and the slider).
+
+    >>> from wetline.core.section import Section
+    >>> tank = Section.build([[0, 0], [3, 0], [3, 2], [0, 2]])
+    >>> level_range(tank), level_range(tank, 4.5), level_range(tank, 1.0)
+    ((0.0, 4.0), (0.0, 4.5), (0.0, 4.0))
+    """
+    lo, hi = fill_range(section)
+    if level is not None and section.spill_level is None and level > hi:
+        hi = float(level)
+    return lo, hi
+
+
 class Recompute:
     """The recompute pipeline, mixed into the document (which holds the
     signals, the design and the outline being previewed)."""
@@ -101,6 +119,7 @@ class Recompute:
         self.level_tables: tuple[LevelTable, ...] = ()
         """The chart's tables: :attr:`level_table` (pockets vented) and, where
         the section can trap air, the same with the air trapped."""
+        self._level_range: tuple[float, float] | None = None
         self._solver = CaseSolver()
         self._live = 0
         self._need_solve = True
@@ -110,6 +129,14 @@ class Recompute:
         self._timer.setSingleShot(True)
         self._timer.setInterval(0)
         self._timer.timeout.connect(self.recompute)
+
+    @property
+    def level_range(self) -> tuple[float, float]:
+        """The levels [m] the slider and the chart span: the last chart
+        table's (:func:`level_range`), the section's before the first."""
+        if self._level_range is None:
+            return level_range(self._case.section, self._case.fill_level)
+        return self._level_range
 
     @property
     def envelope_current(self) -> bool:
@@ -170,7 +197,7 @@ class Recompute:
             self._need_table = False
             section = case.section
             with span("level table"):
-                lo, hi = fill_range(section)
+                lo, hi = self._level_range = level_range(section, case.fill_level)
                 steps = CHART_STEPS if preview is None else preview_steps(section.n_edges)
                 levels = np.linspace(lo, hi, steps)
                 if section.is_open:

@@ -23,7 +23,6 @@ import pyqtgraph as pg
 from PySide6.QtCore import Qt
 
 from wetline.app.model import editing
-from wetline.app.model.document import fill_range
 from wetline.app.model.step_timer import span
 from wetline.app.render.style import FLOOR_COLOUR, LEVEL_MARK, LEVEL_SERIES, part_colours
 from wetline.app.window.grid import LightGrid
@@ -254,7 +253,7 @@ class LoadChart(pg.PlotWidget):
 
     # ----------------------------------------------------------- user
     def _level_range(self):
-        return fill_range(self._doc.section)
+        return self._doc.level_range
 
     def set_level_at(self, value, merge_key=None):
         """Fill to the level ``value`` on the chart's axis (display length

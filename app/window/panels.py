@@ -24,7 +24,6 @@ from PySide6.QtWidgets import (
 )
 
 from wetline.app.model import editing
-from wetline.app.model.document import fill_range
 from wetline.app.model.gravity import format_gravity, gravity_from_display, gravity_label
 from wetline.app.window.layers_panel import LayerList
 from wetline.app.window.steady_labels import SteadyColumn, SteadyParagraph
@@ -273,6 +272,7 @@ class FillPanel(QGroupBox):
         document.sectionChanged.connect(self._on_fillChanged)
         document.unitsChanged.connect(self._on_unitsChanged)
         document.solved.connect(self._on_solved)
+        document.levelTableReady.connect(self._on_levelTableReady)
         self._range_key = None  # (section, units) of the range label's text
         self._on_fillChanged()
 
@@ -280,7 +280,7 @@ class FillPanel(QGroupBox):
     def _slider_fraction_of(self, solution_level=None, volume=None):
         section = self._doc.section
         if self.mode.currentIndex() == 0:
-            lo, hi = fill_range(section)
+            lo, hi = self._doc.level_range
             level = self._doc.case.level if solution_level is None else solution_level
             return (level - lo) / (hi - lo) if hi > lo else 0.0
         cap = capacity(section)
@@ -351,6 +351,16 @@ class FillPanel(QGroupBox):
         self._write_back()
         self._write_range(self._doc.section, again=True)
 
+    def _on_levelTableReady(self, _table):
+        # The slider's range may have grown (a head above a closed section's
+        # roof, typed or read): its handle moves, the texts stay.
+        if self.mode.currentIndex() == 0:
+            doc = self._doc
+            sol = doc.solution
+            level = doc.case.fill_level if doc.case.fill_level is not None else (
+                sol.level if sol is not None else doc.case.level)
+            self._set_slider(self._slider_fraction_of(level))
+
     def _on_solved(self, solution):
         if self.mode.currentIndex() != 0 or self._doc.case.fill_level is None:
             self._write_back()
@@ -390,7 +400,7 @@ class FillPanel(QGroupBox):
         """Fill to ``fraction`` of the slider's range (as a slider move)."""
         doc = self._doc
         if self.mode.currentIndex() == 0:
-            lo, hi = fill_range(doc.section)
+            lo, hi = doc.level_range
             editing.fill_to_level(doc, lo + fraction * (hi - lo), merge_key)
         else:
             editing.fill_to_volume(doc, fraction * capacity(doc.section), merge_key)

@@ -1,10 +1,10 @@
 """What a live step leaves for the release: the chart's coarse table during
 a drag (the full one follows on release: tests/app/window/test_live_drag.py),
-and the doctests of the live-step helpers."""
+and the doctests of the live-step helpers and of the slider's range."""
 
 import doctest
 
-from wetline.app.model import document, step_timer
+from wetline.app.model import document, recompute, step_timer
 from wetline.app.model.document import CHART_STEPS, PREVIEW_MIN_STEPS, preview_steps
 
 
@@ -18,10 +18,10 @@ def test_the_drag_table_is_coarser_for_larger_outlines_within_its_bounds():
 
 
 def test_the_doctests_hold():
-    for obj in (step_timer, document.preview_steps):
+    for obj, module in ((step_timer, step_timer), (document.preview_steps, document),
+                        (recompute.level_range, recompute)):
         finder = doctest.DocTestFinder()
         runner = doctest.DocTestRunner()
-        for test in finder.find(obj, globs=vars(step_timer if obj is step_timer
-                                                 else document).copy()):
+        for test in finder.find(obj, globs=vars(module).copy()):
             runner.run(test)
         assert runner.failures == 0 and runner.tries > 0, obj

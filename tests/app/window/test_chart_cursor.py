@@ -136,3 +136,29 @@ def test_a_drag_beside_the_cursor_leaves_the_level(make_window, settle):
     send(QEvent.MouseButtonRelease, QPointF(p0.x() + 75, p0.y()), Qt.LeftButton, Qt.NoButton)
     settle(w)
     assert doc.solution.level == level and doc.undo_stack.count() == n
+
+
+def test_a_head_above_the_default_range_is_on_the_chart_and_the_slider(make_window, sample,
+                                                                         settle):
+    """A closed tank filled to a head above the roof higher than the slider's
+    default range (the roof plus the section's height) shows it: the chart
+    and the slider reach the level, the cursor is at it. The closed tank
+    sample opens at 4.5 m over a range to 4 m: the chart ended at 4 m with
+    no cursor, the slider pinned at its end (seen under Xvfb)."""
+    from wetline.core.section_file import read_design
+
+    w = make_window(read_design(sample("closed_tank")))
+    settle(w)
+    doc = w.doc
+    level = doc.solution.level
+    assert level == 4.5 and doc.section.z_max == 2.0
+    assert doc.level_table.levels[-1] == level  # the chart's table reaches it
+    assert w.chart.cursor_level == level
+    (x0, x1), _ = w.chart.getPlotItem().getViewBox().viewRange()
+    assert x0 <= level <= x1
+    slider = w.fill_panel.slider
+    assert slider.value() == slider.maximum()
+    slider.setValue(slider.maximum() // 2)  # the slider spans it: half way is 2.25 m
+    settle(w)
+    assert doc.solution.level == pytest.approx(level / 2, abs=level / slider.maximum())
+    assert doc.level_table.levels[-1] == level  # the range stays while it is below
