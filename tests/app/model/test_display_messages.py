@@ -45,3 +45,15 @@ def test_what_is_not_a_length_in_metres_stays(text):
 def test_exponents_and_signs_are_read():
     assert FT.message("at 1e-3 m and -3.048E1 m") == (
         f"at {FT.fmt_length(1e-3)} and {FT.fmt_length(-30.48)}")
+
+
+def test_quoted_text_stays_as_typed():
+    """A typed text that does not parse is quoted back as typed ("not '3 m'"
+    read "not '9.843 ft'" in feet), and so is a quoted name; a possessive
+    apostrophe starts no quote."""
+    typed = "x must be a finite decimal number such as 2.5, -0.5 or 1e3, not '3 m'"
+    assert FT.message(typed) == typed
+    named = "layer 1 'tank 2 m deep' at 1.85 m"
+    assert FT.message(named) == f"layer 1 'tank 2 m deep' at {FT.fmt_length(1.85)}"
+    possessive = "the structure's wall at 0.3048 m"
+    assert FT.message(possessive) == "the structure's wall at 1 ft"
