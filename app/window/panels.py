@@ -295,6 +295,13 @@ class FillPanel(QGroupBox):
         self.slider.setValue(int(round(min(max(fraction, 0.0), 1.0) * self.STEPS)))
         self.slider.blockSignals(False)
 
+    def _shown_level(self):
+        """The level [m] the box shows: the case's typed level, else the
+        solved one (a fill by volume)."""
+        case, sol = self._doc.case, self._doc.solution
+        return case.fill_level if case.fill_level is not None else (
+            sol.level if sol is not None else case.level)
+
     def _write_back(self):
         doc = self._doc
         units = doc.units
@@ -304,8 +311,7 @@ class FillPanel(QGroupBox):
         self.value.blockSignals(True)
         if mode == 0:
             self.unit.setText(units.length_unit)
-            level = case.fill_level if case.fill_level is not None else (
-                sol.level if sol is not None else case.level)
+            level = self._shown_level()
             self.value.setText(format_number(units.length(level), 5))
             self._set_slider(self._slider_fraction_of(level))
         else:
@@ -324,14 +330,14 @@ class FillPanel(QGroupBox):
         self.value.blockSignals(False)
         self._write_range(doc.section)
 
-    def _write_range(self, section, again=False):
+    def _write_range(self, section):
         """The spill level (or closed top) and capacity of ``section``: the
         document's, or the dragged outline's while a drag is solved. Written
         again only for another section or other units (a fill step keeps
-        them), or if ``again`` (the precision may have changed)."""
+        them; a change of units or precision forgets the last)."""
         units = self._doc.units
         key = self._range_key
-        if not again and key is not None and key[0] is section and key[1] is units:
+        if key is not None and key[0] is section and key[1] is units:
             return
         self._range_key = (section, units)
         if section.is_open:
@@ -348,18 +354,14 @@ class FillPanel(QGroupBox):
         self._write_back()
 
     def _on_unitsChanged(self):
+        self._range_key = None  # the units or the precision changed: write it again
         self._write_back()
-        self._write_range(self._doc.section, again=True)
 
     def _on_levelTableReady(self, _table):
         # The slider's range may have grown (a head above a closed section's
         # roof, typed or read): its handle moves, the texts stay.
         if self.mode.currentIndex() == 0:
-            doc = self._doc
-            sol = doc.solution
-            level = doc.case.fill_level if doc.case.fill_level is not None else (
-                sol.level if sol is not None else doc.case.level)
-            self._set_slider(self._slider_fraction_of(level))
+            self._set_slider(self._slider_fraction_of(self._shown_level()))
 
     def _on_solved(self, solution):
         if self.mode.currentIndex() != 0 or self._doc.case.fill_level is None:
