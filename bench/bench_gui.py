@@ -262,10 +262,10 @@ def _paint_floor(app, w, acts):
             _step(app, w, act, False, log)
     finally:
         app.removeEventFilter(log)
-    return paint_only(app, w, log)
+    return paint_only(app, log)
 
 
-def paint_only(app, w, log):
+def paint_only(app, log):
     """Each logged step's paints asked for again, nothing changed or
     computed: the same widgets repaint the same regions (their content as
     the last step left it). Median wall and CPU time per step [ms]: the part
@@ -399,7 +399,6 @@ def main(argv=None):
           f"load average {os.getloadavg()[0]:.1f}")
     ok = True
     chosen = [sc for sc in scenarios() if args.only in sc.title]
-    n_of = {sc.title: sc.n for sc in chosen}
     rows = []
     for kind, fn in (("slider", run_slider), ("drag", run_drag)):
         print(f"{kind} step to finished repaint: median / 90th percentile (ratio), "
@@ -419,18 +418,18 @@ def main(argv=None):
                 f = fn(sc, args.steps, forced=True)
                 print(f"  {'':<34} forcing a repaint of the whole window: "
                       f"{f.median:6.1f} / {f.p90:6.1f} ms")
-            rows.append((kind, sc.title, t.row(), t))
+            rows.append((kind, sc, t))
     print("breakdown per step, mean [ms]:")
     print(f"  {'':<42}" + "".join(f"{h:>7}" for h in SHORT))
-    for kind, title, row, _ in rows:
-        print(f"  {kind:<7} {title:<34}" + "".join(f"{v:7.2f}" for v in row))
+    for kind, sc, t in rows:
+        print(f"  {kind:<7} {sc.title:<34}" + "".join(f"{v:7.2f}" for v in t.row()))
     print("painting alone: each step's repaints asked for again with nothing changed "
           "(median wall / CPU [ms]),\nthe step's median, and the goal less the painting "
           "(what is left for everything else)")
-    for kind, title, _, t in rows:
+    for kind, sc, t in rows:
         pw, pc = t.paint
-        g = goal(n_of[title])
-        print(f"  {kind:<7} {title:<34} {pw:6.1f} / {pc:6.1f}   step {t.median:6.1f}"
+        g = goal(sc.n)
+        print(f"  {kind:<7} {sc.title:<34} {pw:6.1f} / {pc:6.1f}   step {t.median:6.1f}"
               f"   goal {g:4.0f} less painting {g - pw:6.1f}")
     if not args.no_envelope:
         print("envelope of 20 cases after an edit, in the document (median wall / CPU)")
