@@ -27,8 +27,8 @@ from .level_tables import case_level_tables
 from .outline_preview import Preview
 from .step_timer import span
 
-__all__ = ["Recompute", "fill_range", "level_range", "preview_steps", "CHART_STEPS",
-           "PREVIEW_MIN_STEPS", "PREVIEW_TABLE_ELEMENTS"]
+__all__ = ["Recompute", "fill_range", "level_range", "top_interface", "preview_steps",
+           "CHART_STEPS", "PREVIEW_MIN_STEPS", "PREVIEW_TABLE_ELEMENTS"]
 
 CHART_STEPS = 121
 """Levels in the loads-against-level table."""
@@ -69,22 +69,36 @@ def fill_range(section: Section) -> tuple[float, float]:
     return lo, section.z_max + (section.z_max - section.z_min)
 
 
-def level_range(section: Section, level: float | None = None) -> tuple[float, float]:
+def level_range(section: Section, level: float | None = None,
+                interface: float | None = None) -> tuple[float, float]:
     """Levels the fill slider and the chart span [m]: :func:`fill_range`,
     its top raised to ``level`` (a fill level, or None for a fill by volume)
     for a closed section filled to a head above the roof higher than that
     (the file's or a typed level: it is allowed, and must be on the chart
-    and the slider).
+    and the slider); with layers, from just above the top ``interface``
+    (a millionth of the range above it, as the chart's table starts: the
+    free surface must lie above every layer but the top one).
 
     >>> from wetline.core.section import Section
     >>> tank = Section.build([[0, 0], [3, 0], [3, 2], [0, 2]])
     >>> level_range(tank), level_range(tank, 4.5), level_range(tank, 1.0)
     ((0.0, 4.0), (0.0, 4.5), (0.0, 4.0))
+    >>> level_range(tank, interface=1.0)
+    (1.000003, 4.0)
     """
     lo, hi = fill_range(section)
     if level is not None and section.spill_level is None and level > hi:
         hi = float(level)
+    if interface is not None and interface < hi:
+        lo = max(lo, interface + 1e-6 * (hi - interface))
     return lo, hi
+
+
+def top_interface(design: Design, active: int) -> float | None:
+    """The top interface [m] of case ``active``'s layers (None for one
+    liquid, or a case core cannot resolve)."""
+    law = design.resolve(design.names[active]).law
+    return law.interfaces[-1] if law is not None and law.interfaces else None
 
 
 class Recompute:
@@ -135,7 +149,8 @@ class Recompute:
         """The levels [m] the slider and the chart span: the last chart
         table's (:func:`level_range`), the section's before the first."""
         if self._level_range is None:
-            return level_range(self._case.section, self._case.fill_level)
+            return level_range(self._case.section, self._case.fill_level,
+                               top_interface(self._design, self._active))
         return self._level_range
 
     @property
@@ -197,7 +212,8 @@ class Recompute:
             self._need_table = False
             section = case.section
             with span("level table"):
-                lo, hi = self._level_range = level_range(section, case.fill_level)
+                lo, hi = self._level_range = level_range(
+                    section, case.fill_level, top_interface(design, self._active))
                 steps = CHART_STEPS if preview is None else preview_steps(section.n_edges)
                 levels = np.linspace(lo, hi, steps)
                 if section.is_open:

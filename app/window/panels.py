@@ -401,11 +401,15 @@ class FillPanel(QGroupBox):
     def apply_fraction(self, fraction, merge_key=None):
         """Fill to ``fraction`` of the slider's range (as a slider move)."""
         doc = self._doc
-        if self.mode.currentIndex() == 0:
-            lo, hi = doc.level_range
-            editing.fill_to_level(doc, lo + fraction * (hi - lo), merge_key)
-        else:
-            editing.fill_to_volume(doc, fraction * capacity(doc.section), merge_key)
+        try:
+            if self.mode.currentIndex() == 0:
+                lo, hi = doc.level_range
+                editing.fill_to_level(doc, lo + fraction * (hi - lo), merge_key)
+            else:
+                editing.fill_to_volume(doc, fraction * capacity(doc.section), merge_key)
+        except ValueError as exc:  # a level core refuses: said, as a typed one is
+            _show(self.error, doc.units.explain(exc))
+            return
         _show(self.error, "")
 
     def step(self, direction):

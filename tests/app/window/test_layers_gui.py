@@ -207,3 +207,23 @@ def test_a_refusal_of_core_reads_in_the_display_unit(window_of, settle):
     text = panel.error.text()
     assert "layer 1 'raw sewage' at 6.07 ft" in text, text
     assert "the fill level 5.123 ft" in text and " m " not in text and " m:" not in text
+
+
+def test_the_slider_spans_the_levels_above_the_layers_below(window_of, settle):
+    """The slider's lowest level is just above the top interface, where the
+    chart's table starts: moved below it (the grease trap's sewage layer
+    tops out at 1.85 m) the slider raised core's refusal in a slot, a
+    traceback and the crash dialog (seen under Xvfb)."""
+    w = window_of("grease_trap")
+    settle(w)
+    doc = w.doc
+    top = doc.design.resolve(doc.active_name).law.interfaces[-1]
+    assert top == 1.85
+    lo, hi = doc.level_range
+    assert top < lo < top + 1e-5 * (hi - top) and lo == doc.level_table.levels[0]
+    slider = w.fill_panel.slider
+    for value in (0, slider.maximum() // 4):
+        slider.setValue(value)
+        settle(w)
+        assert doc.solution.level > top and w.fill_panel.error.text() == ""
+    assert doc.solution.level == pytest.approx(lo + 0.25 * (hi - lo), abs=(hi - lo) / 500)
