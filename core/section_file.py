@@ -63,7 +63,7 @@ from .structure import (
     Structure,
     StructureError,
 )
-from .units import UnitError, length_factor
+from .units import UnitError, length_factor, message_in_length_unit
 from .uplift import DEFAULT_REQUIRED_FACTOR, PartResistance
 
 __all__ = [
@@ -223,8 +223,15 @@ def _read_file_level(data: object) -> tuple[Case, dict[str, Any], float]:
                     fill_volume=volume, length_unit=unit, resistances=resistances,
                     required_uplift_factor=factor, report=report)
     except (CaseError, FillError) as exc:
-        raise SectionFileError(str(exc)) from None
+        raise _refusal(exc, unit) from None
     return case, data, scale
+
+
+def _refusal(exc: Exception, unit: str, **where: Any) -> SectionFileError:
+    """Core's refusal ``exc`` of what a file gives, its lengths (in metres,
+    as core computes) in the file's length ``unit``: the numbers the file's
+    author wrote (:func:`wetline.core.units.message_in_length_unit`)."""
+    return SectionFileError(message_in_length_unit(str(exc), unit), **where)
 
 
 def _required(data: dict[str, Any], key: str, hint: str = "") -> object:
@@ -359,8 +366,8 @@ def _read_section(data: dict[str, Any], kind: str, width: float, name: str, unit
                            dtype=np.float64).reshape(-1, 2)
         return Section.build(pts, parts=parts, kind=kind, width=width, name=name)
     except SectionError as exc:
-        raise SectionFileError(str(exc), edges=exc.edges, vertices=exc.vertices,
-                               location=exc.location) from None
+        raise _refusal(exc, unit, edges=exc.edges, vertices=exc.vertices,
+                       location=exc.location) from None
 
 
 def _read_fluid(data: dict[str, Any]) -> Liquid:
@@ -466,9 +473,9 @@ def _read_design(case: Case, data: dict[str, Any], scale: float) -> Design:
     try:
         return Design(case, structure, ground, cases)
     except StructureError as exc:
-        raise SectionFileError(str(exc), location=exc.location) from None
+        raise _refusal(exc, unit, location=exc.location) from None
     except ValueError as exc:
-        raise SectionFileError(str(exc)) from None
+        raise _refusal(exc, unit) from None
 
 
 def _pairs(value: object, what: str) -> list[list[float]]:
@@ -530,7 +537,7 @@ def _read_structure(obj: object, section: Section, unit: str, scale: float) -> S
     try:
         return Structure.build(pts, parts, cavity=section, **values)
     except StructureError as exc:
-        raise SectionFileError(str(exc), location=exc.location) from None
+        raise _refusal(exc, unit, location=exc.location) from None
 
 
 def _read_ground(obj: object, unit: str, scale: float) -> Ground:
@@ -543,7 +550,7 @@ def _read_ground(obj: object, unit: str, scale: float) -> Ground:
     try:
         return Ground(level, **values)
     except ValueError as exc:
-        raise SectionFileError(str(exc)) from None
+        raise _refusal(exc, unit) from None
 
 
 def _read_cases(obj: object, unit: str, scale: float) -> tuple[LoadCase, ...]:
@@ -597,7 +604,7 @@ def _read_case(obj: object, index: int, unit: str, scale: float) -> LoadCase:
     try:
         return LoadCase(name, **values)
     except ValueError as exc:
-        raise SectionFileError(str(exc)) from None
+        raise _refusal(exc, unit) from None
 
 
 def _read_case_fill(obj: object, unit: str, scale: float) -> dict[str, Any]:
@@ -665,7 +672,7 @@ def _read_groundwater(obj: object, unit: str, scale: float) -> Groundwater | Non
     try:
         return Groundwater(level, **values)
     except ValueError as exc:
-        raise SectionFileError(str(exc)) from None
+        raise _refusal(exc, unit) from None
 
 
 class _Exact(float):

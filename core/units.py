@@ -66,6 +66,7 @@ __all__ = [  # and ``ureg``, built on first use (module __getattr__)
     "US_LENGTH_UNITS",
     "DISPLAY_LENGTH_UNITS",
     "length_display",
+    "message_in_length_unit",
 ]
 
 @functools.lru_cache(maxsize=1)
@@ -454,3 +455,56 @@ def length_display(unit: str) -> DisplayUnit:
         known = ", ".join(DISPLAY_LENGTH_UNITS)
         raise UnitError(f"lengths are shown in {known}, not {unit!r}")
     return DisplayUnit(label=unit, factor=length_factor(unit))
+
+
+_NUMBER = r"(-?\d+(?:\.\d*)?(?:[eE][-+]?\d+)?)"
+_LENGTH_IN_METRES = re.compile(_NUMBER + r" m(?![\w/])")
+"""A length in metres as core writes one: a number, a space, "m" (not m2,
+m3, m/s2, mm)."""
+_POINT_IN_METRES = re.compile(r"\(" + _NUMBER + r", " + _NUMBER + r"\) m(?![\w/])")
+"""A point in metres as core writes one: "(x, z) m"."""
+_QUOTED = re.compile(r"""((?<!\w)'[^']*'(?!\w)|"[^"]*")""")
+"""A quoted piece of a message (a name, a text typed); an apostrophe
+inside a word ("structure's") starts none."""
+
+
+def message_in_length_unit(text: str, unit: str) -> str:
+    """A refusal of core's with its lengths in `unit` instead of metres.
+
+    Core computes in metres and writes a length as a number, a space and
+    "m" ("at 1.85 m") and a point as "(x, z) m". The same message for a
+    person who works in `unit` (a file's length unit, a window's display
+    unit): each such length and point converted and written with
+    :func:`wetline.core.numbers.format_number`. Numbers before m2, m3 or
+    m/s2 stay as they are, and so does quoted text (a name, or what was
+    typed: "not '3 m'").
+
+    Parameters
+    ----------
+    text : str
+        The message, lengths in metres.
+    unit : str
+        A length unit :func:`length_factor` knows ("mm", "in", "ft" ...);
+        for "m" the text is returned unchanged.
+
+    Examples
+    --------
+    >>> message_in_length_unit("the spill level 0.6096 m at (0.3048, 0) m", "ft")
+    'the spill level 2 ft at (1, 0) ft'
+    """
+    if unit == "m":
+        return text
+    factor = length_factor(unit)
+
+    def shown(metres: str) -> str:
+        return format_number(float(metres) / factor)
+
+    def point(match: re.Match[str]) -> str:
+        return f"({shown(match.group(1))}, {shown(match.group(2))}) {unit}"
+
+    def rewrite(part: str) -> str:
+        part = _POINT_IN_METRES.sub(point, part)
+        return _LENGTH_IN_METRES.sub(lambda m: f"{shown(m.group(1))} {unit}", part)
+
+    pieces = _QUOTED.split(text)
+    return "".join(p if k % 2 else rewrite(p) for k, p in enumerate(pieces))

@@ -248,11 +248,11 @@ def _image_size(text):
 def _load(path, level=None, volume=None, case=None):
     """Read a section file and pick one load case (``case``: its name, default
     the first), with a --level / --volume override of its fill (the option's
-    text): ``(design, resolved)``, the design holding the override."""
-    from dataclasses import replace
-
+    text): ``(design, resolved)``, the design holding the override. Core's
+    refusals of the override say their lengths in the file's unit."""
     from wetline.core.numbers import set_figures
     from wetline.core.section_file import read_design
+    from wetline.core.units import message_in_length_unit
 
     volume_m3 = None if volume is None else _decimal(volume, "--volume")
     if level is not None:
@@ -263,6 +263,21 @@ def _load(path, level=None, volume=None, case=None):
     # The file's precision policy (report.significant_figures) for every table.
     set_figures(design.case.report.significant_figures)
     index = 0 if case is None else design.index(case)  # names the cases if unknown
+    try:
+        return _override(design, index, level, volume_m3)
+    except ValueError as exc:
+        if not type(exc).__module__.startswith("wetline.core."):
+            raise
+        # Core's lengths (metres) in the file's unit, as --level and the tables.
+        raise CommandError(message_in_length_unit(str(exc), design.case.length_unit)) from None
+
+
+def _override(design, index, level, volume_m3):
+    """``(design, resolved)``: case ``index`` of ``design`` with its fill
+    given by a --level text (the file's length unit) or a volume [m3], if
+    either is given, and resolved."""
+    from dataclasses import replace
+
     if level is not None or volume_m3 is not None:
         fill = ({"fill_level": _level_in_metres(level, design.case.length_unit),
                  "fill_volume": None} if level is not None

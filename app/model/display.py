@@ -13,19 +13,18 @@ an axisymmetric section the full revolution (kN, lbf).
 
 from __future__ import annotations
 
-import re
 from dataclasses import dataclass
 
 import numpy as np
 
 from wetline.core.force_scope import ForceScope, force_scope, resistance_quantity
-from wetline.core.numbers import format_number
 from wetline.core.section import Section
 from wetline.core.units import (
     SI_LENGTH_UNITS,
     US_LENGTH_UNITS,
     DisplayUnits,
     display_units,
+    message_in_length_unit,
     pint_factor,
 )
 
@@ -135,23 +134,9 @@ class DisplayChoice:
         """A message of core's (a refusal: lengths in metres, as core
         computes) with its lengths and points in the display length unit,
         as the window shows every other length: "at 1.85 m" reads "at
-        6.07 ft" in feet, "(0.3048, 0) m" reads "(1, 0) ft". Numbers before
-        m2, m3 or m/s2 are left as they are, and so is quoted text (a name,
-        or a text typed: "not '3 m'"); in metres the text is unchanged."""
-        if self.length_unit == "m":
-            return text
-
-        def point(match: re.Match[str]) -> str:
-            x, z = (format_number(float(self.length(float(v)))) for v in match.group(1, 2))
-            return f"({x}, {z}) {self.length_unit}"
-
-        def rewrite(part: str) -> str:
-            part = _POINT_IN_METRES.sub(point, part)
-            return _LENGTH_IN_METRES.sub(lambda m: self.fmt_length(float(m.group(1))), part)
-
-        # Quoted text (a name, or what was typed) is given as it is.
-        pieces = _QUOTED.split(text)
-        return "".join(p if k % 2 else rewrite(p) for k, p in enumerate(pieces))
+        6.07 ft" in feet, "(0.3048, 0) m" reads "(1, 0) ft"
+        (:func:`wetline.core.units.message_in_length_unit`)."""
+        return message_in_length_unit(text, self.length_unit)
 
     def explain(self, exc: BaseException) -> str:
         """What to show of the refusal ``exc``: one of core's (its lengths in
@@ -160,16 +145,6 @@ class DisplayChoice:
         text = str(exc)
         return self.message(text) if type(exc).__module__.startswith("wetline.core.") else text
 
-
-_NUMBER = r"(-?\d+(?:\.\d*)?(?:[eE][-+]?\d+)?)"
-_LENGTH_IN_METRES = re.compile(_NUMBER + r" m(?![\w/])")
-"""A length in metres as core writes one: a number, a space, "m" (not m2,
-m3, m/s2, mm)."""
-_POINT_IN_METRES = re.compile(r"\(" + _NUMBER + r", " + _NUMBER + r"\) m(?![\w/])")
-"""A point in metres as core writes one: "(x, z) m"."""
-_QUOTED = re.compile(r"""((?<!\w)'[^']*'(?!\w)|"[^"]*")""")
-"""A quoted piece of a message (a name, a text typed); an apostrophe
-inside a word ("structure's") starts none."""
 
 _UNIT_WEIGHTS = {"si": ("kN/m3", "kN/m**3"), "us": ("lbf/ft3", "lbf/ft**3")}
 """Display label and pint expression of unit weights in each system."""
