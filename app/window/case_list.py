@@ -134,7 +134,9 @@ class CasesModel(QAbstractTableModel):
         return f | Qt.ItemFlag.ItemIsEditable if index.column() == 0 else f
 
     def fill_text(self, row):
-        """The fill of case ``row`` in words (``"spill (4 m)"``, ``"3.2 m"``)."""
+        """The fill of case ``row`` in words (``"spill (4 m)"``, ``"3.2 m"``; a
+        level typed above the spill level with the level used: ``"7 m, capped at
+        4 m"``, short for the list's narrow column)."""
         doc = self._doc
         lc = doc.load_cases[row]
         resolved = doc.design.resolve(doc.case_names[row])
@@ -146,7 +148,11 @@ class CasesModel(QAbstractTableModel):
         case = resolved.case
         if case.fill_volume is not None:
             return units.fmt_volume(case.fill_volume)
-        return units.fmt_length(case.fill_level)
+        typed = units.fmt_length(case.fill_level)
+        spill = case.section.spill_level
+        if spill is not None and case.fill_level > spill:  # solved at the spill level
+            return f"{typed}, capped at {units.fmt_length(spill)}"
+        return typed
 
     def data(self, index, role=Qt.ItemDataRole.DisplayRole):
         if not index.isValid() or index.row() >= len(self._rows):

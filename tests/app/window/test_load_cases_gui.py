@@ -509,3 +509,18 @@ def test_the_envelope_of_one_case_is_told_in_the_singular(make_window, settle):
     w.set_view_mode("envelope")
     settle(w)
     assert w.canvas.shown_labels()[0] == "envelope of 1 case (design values)"
+
+
+def test_a_fill_typed_above_the_spill_level_is_listed_as_capped(well, settle):
+    """A level typed above an open section's spill level is kept as typed
+    (a later raised wall lets it stand) but solved at the spill level, as
+    the command line and the sheet say ("capped at the spill level"); the
+    list read the typed "7 m" alone, as if the well held 7 m of water."""
+    doc = well.doc
+    editing.fill_to_level(doc, 7.0)
+    settle(well)
+    assert doc.load_cases[0].fill_level == 7.0 and doc.solution.level == 4.0
+    assert _cell(well.case_list.model, 0, 1) == "7 m, capped at 4 m"
+    editing.fill_to_level(doc, 3.0)
+    settle(well)
+    assert _cell(well.case_list.model, 0, 1) == "3 m"
