@@ -36,6 +36,9 @@ __all__ = ["LoadChart"]
 CURSOR_COLOUR = LEVEL_MARK
 FLOOR_FORCE_COLOUR = FLOOR_COLOUR
 """The floor force curve's colour (the floor part's envelope marks)."""
+MARK_LABEL_FILL = pg.mkBrush(255, 255, 255, 200)
+"""The ground of an envelope mark's text: the chart's white, the curves under it
+still seen through it."""
 LEGEND_ROWS = 6
 """Entries per column of the legend right of the curves."""
 
@@ -136,8 +139,10 @@ class LoadChart(pg.PlotWidget):
                 # The text on the side with room (the view grows to the marks below).
                 right = x > 0.5 * (vx0 + vx1)
                 high = y > 0.5 * (vy0 + vy1)
-                label = pg.TextItem(text, color=colour,
+                # On a white ground: the text stays readable over the curves.
+                label = pg.TextItem(text, color=colour, fill=MARK_LABEL_FILL,
                                     anchor=(1 if right else 0, 0 if high else 1))
+                label.setZValue(21)  # over the curves and the marks
                 label.setPos(x, y)
                 plot.addItem(label, ignoreBounds=True)
                 self._mark_labels.append(label)

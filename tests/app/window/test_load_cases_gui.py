@@ -217,6 +217,12 @@ def test_the_envelope_view_shows_cores_envelope(well, settle):
     got[w.index] = np.maximum(w.pa, w.pb)
     np.testing.assert_allclose(got, ref.edge_max_pressure, rtol=1e-15, atol=0)
     assert any("floor max down" in t and "(overflow)" in t for t in well.chart.mark_texts)
+    # Each mark's text on a light ground over the curves (it was drawn
+    # straight over the roof curve and the zero line, hard to read).
+    curves = max(c.zValue() for c in well.chart._curves)
+    for label in well.chart._mark_labels:
+        assert label.zValue() > curves and label.fill.color().alpha() >= 128
+        assert label.fill.color().lightness() == 255
     well.set_view_mode("case")
     settle(well)
     assert well.chart.mark_texts == []
