@@ -275,11 +275,12 @@ def test_negative_x_in_an_axisymmetric_outline():
                  "(x is the radius)")
 
 
-def test_negative_x_in_file_units_is_reported_in_metres():
-    # The message gives metres (coordinates are converted on reading).
+def test_negative_x_in_file_units_is_reported_in_the_files_unit():
+    # Core checks the outline in metres; the file's author reads the value
+    # written in the file's unit (it said "-0.5 m" for a file in mm).
     m = refused(tank_file(geometry={"kind": "axisymmetric"}, length_unit="mm",
                           outline=[[-500, 0], [2000, 0], [2000, 3000], [0, 3000]]))
-    assert m.startswith("vertex 0 has x = -0.5 m < 0")
+    assert m.startswith("vertex 0 has x = -500 mm < 0")
 
 
 def test_fill_volume_larger_than_below_the_spill_level():
