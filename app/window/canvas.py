@@ -224,15 +224,16 @@ class SectionCanvas(CanvasView, CanvasPointer, pg.PlotWidget):
             self._outline_dirty = False
             outline, parts = self._doc.working_outline()
             self.outline_layer.draw(outline, parts, self._doc.section.is_axisymmetric)
+            live = self._doc.preview is not None  # a drag under way
             if len(outline) <= MAX_HANDLES:
-                self.handles.set_positions(outline)
+                self.handles.set_positions(outline, live)
                 self.handles.show()
             else:
                 self.handles.setData(pos=np.empty((0, 2)))
                 self.handles.hide()
             structure = self._doc.working_structure_outline()
             if structure is not None and len(structure[0]) <= MAX_HANDLES:
-                self.structure_handles.set_positions(structure[0])
+                self.structure_handles.set_positions(structure[0], live)
                 self.structure_handles.show()
             else:
                 self.structure_handles.setData(pos=np.empty((0, 2)))
@@ -286,20 +287,18 @@ class SectionCanvas(CanvasView, CanvasPointer, pg.PlotWidget):
         over them (the liquid and its diagrams change under them at every
         step) copies the pixmap instead of drawing them again. Qt draws an
         item again when it changes, and when the view zooms. While a vertex
-        is dragged its handles change at every step: they are drawn directly
-        (a pixmap made again at each step costs more) and keep a pixmap again
-        once the drag ends; the outline's runs of parts the drag leaves as
-        they are keep theirs."""
+        is dragged, the handles keep the pixmap the drag found them in: the
+        dragged handle is drawn on its own over them
+        (:meth:`VertexHandles.set_positions`); the outline's runs of parts
+        the drag leaves as they are keep theirs."""
         items = [self._grid, self.structure_handles]
         for layer in (self.outline_layer, self.structure_layer):
             for value in vars(layer).values():
                 values = value.values() if isinstance(value, dict) else (
                     value if isinstance(value, list | tuple) else (value,))
                 items += [v for v in values if isinstance(v, QGraphicsItem)]
-        dragging = self._doc.preview is not None
-        for item, cache in [(item, True) for item in items] + [(self.handles, not dragging)]:
-            cm = QGraphicsItem.CacheMode
-            mode = cm.DeviceCoordinateCache if cache else cm.NoCache
+        mode = QGraphicsItem.CacheMode.DeviceCoordinateCache
+        for item in [*items, self.handles]:
             if item.cacheMode() != mode:
                 item.setCacheMode(mode)
 

@@ -10,6 +10,9 @@ __all__ = ["PickedDrag", "VertexHandles", "MAX_HANDLES"]
 
 MAX_HANDLES = 3000
 """Above this many vertices the handles are hidden (edit in the table)."""
+LIVE_MOVES = 8
+"""Up to this many handles moved by a live drag are drawn over the others
+(:meth:`VertexHandles.set_positions`)."""
 
 
 class PickedDrag:
@@ -68,18 +71,62 @@ class VertexHandles(PickedDrag, pg.ScatterPlotItem):
                          brush=pg.mkBrush("#ffffff"), pxMode=True)
         self._pick = pick
         self.setZValue(40)
+        # The handles a live drag moves, drawn over the others: the item
+        # itself (and its pixmap) stays as the drag found it, those
+        # handles hidden in it (see set_positions).
+        self.moving = pg.ScatterPlotItem(pxMode=True)
+        """The handles being dragged (empty between drags)."""
+        self.moving.setParentItem(self)
+        self.moving.setAcceptedMouseButtons(Qt.MouseButton.NoButton)
+        self.moving.setAcceptHoverEvents(False)
+        self._hidden = np.empty(0, dtype=np.intp)
+        self._style_moving()
+
+    # The moving handles look as the others do.
+    def setSymbol(self, *args, **kwargs):
+        super().setSymbol(*args, **kwargs)
+        self._style_moving()
+
+    def setSize(self, *args, **kwargs):
+        super().setSize(*args, **kwargs)
+        self._style_moving()
+
+    def setPen(self, *args, **kwargs):
+        super().setPen(*args, **kwargs)
+        self._style_moving()
+
+    def setBrush(self, *args, **kwargs):
+        super().setBrush(*args, **kwargs)
+        self._style_moving()
+
+    def _style_moving(self):
+        moving = getattr(self, "moving", None)  # (none yet while pyqtgraph builds the item)
+        if moving is not None:
+            o = self.opts
+            moving.setSymbol(o["symbol"])
+            moving.setSize(o["size"])
+            moving.setPen(o["pen"])
+            moving.setBrush(o["brush"])
 
     def grab_at(self, x, z):
         return self._pick(x, z)
 
-    def set_positions(self, pos):
+    def set_positions(self, pos, live=False):
         """Show handles at ``pos`` ((N, 2) [m]). When only a few moved (a
         drag), they are moved in place: rebuilding a few thousand spots
-        costs milliseconds a frame."""
+        costs milliseconds a frame. ``live`` (a drag under way): the few
+        that moved are drawn by :attr:`moving` and hidden here, so this
+        item keeps its pixmap through the drag (drawing a few thousand
+        handles afresh at every step costs about a millisecond); the next
+        call that is not live puts them back."""
         pos = np.asarray(pos, dtype=np.float64)
         data = self.data
         if len(data) == len(pos) and len(pos) > 0:
             moved = np.flatnonzero((data["x"] != pos[:, 0]) | (data["y"] != pos[:, 1]))
+            if live and moved.size <= LIVE_MOVES:
+                self._show_moving(pos, moved)
+                return
+            self._end_moving()
             if moved.size == 0:
                 return
             if moved.size <= 8:
@@ -90,4 +137,22 @@ class VertexHandles(PickedDrag, pg.ScatterPlotItem):
                 self.bounds = [None, None]
                 self.invalidate()
                 return
+        self._end_moving()
         self.setData(pos=pos)
+
+    def _show_moving(self, pos, moved):
+        if not np.array_equal(moved, self._hidden):
+            self._set_hidden(moved)
+        self.moving.setData(pos=pos[moved])
+
+    def _end_moving(self):
+        if self._hidden.size:
+            self._set_hidden(np.empty(0, dtype=np.intp))
+        if len(self.moving.data):
+            self.moving.setData(pos=np.empty((0, 2)))
+
+    def _set_hidden(self, hidden):
+        visible = np.ones(len(self.data), dtype=bool)
+        visible[hidden] = False
+        self.setPointsVisible(visible)
+        self._hidden = hidden

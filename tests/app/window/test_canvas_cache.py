@@ -57,8 +57,12 @@ def test_the_canvas_shows_the_same_with_its_pixmaps(make_window, settle, sample)
 
 
 def test_a_dragged_outline_is_drawn_as_it_moves(make_window, settle):
-    """During a drag the handles are drawn directly; the canvas shows the
-    dragged outline (not an old pixmap) and, released, the edit."""
+    """During a drag the handles keep their pixmap, the dragged one drawn on
+    its own where the pointer took it; the canvas shows the dragged outline
+    (what it draws with no pixmaps) and, released, the edit, every handle
+    back in the one item."""
+    import numpy as np
+
     w = make_window()
     c = w.canvas
     handles = c.handles
@@ -67,8 +71,11 @@ def test_a_dragged_outline_is_drawn_as_it_moves(make_window, settle):
     before = _grab(c, settle, w)
     handles.dragMoved.emit(1, float(x) + 0.3, float(z))
     during = _grab(c, settle, w)
-    assert handles.cacheMode() == QGraphicsItem.NoCache
+    assert handles.cacheMode() == QGraphicsItem.DeviceCoordinateCache
     assert during != before
+    assert not handles.data["visible"][1] and handles.data["visible"].sum() == len(handles.data) - 1
+    shown = w.doc.preview.case.section.outline[1]
+    np.testing.assert_array_equal(np.column_stack(handles.moving.getData()), [shown])
     modes = _uncached(c)
     assert _grab(c, settle, w) == during
     for item, mode in modes:
@@ -76,5 +83,8 @@ def test_a_dragged_outline_is_drawn_as_it_moves(make_window, settle):
     handles.dragFinished.emit(1, float(x) + 0.3, float(z))
     after = _grab(c, settle, w)
     assert handles.cacheMode() == QGraphicsItem.DeviceCoordinateCache
+    assert handles.data["visible"].all() and len(handles.moving.data) == 0
+    np.testing.assert_array_equal(np.column_stack([handles.data["x"], handles.data["y"]]),
+                                  w.doc.section.outline)
     _uncached(c)
     assert _grab(c, settle, w) == after
