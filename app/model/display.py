@@ -58,6 +58,16 @@ class DisplayChoice:
         if self.length_unit not in LENGTH_UNITS_OF[self.system]:
             raise ValueError(f"{self.length_unit!r} is not a length unit of {self.system}")
 
+    @classmethod
+    def of_length_unit(cls, unit: str) -> DisplayChoice | None:
+        """The display of lengths in ``unit`` (a file's length unit): mm or m
+        in SI, in or ft in US units; None for a unit the display does not
+        offer (cm, yd ...)."""
+        for system, units in LENGTH_UNITS_OF.items():
+            if unit in units:
+                return cls(system, unit)
+        return None
+
     @property
     def units(self) -> DisplayUnits:
         """The :class:`wetline.core.units.DisplayUnits` with this length unit."""

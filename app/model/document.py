@@ -58,6 +58,7 @@ from wetline.core.section import Section
 from wetline.core.structure import Ground, Structure
 
 from .cases import forget_derived, restore_derived, same_design
+from .display import DisplayChoice
 from .outline_preview import (
     CAVITY,
     STRUCTURE,
@@ -325,10 +326,15 @@ class Document(ViewState, OutlinePreview, Recompute, QObject):
 
     def load(self, design: Design | Case, path: str | os.PathLike[str] | None = None,
              saved: bool | None = None) -> None:
-        """Start over on another design (a file opened, New): clears the undo
-        history and the draft; the first case is active. It counts as saved
-        if ``saved`` (default: if a ``path`` is given)."""
+        """Start over on another design (a file opened, or a recovery copy):
+        clears the undo history and the draft; the first case is active. It
+        counts as saved if ``saved`` (default: if a ``path`` is given). The
+        display shows the file's own length unit where it offers it (mm, m
+        in SI; in, ft in US units; a view, not an edit)."""
         design = as_design(design)
+        shown = DisplayChoice.of_length_unit(design.case.length_unit)
+        if shown is not None:
+            self.set_units(shown)
         self.undo_stack.clear()
         self.undo_stack.setUndoLimit(self._undo_limit)
         self._path = None if path is None else str(path)

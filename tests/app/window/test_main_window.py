@@ -398,3 +398,36 @@ def test_real_mouse_drag_moves_vertex_in_one_step(make_window, settle):
 def test_hover_outside_the_section_says_so(make_window):
     w = make_window()
     assert "outside the section" in w.canvas.describe_point(-1.0, 0.5)
+
+
+def test_a_file_opens_shown_in_its_own_length_unit(make_window, settle, sample, tmp_path):
+    """A file written in feet opens shown in feet (US units), one in mm in
+    SI mm: its author's numbers, where the window showed every file in SI
+    metres (the seawater intake's 14 ft fill read "4.2672 m"). The unit is
+    a view, not an edit: nothing to undo. A unit the display does not offer
+    (cm) leaves the display as it is."""
+    import json
+
+    from wetline.app.model.display import DisplayChoice
+
+    w = make_window()
+    assert w.open_path(str(sample("seawater_intake_bay")))
+    settle(w)
+    assert w.doc.units == DisplayChoice("us", "ft")
+    assert w.fill_panel.value.text() == "14"
+    assert w.doc.undo_stack.count() == 0 and not w.isWindowModified()
+    assert w.open_path(str(sample("cone_hopper")), ask=False)
+    settle(w)
+    assert w.doc.units == DisplayChoice("si", "m")
+    data = json.loads(sample("cone_hopper").read_text(encoding="utf-8"))
+    for unit, factor, shown in (("mm", 1000, DisplayChoice("si", "mm")),
+                                ("cm", 100, DisplayChoice("si", "mm"))):
+        data["length_unit"] = unit
+        data["outline"] = [[x * factor, z * factor] for x, z in
+                           json.loads(sample("cone_hopper").read_text())["outline"]]
+        data["fill"] = {"level": 1.5 * factor}
+        path = tmp_path / f"hopper_{unit}.section.json"
+        path.write_text(json.dumps(data), encoding="utf-8")
+        assert w.open_path(str(path), ask=False)
+        settle(w)
+        assert w.doc.units == shown

@@ -157,6 +157,9 @@ def test_us_units_and_axisymmetric_totals(make_window, settle, sample):
     assert w.doc.undo_stack.undoText() == "Lid self-weight 100 lbf/ft"
     assert w.open_path(str(sample("cone_hopper")), ask=False)
     settle(w)
+    assert w.doc.units == DisplayChoice("si", "m")  # a file opens in its own unit
+    editing.set_units(w.doc, DisplayChoice("us", "in"))
+    settle(w)
     assert "[lbf]" in panel._headers[1].text() and "/ft" not in panel._headers[1].text()
     editing.set_units(w.doc, DisplayChoice("si", "m"))
     part = w.doc.section.loaded_part_names[0]
