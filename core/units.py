@@ -371,6 +371,12 @@ class DisplayUnits:
         shown = format_number(self.to_display(value_si, quantity), digits)
         return f"{shown} {self.label(quantity)}"
 
+    def message(self, text: str) -> str:
+        """A message of core's (a refusal or a warning, lengths in metres)
+        with its lengths in this system's length unit, as its tables show
+        them (:func:`message_in_length_unit`)."""
+        return message_in_length_unit(text, self.length.label)
+
     def with_length(self, unit: str) -> DisplayUnits:
         """A copy showing lengths in `unit` (see :func:`length_display`)."""
         return dataclasses.replace(self, length=length_display(unit))

@@ -389,7 +389,7 @@ def _structure_lines(loads, u, scope):
                      f"(floor edge {top.index}, groundwater {u.text(top.p_groundwater, 'pressure')}"
                      f" less liquid {u.text(top.p_liquid, 'pressure')})")
     for w in loads.warnings:
-        lines.append(f"  warning: {w}")
+        lines.append(f"  warning: {u.message(w)}")
     return lines
 
 
@@ -448,7 +448,7 @@ def solve_text(solved, units_name="si", names=()):
     if solved.structure is not None:
         lines += _structure_lines(solved.structure, u, scope) + [""]
     if sol.warnings:
-        lines += ["Warnings"] + [f"  - {w}" for w in sol.warnings] + [""]
+        lines += ["Warnings"] + [f"  - {u.message(w)}" for w in sol.warnings] + [""]
     lines.append(f"Caution: {CAUTION}")
     if solved.structure is not None:
         lines.append(f"Caution: {EARTH_PRESSURE_CAUTION}")
@@ -511,7 +511,7 @@ def cases_text(design, solved, units_name="si"):
         lines.append("")
     warned = [(s.name, w) for s in solved for w in s.warnings]
     if warned:
-        lines += ["Warnings"] + [f"  - {name}: {w}" for name, w in warned] + [""]
+        lines += ["Warnings"] + [f"  - {name}: {u.message(w)}" for name, w in warned] + [""]
     lines.append(f"Caution: {CAUTION}")
     if design.structure is not None:
         lines.append(f"Caution: {EARTH_PRESSURE_CAUTION}")

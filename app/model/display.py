@@ -24,7 +24,6 @@ from wetline.core.units import (
     US_LENGTH_UNITS,
     DisplayUnits,
     display_units,
-    message_in_length_unit,
     pint_factor,
 )
 
@@ -145,8 +144,8 @@ class DisplayChoice:
         computes) with its lengths and points in the display length unit,
         as the window shows every other length: "at 1.85 m" reads "at
         6.07 ft" in feet, "(0.3048, 0) m" reads "(1, 0) ft"
-        (:func:`wetline.core.units.message_in_length_unit`)."""
-        return message_in_length_unit(text, self.length_unit)
+        (:meth:`wetline.core.units.DisplayUnits.message`)."""
+        return self.units.message(text)
 
     def explain(self, exc: BaseException) -> str:
         """What to show of the refusal ``exc``: one of core's (its lengths in

@@ -356,11 +356,13 @@ class _Sheet(SheetInputs, SheetResults):
         sol = self.sol
         out = ["<h2>4 Warnings, assumptions and cautions</h2>", "<h3>Warnings</h3>"]
         if self.multi:
-            items = [f"case {sc.name}: {w}" for sc in self.solved for w in sc.warnings]
+            items = [f"case {sc.name}: {self.du.message(w)}" for sc in self.solved
+                     for w in sc.warnings]
             out.append("<ul>" + "".join(f"<li>{escape(w)}</li>" for w in items) + "</ul>" if items
                        else "<p>None in any case.</p>")
         elif sol.warnings:
-            out.append("<ul>" + "".join(f"<li>{escape(w)}</li>" for w in sol.warnings) + "</ul>")
+            out.append("<ul>" + "".join(f"<li>{escape(self.du.message(w))}</li>"
+                                        for w in sol.warnings) + "</ul>")
         else:
             out.append("<p>None at this level.</p>")
         out.append("<h3>Assumptions</h3><ul>"

@@ -37,3 +37,18 @@ def test_a_file_is_refused_in_its_unit(tmp_path, sample, capsys):
         err = capsys.readouterr().err
         assert err.count("\n") == 1
         assert "groundwater level 5 ft is above the spill level 2 ft" in err
+
+
+def test_warnings_are_written_in_the_tables_units(tmp_path, sample, capsys):
+    """A level above the spill level is capped with a warning; in US units
+    it read "level 7.62 m is above the spill level 5.4864 m" under tables
+    in feet (the seawater intake bay, a file in feet, filled to 25 ft)."""
+    data = json.loads(sample("seawater_intake_bay").read_text(encoding="utf-8"))
+    data["fill"] = {"level": 25}
+    path = tmp_path / "intake.section.json"
+    path.write_text(json.dumps(data), encoding="utf-8")
+    assert main(["solve", str(path), "--units", "us"]) == 0
+    out = capsys.readouterr().out
+    assert "level 25 ft is above the spill level 18 ft; capped at the spill level" in out
+    assert main(["solve", str(path)]) == 0  # SI: metres, as its tables
+    assert "level 7.62 m is above the spill level 5.4864 m" in capsys.readouterr().out

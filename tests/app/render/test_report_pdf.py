@@ -250,3 +250,14 @@ def test_the_outline_table_echoes_the_coordinates_as_entered(qapp):
     # the fill level typed is echoed as typed too; the level used is a result
     text = " ".join(pages_text(report_pdf_bytes(case.with_level(1.23456), date=DATE))[0])
     assert "Requested level 1.23456 m" in text and "Level used 1.235 m" in text
+
+
+def test_the_sheets_warnings_are_in_its_units(sample):
+    """The seawater intake bay (a file in feet) filled to 25 ft is capped at
+    its 18 ft spill level; the US sheet's warning read "level 7.62 m is
+    above the spill level 5.4864 m" under tables in feet."""
+    from wetline.core.section_file import read_section_file
+
+    case = read_section_file(sample("seawater_intake_bay")).with_level(7.62)
+    text = " ".join(pages_text(report_pdf_bytes(case, units="us", date=DATE))[0])
+    assert "level 25 ft is above the spill level 18 ft; capped at the spill level" in text
