@@ -303,11 +303,14 @@ class FillPanel(QGroupBox):
             sol.level if sol is not None else case.level)
 
     def _write_back(self):
+        """The box shows the document's fill. A text it replaces was refused
+        (the fill moved by other means since): its refusal goes with it."""
         doc = self._doc
         units = doc.units
         mode = self.mode.currentIndex()
         sol = doc.solution
         case = doc.case
+        typed = self.value.text()
         self.value.blockSignals(True)
         if mode == 0:
             self.unit.setText(units.length_unit)
@@ -328,6 +331,8 @@ class FillPanel(QGroupBox):
             if vol is not None:
                 self._set_slider(self._slider_fraction_of(volume=vol))
         self.value.blockSignals(False)
+        if self.value.text() != typed and self.error.text():
+            _show(self.error, "")
         self._write_range(doc.section)
 
     def _write_range(self, section):

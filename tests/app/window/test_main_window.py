@@ -7,6 +7,7 @@ from PySide6.QtCore import Qt
 
 from wetline.app.model import editing
 from wetline.app.window import dialogs
+from wetline.core.numbers import format_number
 from wetline.core.section_file import read_design, read_section_file
 
 
@@ -221,6 +222,25 @@ def test_bad_typed_values_are_refused_with_a_message(make_window, settle):
     lp.gravity.editingFinished.emit()
     assert "not a number" in lp.error.text()
     assert w.doc.case == before
+
+
+def test_a_refusal_goes_with_the_text_it_refused(make_window, settle):
+    """A refused text stays in the box to be mended, its reason under it;
+    once the fill moves by other means (the slider, a drag) the box shows
+    the new fill and the reason goes with the refused text (it stayed,
+    under a box that no longer held that text; seen under Xvfb)."""
+    w = make_window()
+    fp = w.fill_panel
+    fp.value.setText("1,5 ft")
+    fp.value.editingFinished.emit()
+    assert "not a number" in fp.error.text() and fp.value.text() == "1,5 ft"
+    settle(w)
+    assert "not a number" in fp.error.text()  # a solve of the same fill keeps both
+    x, z = w.doc.section.outline[1]
+    editing.move_vertex(w.doc, 1, x + 0.1, z)  # the section changes: the box is written
+    settle(w)
+    assert fp.value.text() == format_number(w.doc.units.length(w.doc.case.fill_level), 5)
+    assert fp.error.text() == "" and not fp.error.isVisibleTo(w)
 
 
 def test_seawater_and_percent_fill(make_window, settle):
