@@ -25,13 +25,14 @@ from PySide6.QtCore import Qt
 from wetline.app.model import editing
 from wetline.app.model.step_timer import span
 from wetline.app.render.style import FLOOR_COLOUR, LEVEL_MARK, LEVEL_SERIES, part_colours
+from wetline.app.window.canvas_items import LineItem, add_item
 from wetline.app.window.grid import LightGrid
 from wetline.app.window.level_cursor import LevelCursor
 from wetline.app.window.outer_legend import legend_outside
 from wetline.app.window.view_range import smallest_span, usable_range
 from wetline.core.section import FLOOR
 
-__all__ = ["LoadChart"]
+__all__ = ["LoadChart", "LevelCurve"]
 
 CURSOR_COLOUR = LEVEL_MARK
 FLOOR_FORCE_COLOUR = FLOOR_COLOUR
@@ -41,6 +42,21 @@ MARK_LABEL_FILL = pg.mkBrush(255, 255, 255, 200)
 still seen through it."""
 LEGEND_ROWS = 6
 """Entries per column of the legend right of the curves."""
+
+
+class LevelCurve(LineItem):
+    """One curve of the chart: a line Qt paints itself
+    (:class:`wetline.app.window.canvas_items.LineItem`; a pyqtgraph data
+    item works through its data in Python at every step of a drag, where
+    the curves follow the dragged outline), with its name in the legend."""
+
+    def __init__(self, name, pen):
+        super().__init__(pen)
+        self._name = name
+
+    def name(self):
+        """The curve's name in the legend."""
+        return self._name
 
 
 class LoadChart(pg.PlotWidget):
@@ -194,11 +210,15 @@ class LoadChart(pg.PlotWidget):
         if key != self._series_key:
             # Other parts: new curves and legend. Otherwise (a slider, a
             # dragged vertex) the same curves take the new values.
+            vb = plot.getViewBox()
             for c in self._curves:
                 self._legend.removeItem(c)
-                plot.removeItem(c)
-            self._curves = [plot.plot(name=name, pen=pg.mkPen(colour, width=2, style=style))
+                vb.removeItem(c)
+            self._curves = [LevelCurve(name, pg.mkPen(colour, width=2, style=style))
                             for _, name, colour, style in series]
+            for c in self._curves:
+                add_item(vb, c, 0)
+                self._legend.addItem(c, c.name())
             # One column of up to six entries beside the curves, then more columns.
             self._legend.fit_columns(math.ceil(len(series) / LEGEND_ROWS))
             self._series_key = key
