@@ -41,6 +41,7 @@ from PySide6.QtWidgets import QGraphicsItem
 from wetline.app.model.step_timer import span
 from wetline.app.render.geometry import auto_scale
 from wetline.app.window.canvas_editing import RESERVED_PART_CHOICES, OutlineEditor
+from wetline.app.window.canvas_items import SymbolItem
 from wetline.app.window.canvas_labels import CanvasLabels
 from wetline.app.window.canvas_pointer import CanvasPointer
 from wetline.app.window.canvas_view import CanvasView
@@ -296,7 +297,9 @@ class SectionCanvas(CanvasView, CanvasPointer, pg.PlotWidget):
             for value in vars(layer).values():
                 values = value.values() if isinstance(value, dict) else (
                     value if isinstance(value, list | tuple) else (value,))
-                items += [v for v in values if isinstance(v, QGraphicsItem)]
+                # (A symbol item is a few pixels, drawn afresh.)
+                items += [v for v in values
+                          if isinstance(v, QGraphicsItem) and not isinstance(v, SymbolItem)]
         mode = QGraphicsItem.CacheMode.DeviceCoordinateCache
         for item in [*items, self.handles]:
             if item.cacheMode() != mode:

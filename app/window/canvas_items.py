@@ -12,11 +12,13 @@ from __future__ import annotations
 import numpy as np
 import pyqtgraph as pg
 from pyqtgraph import functions as pg_functions
+from pyqtgraph.graphicsItems.ScatterPlotItem import Symbols
 from PySide6.QtCore import Qt
-from PySide6.QtGui import QBrush, QColor, QPainterPath, QPen
+from PySide6.QtGui import QBrush, QColor, QPainter, QPainterPath, QPen, QTransform
 from PySide6.QtWidgets import QGraphicsItem, QGraphicsPathItem
 
-__all__ = ["MAX_POLYGONS", "UPDATE_MARGIN_PX", "LineItem", "cosmetic_pen", "line_curve",
+__all__ = ["MAX_POLYGONS", "UPDATE_MARGIN_PX", "LineItem", "SymbolItem", "cosmetic_pen",
+           "line_curve",
            "path_of", "rings_path", "edge_segments", "pairs_curve",
            "filled_path_item", "add_item", "FilledPathItem"]
 
@@ -214,3 +216,56 @@ class LineItem(FilledPathItem):
     def getData(self):
         """The points drawn, (x, z) [m]."""
         return self.xData, self.yData
+
+
+class SymbolItem(QGraphicsPathItem):
+    """One marker at a point of the view: a pyqtgraph symbol ("o", "s" ...
+    or a path) of a size in pixels whatever the zoom, with a pen and a
+    brush, antialiased as pyqtgraph draws its symbols (the same pixels).
+    For a marker that moves at every step of a drag (the selected vertex,
+    the dragged handles): a pyqtgraph scatter item of one point costs about
+    0.4 ms a frame to paint, this some microseconds."""
+
+    def __init__(self, symbol="o", size=9.0, pen=None, brush=None, parent=None):
+        super().__init__(parent)
+        self.setFlag(QGraphicsItem.GraphicsItemFlag.ItemIgnoresTransformations)
+        self.setAcceptedMouseButtons(Qt.MouseButton.NoButton)
+        self._style = None
+        self.set_style(symbol, size, pen, brush)
+        self.hide()
+
+    def set_style(self, symbol, size, pen, brush):
+        """Draw ``symbol`` of ``size`` [px] with ``pen`` and ``brush``
+        (anything ``pyqtgraph.mkPen`` and ``mkBrush`` take)."""
+        style = (symbol, size, pen, brush)
+        if style == self._style:
+            return
+        self._style = style
+        path = Symbols[symbol] if isinstance(symbol, str) else symbol
+        self.setPath(QTransform.fromScale(size, size).map(path))
+        self.setPen(pg.mkPen(pen))
+        self.setBrush(pg.mkBrush(brush))
+
+    def show_at(self, xz):
+        """Show the marker at ``xz`` [m], or hide it (None)."""
+        if xz is None:
+            if self.isVisible():
+                self.hide()
+            return
+        self.setPos(float(xz[0]), float(xz[1]))
+        if not self.isVisible():
+            self.show()
+
+    def point(self):
+        """Where the marker is shown (x, z) [m], or None (hidden)."""
+        return (self.pos().x(), self.pos().y()) if self.isVisible() else None
+
+    def setCacheMode(self, mode, size=None):
+        if mode != QGraphicsItem.CacheMode.NoCache:
+            # A device-pixel cache would draw it whole pixels off its point.
+            raise ValueError("a SymbolItem is drawn afresh: it is a few pixels")
+        super().setCacheMode(mode)
+
+    def paint(self, painter, option, widget=None):
+        painter.setRenderHint(QPainter.RenderHint.Antialiasing, True)
+        super().paint(painter, option, widget)

@@ -16,7 +16,13 @@ from PySide6.QtCore import Qt
 from PySide6.QtGui import QColor
 
 from wetline.app.render.style import MUTED, part_colours
-from wetline.app.window.canvas_items import add_item, cosmetic_pen, edge_segments, pairs_curve
+from wetline.app.window.canvas_items import (
+    SymbolItem,
+    add_item,
+    cosmetic_pen,
+    edge_segments,
+    pairs_curve,
+)
 from wetline.app.window.outer_legend import legend_outside
 from wetline.core.section import AXIS, OPEN
 
@@ -43,13 +49,13 @@ class OutlineLayer:
         # Above the view, outside the drawing (never over the outline).
         self._legend = legend_outside(plot, "top", label_size="9pt")
         self.highlight = pairs_curve(vb, pg.mkPen(HIGHLIGHT_COLOUR, width=7), 8)
-        self.selected = add_item(vb, pg.ScatterPlotItem(
-            size=13, pen=pg.mkPen("#000000", width=2), brush=pg.mkBrush(HIGHLIGHT_COLOUR)), 41)
+        self.selected = add_item(vb, SymbolItem("o", 13, pg.mkPen("#000000", width=2),
+                                                pg.mkBrush(HIGHLIGHT_COLOUR)), 41)
         self.draft_curve = add_item(vb, pg.PlotCurveItem(
             pen=pg.mkPen(FAULT_COLOUR, width=2, style=Qt.PenStyle.DashLine)), 20)
         self.fault = add_item(vb, pg.ScatterPlotItem(
             size=16, symbol="x", pen=pg.mkPen(FAULT_COLOUR, width=2),
-            brush=pg.mkBrush(FAULT_COLOUR)), 50)
+            brush=pg.mkBrush(FAULT_COLOUR)), 50, visible=False)
         self.fault_text = add_item(vb, pg.TextItem(color=FAULT_COLOUR, anchor=(0, 1),
                                                    fill=pg.mkBrush(255, 255, 255, 220)), 60,
                                    visible=False)
@@ -156,15 +162,21 @@ class OutlineLayer:
         ``fault`` is (outline [m], SectionError) or None; ``explain`` gives
         the error's words (the display's, in its length unit)."""
         if fault is None:
-            self.draft_curve.setData([], [])
-            self.fault.setData([], [])
-            self.fault_text.hide()
+            # Cleared once, then left alone: a drag redraws the outline at
+            # every step, and an empty scatter item still costs about 0.2 ms
+            # a frame to paint (hidden, nothing).
+            if self.fault.isVisible():
+                self.draft_curve.setData([], [])
+                self.fault.setData([], [])
+                self.fault.hide()
+                self.fault_text.hide()
             return
         outline, error = fault
         pts = np.vstack([outline, outline[:1]])
         self.draft_curve.setData(pts[:, 0], pts[:, 1])
         where = fault_location(outline, error)
         self.fault.setData([where[0]], [where[1]])
+        self.fault.show()
         self.fault_text.setText(explain(error))
         self.fault_text.setPos(where[0], where[1])
         self.fault_text.show()
@@ -175,10 +187,8 @@ class OutlineLayer:
             self.highlight.setData(*edge_segments(outline, np.array([edge])))
         else:
             self.highlight.setData([], [])
-        if vertex is not None and vertex < len(outline):
-            self.selected.setData(pos=outline[vertex:vertex + 1])
-        else:
-            self.selected.setData(pos=np.empty((0, 2)))
+        self.selected.show_at(outline[vertex] if vertex is not None and vertex < len(outline)
+                              else None)
 
     def show_sketch(self, points):
         """The outline being drawn: (N, 2) points [m], or none."""

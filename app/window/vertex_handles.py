@@ -6,6 +6,8 @@ import numpy as np
 import pyqtgraph as pg
 from PySide6.QtCore import Qt, Signal
 
+from wetline.app.window.canvas_items import SymbolItem
+
 __all__ = ["PickedDrag", "VertexHandles", "MAX_HANDLES"]
 
 MAX_HANDLES = 3000
@@ -74,51 +76,26 @@ class VertexHandles(PickedDrag, pg.ScatterPlotItem):
         # The handles a live drag moves, drawn over the others: the item
         # itself (and its pixmap) stays as the drag found it, those
         # handles hidden in it (see set_positions).
-        self.moving = pg.ScatterPlotItem(pxMode=True)
-        """The handles being dragged (empty between drags)."""
-        self.moving.setParentItem(self)
-        self.moving.setAcceptedMouseButtons(Qt.MouseButton.NoButton)
-        self.moving.setAcceptHoverEvents(False)
+        self._moving = [SymbolItem(parent=self) for _ in range(LIVE_MOVES)]
         self._hidden = np.empty(0, dtype=np.intp)
-        self._style_moving()
-
-    # The moving handles look as the others do.
-    def setSymbol(self, *args, **kwargs):
-        super().setSymbol(*args, **kwargs)
-        self._style_moving()
-
-    def setSize(self, *args, **kwargs):
-        super().setSize(*args, **kwargs)
-        self._style_moving()
-
-    def setPen(self, *args, **kwargs):
-        super().setPen(*args, **kwargs)
-        self._style_moving()
-
-    def setBrush(self, *args, **kwargs):
-        super().setBrush(*args, **kwargs)
-        self._style_moving()
-
-    def _style_moving(self):
-        moving = getattr(self, "moving", None)  # (none yet while pyqtgraph builds the item)
-        if moving is not None:
-            o = self.opts
-            moving.setSymbol(o["symbol"])
-            moving.setSize(o["size"])
-            moving.setPen(o["pen"])
-            moving.setBrush(o["brush"])
 
     def grab_at(self, x, z):
         return self._pick(x, z)
+
+    def moving_points(self):
+        """Where the handles a live drag moves are drawn ((K, 2) [m]; none
+        between drags)."""
+        shown = [h.point() for h in self._moving if h.isVisible()]
+        return np.array(shown, dtype=np.float64).reshape(-1, 2)
 
     def set_positions(self, pos, live=False):
         """Show handles at ``pos`` ((N, 2) [m]). When only a few moved (a
         drag), they are moved in place: rebuilding a few thousand spots
         costs milliseconds a frame. ``live`` (a drag under way): the few
-        that moved are drawn by :attr:`moving` and hidden here, so this
-        item keeps its pixmap through the drag (drawing a few thousand
-        handles afresh at every step costs about a millisecond); the next
-        call that is not live puts them back."""
+        that moved are drawn on their own (:meth:`moving_points`) and
+        hidden here, so this item keeps its pixmap through the drag
+        (drawing a few thousand handles afresh at every step costs about a
+        millisecond); the next call that is not live puts them back."""
         pos = np.asarray(pos, dtype=np.float64)
         data = self.data
         if len(data) == len(pos) and len(pos) > 0:
@@ -143,13 +120,17 @@ class VertexHandles(PickedDrag, pg.ScatterPlotItem):
     def _show_moving(self, pos, moved):
         if not np.array_equal(moved, self._hidden):
             self._set_hidden(moved)
-        self.moving.setData(pos=pos[moved])
+        o = self.opts
+        for k, handle in enumerate(self._moving):
+            if k < moved.size:
+                handle.set_style(o["symbol"], o["size"], o["pen"], o["brush"])
+            handle.show_at(pos[moved[k]] if k < moved.size else None)
 
     def _end_moving(self):
         if self._hidden.size:
             self._set_hidden(np.empty(0, dtype=np.intp))
-        if len(self.moving.data):
-            self.moving.setData(pos=np.empty((0, 2)))
+        for handle in self._moving:
+            handle.show_at(None)
 
     def _set_hidden(self, hidden):
         visible = np.ones(len(self.data), dtype=bool)

@@ -75,7 +75,7 @@ def test_a_dragged_outline_is_drawn_as_it_moves(make_window, settle):
     assert during != before
     assert not handles.data["visible"][1] and handles.data["visible"].sum() == len(handles.data) - 1
     shown = w.doc.preview.case.section.outline[1]
-    np.testing.assert_array_equal(np.column_stack(handles.moving.getData()), [shown])
+    np.testing.assert_array_equal(handles.moving_points(), [shown])
     modes = _uncached(c)
     assert _grab(c, settle, w) == during
     for item, mode in modes:
@@ -83,7 +83,7 @@ def test_a_dragged_outline_is_drawn_as_it_moves(make_window, settle):
     handles.dragFinished.emit(1, float(x) + 0.3, float(z))
     after = _grab(c, settle, w)
     assert handles.cacheMode() == QGraphicsItem.DeviceCoordinateCache
-    assert handles.data["visible"].all() and len(handles.moving.data) == 0
+    assert handles.data["visible"].all() and handles.moving_points().shape == (0, 2)
     np.testing.assert_array_equal(np.column_stack([handles.data["x"], handles.data["y"]]),
                                   w.doc.section.outline)
     _uncached(c)
