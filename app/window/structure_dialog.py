@@ -160,6 +160,16 @@ class StructureDialog(QDialog):
         self.has_ground.toggled.connect(self._on_ground_toggled)
         self._on_rebuild_toggled(self.rebuild.isChecked())
         self._on_ground_toggled(self.has_ground.isChecked())
+        # A refusal is of what OK read: it goes once a field is typed again.
+        for edit in self.findChildren(QLineEdit):
+            edit.textEdited.connect(self._forget_refusal)
+        for box in (self.rebuild, self.has_ground):
+            box.toggled.connect(self._forget_refusal)
+
+    def _forget_refusal(self, *_):
+        if self.error.isVisible() or self.error.text():
+            self.error.setText("")
+            self.error.hide()
 
     def _on_rebuild_toggled(self, on):
         for edit in (self.base, self.wall, self.roof):

@@ -101,10 +101,17 @@ class TemplateDialog(QDialog):
             self.fields[d.key] = edit
             self.form.addRow(f"{d.label} [{L}]", edit)
         self.width_field = QLineEdit(format_number(self._units.length(1.0), 6))
+        # A refusal is of the texts OK read: it goes once one is typed again.
+        for edit in (self.name_field, self.width_field, *self.fields.values()):
+            edit.textEdited.connect(self._forget_refusal)
         if t.kind == "plane":
             self.form.addRow(f"Width out of the drawing [{L}]", self.width_field)
         self.error.setText("")
         self._update_sketch()
+
+    def _forget_refusal(self, *_):
+        if self.error.text():
+            self.error.setText("")
 
     def _update_sketch(self, *_):
         """The sketch at the dimensions typed (the last good one while a

@@ -284,6 +284,14 @@ def test_the_dialog_itself_reads_its_fields(qtbot, buried_wet_well):
     dlg.base.setText("-1")
     with pytest.raises(ValueError, match="Base thickness must be positive"):
         dlg.read_choice()
+    # OK refuses it under the fields; the refusal goes once the field is
+    # typed again (it stayed under a mended field).
+    dlg.show()
+    dlg._on_ok()
+    assert "Base thickness must be positive" in dlg.error.text() and dlg.error.isVisible()
+    dlg.base.selectAll()
+    qtbot.keyClicks(dlg.base, "300")
+    assert dlg.error.text() == "" and not dlg.error.isVisible()
 
 
 def test_removing_the_structure_from_the_dialog(well, monkeypatch, settle):

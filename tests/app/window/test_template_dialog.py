@@ -56,3 +56,25 @@ def test_the_sketch_follows_the_typed_dimensions_in_the_display_unit(qtbot):
     dlg.fields["shaft_width"].textEdited.emit("x")
     dlg.sketch.repaint()
     assert "Access shaft width 5 ft" in dlg.sketch.texts  # the last good sketch stays
+
+
+def test_a_refusal_goes_when_its_field_is_typed_again(qtbot):
+    """OK with a width of -3 is refused under the fields; typing a good width
+    sketches it and takes the refusal away (it stayed under a width of 4
+    and the new sketch; seen under Xvfb, keys typed into the dialog)."""
+    from PySide6.QtCore import Qt
+
+    dlg = TemplateDialog(DisplayChoice("si", "m"))
+    qtbot.addWidget(dlg)
+    dlg.select("open_tank")
+    dlg.show()
+    qtbot.waitExposed(dlg)
+    width = next(iter(dlg.fields.values()))
+    width.selectAll()
+    qtbot.keyClicks(width, "-3")
+    dlg.accept()
+    assert "must be positive, not -3" in dlg.error.text() and dlg.isVisible()
+    width.selectAll()
+    qtbot.keyClicks(width, "4")
+    qtbot.keyClick(width, Qt.Key.Key_Tab)
+    assert dlg.error.text() == ""
