@@ -18,8 +18,7 @@ from PySide6.QtGui import QBrush, QColor, QPainter, QPainterPath, QPen, QTransfo
 from PySide6.QtWidgets import QGraphicsItem, QGraphicsPathItem
 
 __all__ = ["MAX_POLYGONS", "UPDATE_MARGIN_PX", "LineItem", "SymbolItem", "cosmetic_pen",
-           "line_curve",
-           "path_of", "rings_path", "edge_segments", "pairs_curve",
+           "line_curve", "path_of", "rings_path", "edge_segments", "pairs_curve",
            "filled_path_item", "add_item", "FilledPathItem"]
 
 
@@ -262,7 +261,7 @@ class SymbolItem(QGraphicsPathItem):
 
     def setCacheMode(self, mode, size=None):
         if mode != QGraphicsItem.CacheMode.NoCache:
-            # A device-pixel cache would draw it whole pixels off its point.
+            # A device-pixel cache would draw it up to a pixel off its point.
             raise ValueError("a SymbolItem is drawn afresh: it is a few pixels")
         super().setCacheMode(mode)
 
