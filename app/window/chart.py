@@ -40,6 +40,9 @@ FLOOR_FORCE_COLOUR = FLOOR_COLOUR
 MARK_LABEL_FILL = pg.mkBrush(255, 255, 255, 200)
 """The ground of an envelope mark's text: the chart's white, the curves under it
 still seen through it."""
+MARK_LABEL_Z = 14
+"""Depth of an envelope mark's text: over the curves (0), under the cursor
+(15) and the marks (20)."""
 LEGEND_ROWS = 6
 """Entries per column of the legend right of the curves."""
 
@@ -160,7 +163,8 @@ class LoadChart(pg.PlotWidget):
                 # On a white ground: the text stays readable over the curves.
                 label = pg.TextItem(text, color=colour, fill=MARK_LABEL_FILL,
                                     anchor=(1 if right else 0, 0 if high else 1))
-                label.setZValue(21)  # over the curves and the marks
+                # Over the curves, under the marks and the cursor with its value.
+                label.setZValue(MARK_LABEL_Z)
                 label.setPos(x, y)
                 plot.addItem(label, ignoreBounds=True)
                 self._mark_labels.append(label)

@@ -222,6 +222,8 @@ def test_the_envelope_view_shows_cores_envelope(well, settle):
     curves = max(c.zValue() for c in well.chart._curves)
     for label in well.chart._mark_labels:
         assert label.zValue() > curves and label.fill.color().alpha() >= 128
+        # ... and under the cursor, whose value it hid at the spill level.
+        assert label.zValue() < well.chart.cursor.zValue()
         assert label.fill.color().lightness() == 255
     well.set_view_mode("case")
     settle(well)
