@@ -431,15 +431,23 @@ class LoadMark:
         """True if the force points up (more than round-off of ``biggest`` [N])."""
         return self.fz > 1e-9 * biggest
 
-    def text(self, value, biggest):
+    def text(self, value, biggest, upward=None):
         """The label for people with the force written ``value`` ("72.35
         kN/m"): ``floor: 131.8 kN/m`` for a part loaded on one run,
         ``roof: total uplift 35.69 kN/m`` for the total of a part loaded on
-        several runs, ``edge 2: uplift 17.85 kN/m`` for one of its runs."""
-        up = "uplift " if self.is_uplift(biggest) else ""
+        several runs, ``edge 2: uplift 17.85 kN/m`` for one of its runs.
+
+        ``upward``: the force's upward part ``fz``, written as ``value`` is.
+        A force that lifts is labelled with its uplift, that upward part
+        (what a hold-down resists; the parts table's Fz): ``lip: uplift
+        4.902 kN/m`` for the lip of a chamber pushed up and sideways by a
+        resultant of 12.07 kN/m, whose arrow shows its slant. Without
+        ``upward`` the resultant's size is written."""
+        up = self.is_uplift(biggest)
+        shown = f"uplift {upward if upward is not None else value}" if up else value
         if self.total:
-            return f"{self.part}: {'' if self.arrow else 'total '}{up}{value}"
-        return f"{edges_words(self.edges)}: {up}{value}"
+            return f"{self.part}: {'' if self.arrow else 'total '}{shown}"
+        return f"{edges_words(self.edges)}: {shown}"
 
 
 def edges_words(edges):

@@ -146,7 +146,7 @@ def draw_resultant_arrows(p, view):
         mag = m.magnitude
         up = m.is_uplift(biggest)
         value = sc.force(mag)
-        text = m.text(value, biggest)
+        text = m.text(value, biggest, sc.force(m.fz))
         if not m.arrow:
             if mag > 1e-9 * biggest:
                 totals.append((text, UPLIFT if up else LOAD, m))

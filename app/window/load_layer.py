@@ -319,7 +319,8 @@ class LoadLayer:
         totals, pieces, cancelled = [], [], []
         for m in marks[:MAX_RESULTANT_LABELS]:
             up = m.is_uplift(biggest)
-            text = m.text(scope.text(m.magnitude, scale=biggest), biggest)
+            text = m.text(scope.text(m.magnitude, scale=biggest), biggest,
+                          scope.text(m.fz, scale=biggest))
             if m.total:
                 colour = UPLIFT_COLOUR if up else LOAD
             else:

@@ -8,6 +8,7 @@ case that showed the faults: its two roof labels overlapped each other and
 the riser arrows, and a wall label ran past the canvas edge."""
 
 import itertools
+import math
 
 import pytest
 
@@ -130,3 +131,30 @@ def test_labels_keep_off_the_structure_handles(make_window, settle, sample, name
         inside = ((handles[:, 0] > x0 - 4) & (handles[:, 0] < x1 + 4)
                   & (handles[:, 1] > y0 - 4) & (handles[:, 1] < y1 + 4))
         assert not inside.any(), (x0, y0, x1, y1)
+
+
+def test_a_slanted_lift_is_labelled_with_its_uplift(make_window, settle, sample):
+    """The chamber's lip (a ledge and its downstand) is pushed up and
+    sideways: its resultant is inclined. Its label read "lip: uplift 12.07
+    kN/m", the resultant's size, where the uplift (its upward part, the
+    parts table's Fz) is 4.902 kN/m. The label now names the uplift, the
+    number a hold-down must resist (common practice); its arrow shows the
+    slant."""
+    from wetline.core.section_file import read_design
+
+    w = make_window(read_design(sample("chamber_with_lip")))
+    w.resize(1500, 940)
+    settle(w)
+    sol = w.doc.solution
+    scope = w.doc.force_scope(sol.section)
+    lip = sol.parts["lip"]
+    assert abs(lip.fx) > 0.5 * lip.fz > 0  # inclined, lifting
+    assert scope.text(math.hypot(lip.fx, lip.fz)) != scope.text(lip.fz)
+    shown = [t for t in w.canvas.shown_labels() if t.startswith("lip:")]
+    assert shown == [f"lip: uplift {scope.text(lip.fz)}"], shown
+    # The parts table says the same.
+    parts = w.parts_table.model()
+    row = [parts.data(parts.index(r, 0)) for r in range(parts.rowCount())].index("lip")
+    assert parts.data(parts.index(row, 2)) == scope.number(lip.fz)
+    # A vertical lift: its size and its uplift are one number.
+    assert f"roof: uplift {scope.text(sol.parts['roof'].fz)}" in w.canvas.shown_labels()
