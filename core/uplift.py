@@ -260,7 +260,8 @@ def _is_one_liquid(solution: Solution) -> bool:
     return law is None or (law.n_layers == 1 and law.gas_pressure == 0.0)
 
 
-def worst_uplifts_for(solution: Solution, parts: Iterable[str], *, refine: bool = True
+def worst_uplifts_for(solution: Solution, parts: Iterable[str], *, refine: bool = True,
+                      trapped_samples: Samples | None = None
                       ) -> dict[str, tuple[float, float, str]]:
     """The worst level of each part for the pressure law and pocket
     assumption of ``solution``, ``{part: (level [m], uplift [N], pockets)}``.
@@ -285,6 +286,13 @@ def worst_uplifts_for(solution: Solution, parts: Iterable[str], *, refine: bool 
         no refinement (about 1/8 of the work; the uplift found is then a
         lower bound on the worst, exact at the level it names). For a live
         preview, never for a result.
+    trapped_samples : (levels, part_down), optional
+        With ``refine=False``: levels [m] and each part's downward load at
+        them [N] (negative: lifted) with the air trapped, under this
+        solution's law, as :func:`wetline.core.level_table.law_level_table`
+        gives them (the chart's table of a live preview): the samples, in
+        place of the 12 levels solved (the lips are still solved). Levels
+        outside the range searched are left out.
 
     Returns
     -------
@@ -302,7 +310,8 @@ def worst_uplifts_for(solution: Solution, parts: Iterable[str], *, refine: bool 
     else:
         out = _worst_vented_law(solution, parts)
     if solution.pocket_mode == TRAPPED and section.pocket_tree.may_trap and parts:
-        for name, (lvl, up) in _worst_trapped(solution, parts, refine).items():
+        samples = trapped_samples if not refine else None
+        for name, (lvl, up) in _worst_trapped(solution, parts, refine, samples).items():
             if up > out[name][1] * (1.0 + 1e-12):
                 out[name] = (lvl, up, TRAPPED)
     return out
@@ -347,16 +356,21 @@ def _worst_vented_law(solution: Solution, parts: list[str]
     return out
 
 
+Samples = tuple[npt.NDArray[np.float64], Mapping[str, npt.NDArray[np.float64]]]
+"""Levels [m] and each part's downward load at them [N] (a level table's)."""
+
 _TRAPPED_SAMPLES = 64
 _COARSE_SAMPLES = 12
 _GOLDEN = (math.sqrt(5.0) - 1.0) / 2.0
 
 
-def _worst_trapped(solution: Solution, parts: list[str], refine: bool = True
+def _worst_trapped(solution: Solution, parts: list[str], refine: bool = True,
+                   samples: Samples | None = None
                    ) -> dict[str, tuple[float, float]]:
     """Greatest uplift of each part with trapped pockets over the range of
-    levels: samples, then (``refine``) golden-section search around the
-    best."""
+    levels: samples (solved here, or ``samples`` given: see
+    :func:`worst_uplifts_for`), then (``refine``) golden-section search
+    around the best."""
     section = solution.section
     tree = section.pocket_tree
     lo, hi = _law_range(solution)
@@ -365,9 +379,22 @@ def _worst_trapped(solution: Solution, parts: list[str], refine: bool = True
         return {name: (lo, max(-downs[name], 0.0)) for name in parts}
     lips = [float(z) for k, z in enumerate(tree.level.tolist())
             if tree.children[k] and lo < z < hi]
-    samples = _TRAPPED_SAMPLES if refine else _COARSE_SAMPLES
-    levels = np.unique(np.concatenate([np.linspace(lo, hi, samples), lips]))
-    table = [_part_downs_at(solution, float(h), True) for h in levels]
+    if samples is not None and all(name in samples[1] for name in parts):
+        given = np.asarray(samples[0], dtype=np.float64)
+        inside = (given >= lo) & (given <= hi)
+        rows = [{name: float(samples[1][name][k]) for name in parts}
+                for k in np.flatnonzero(inside)]
+        levels = np.concatenate([given[inside], lips])
+        table = rows + [_part_downs_at(solution, h, True) for h in lips]
+        order = np.argsort(levels, kind="stable")
+        levels, table = levels[order], [table[k] for k in order]
+    else:
+        n = _TRAPPED_SAMPLES if refine else _COARSE_SAMPLES
+        levels = np.unique(np.concatenate([np.linspace(lo, hi, n), lips]))
+        table = [_part_downs_at(solution, float(h), True) for h in levels]
+    if not levels.size:
+        downs = _part_downs_at(solution, hi, True)
+        return {name: (hi, max(-downs[name], 0.0)) for name in parts}
     out = {}
     for name in parts:
         up = np.array([max(-row[name], 0.0) for row in table])

@@ -133,6 +133,9 @@ class Recompute:
         self.level_tables: tuple[LevelTable, ...] = ()
         """The chart's tables: :attr:`level_table` (pockets vented) and, where
         the section can trap air, the same with the air trapped."""
+        self.level_tables_section: Section | None = None
+        """The section (the document's, or a dragged outline's) the tables
+        are of."""
         self._level_range: tuple[float, float] | None = None
         self._solver = CaseSolver()
         self._live = 0
@@ -201,13 +204,13 @@ class Recompute:
         else:
             case, design = self._case, self._design
         self._results_of_preview = preview is not None
+        solved = self._need_solve
         if self._need_solve:
             self._need_solve = False
             with span("solve and cases"):
                 self.solved_case = self._solver.solve(design, self._active)
                 self.solution = self.solved_case.solution
-            with span("other views"):
-                self.solved.emit(self.solution)
+        tabled = self._need_table
         if self._need_table:
             self._need_table = False
             section = case.section
@@ -222,6 +225,14 @@ class Recompute:
                     design, self._active, levels,
                     solved_levels=None if preview is None else PREVIEW_MIN_STEPS)
                 self.level_table = self.level_tables[0]
+                self.level_tables_section = section
+        # The views hear of the results once the tables are of the same
+        # outline too (the uplift panel samples a preview's trapped air from
+        # the chart's table).
+        if solved:
+            with span("other views"):
+                self.solved.emit(self.solution)
+        if tabled:
             with span("other views"):
                 self.levelTableReady.emit(self.level_table)
         if self._need_envelope and not self.live_edit:

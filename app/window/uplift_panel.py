@@ -113,14 +113,16 @@ class UpliftChecker:
         """True if the last check's worst levels were sampled, not searched
         (trapped air during a drag: a lower bound, searched on release)."""
 
-    def check(self, case, solution, live=False):
+    def check(self, case, solution, live=False, samples=None):
         """The same list of :class:`wetline.core.uplift.UpliftResult` as
         ``case.uplift(solution)``; under a law with layers, a gas or trapped
         air, the worst level searched for that law (both pocket assumptions
         where air is trapped, :func:`wetline.core.uplift.worst_uplifts_for`).
 
         ``live`` (a dragged outline's preview, a new outline at every step):
-        the trapped-air search is sampled, not refined, and not kept."""
+        the trapped-air search is sampled, not refined, and not kept;
+        ``samples`` (the chart's trapped-air table of the same outline and
+        law: its levels and each part's downward load) are its samples."""
         section = case.section
         density, gravity = case.liquid.density, case.gravity
         law = solution.law
@@ -140,7 +142,8 @@ class UpliftChecker:
         sampled = live and general and solution.pocket_mode == TRAPPED \
             and section.pocket_tree.may_trap
         if missing and sampled:
-            worst = {**worst, **worst_uplifts_for(solution, missing, refine=False)}
+            worst = {**worst, **worst_uplifts_for(solution, missing, refine=False,
+                                                  trapped_samples=samples)}
         elif missing:
             if general:
                 self._worst.update(worst_uplifts_for(solution, missing))
@@ -363,7 +366,13 @@ class UpliftPanel(QGroupBox):
             except ValueError:
                 return
         live = doc.preview is not None
-        self.results = self._checker.check(case, sol, live) if case.resistances else []
+        samples = None
+        tables = doc.level_tables
+        if live and len(tables) > 1 and doc.level_tables_section is sol.section \
+                and tables[1].pockets == TRAPPED:
+            samples = (tables[1].levels, tables[1].part_down)  # the chart's, this outline's
+        self.results = (self._checker.check(case, sol, live, samples) if case.resistances
+                        else [])
         sampled = self._checker.sampled and bool(self.results)
         by_part = {r.part: r for r in self.results}
         units = doc.units

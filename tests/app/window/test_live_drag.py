@@ -135,7 +135,7 @@ def test_real_mouse_drag_updates_totals_before_release(make_window, settle):
 
 
 def test_trapped_air_drag_samples_the_chart_and_the_worst_uplift_then_refines(
-        make_window, settle, sample):
+        make_window, settle, sample, monkeypatch):
     # During a drag, the tables solved level by level (trapped air) take
     # PREVIEW_MIN_STEPS levels and the uplift panel's worst level is sampled
     # (marked "~"); on release both are computed in full. Each is checked
@@ -146,6 +146,14 @@ def test_trapped_air_drag_samples_the_chart_and_the_worst_uplift_then_refines(
     from wetline.core.section_file import read_design
     from wetline.core.uplift import worst_uplifts_for
 
+    from wetline.app.window import uplift_panel
+
+    asked = []  # the samples each live search was given
+
+    def spy(solution, parts, **kw):
+        asked.append((solution.section, kw.get("trapped_samples")))
+        return worst_uplifts_for(solution, parts, **kw)
+    monkeypatch.setattr(uplift_panel, "worst_uplifts_for", spy)
     w = make_window(read_design(sample("chamber_with_lip")))
     doc = w.doc
     doc.select_case(2)  # riser half full, air trapped under the roof
@@ -153,8 +161,12 @@ def test_trapped_air_drag_samples_the_chart_and_the_worst_uplift_then_refines(
     assert doc.solution.pocket_mode == "trapped"
     x, z = doc.section.outline[1]
     w.canvas.handles.dragStarted.emit(1)
+    asked.clear()
     _drag_to(w, 1, float(x), float(z) - 0.1, settle)
     sol = doc.solution
+    # The live search took the chart's trapped-air table of this very outline.
+    assert asked and asked[-1][0] is sol.section and asked[-1][1] is not None
+    assert asked[-1][1][0] is doc.level_tables[1].levels
     assert sol.section is not doc.section  # the preview's
     vented, trapped = doc.level_tables
     assert vented.levels.size == trapped.levels.size == PREVIEW_MIN_STEPS
@@ -164,9 +176,15 @@ def test_trapped_air_drag_samples_the_chart_and_the_worst_uplift_then_refines(
                              atmospheric_pressure=r.atmospheric_pressure)
     assert np.array_equal(trapped.part_down["roof"], expect.part_down["roof"])
     _now, worst = w.uplift_panel.row_texts("roof")
-    quick = worst_uplifts_for(sol, ["roof"], refine=False)["roof"]
+    # Sampled at the chart's own levels (and the lips), not solved again.
+    quick = worst_uplifts_for(sol, ["roof"], refine=False,
+                              trapped_samples=(trapped.levels, trapped.part_down))["roof"]
+    lips = [z for k, z in enumerate(sol.section.pocket_tree.level) if
+            sol.section.pocket_tree.children[k]]
+    assert quick[0] in set(trapped.levels.tolist()) | set(lips)
     assert "~" in worst and w.uplift_panel._rows["roof"].worst.toolTip() == SAMPLED_TIP
     assert w.uplift_panel.results[0].worst_uplift == quick[1]
+    assert w.uplift_panel.results[0].worst_level == quick[0]
     w.canvas.handles.dragFinished.emit(1, float(x), float(z) - 0.1)
     settle(w)
     assert doc.preview is None and doc.solution.section is doc.section
