@@ -290,6 +290,27 @@ def test_a_sampled_trapped_search_is_a_lower_bound_exact_at_its_level():
         assert up == pytest.approx(2 * 1000 * G0 * (h - bell_interface(h)), rel=1e-9)
 
 
+def test_a_search_on_given_samples_is_exact_at_its_level():
+    # A live preview hands the search the chart's trapped-air table: the
+    # worst found is the table's largest uplift (the table's levels and the
+    # lips), the roof's uplift there the closed form of Boyle's law for its
+    # air (bell_interface), a lower bound on the full search's.
+    from wetline.core.uplift import worst_uplifts_for
+
+    s = chamber()
+    d = design(s, LoadCase("trapped", pockets="trapped", fill_level=2.5))
+    r = d.resolve("trapped")
+    sol = r.solve()
+    _vented, trapped = r.level_tables(steps=7)
+    quick = worst_uplifts_for(sol, ["roof"], refine=False,
+                              trapped_samples=(trapped.levels, trapped.part_down))
+    h, up, pockets = quick["roof"]
+    assert pockets == "trapped" and h in trapped.levels.tolist()
+    assert up == pytest.approx(max(-trapped.part_down["roof"].min(), 0.0), rel=1e-12)
+    assert up == pytest.approx(2 * 1000 * G0 * (h - bell_interface(h)), rel=1e-9)
+    assert up <= worst_uplifts_for(sol, ["roof"])["roof"][1] * (1 + 1e-12)
+
+
 def test_level_tables_give_both_assumptions_where_air_can_be_trapped():
     s = chamber()
     d = design(s, LoadCase("c"), level=3.0)

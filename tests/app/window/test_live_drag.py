@@ -141,12 +141,11 @@ def test_trapped_air_drag_samples_the_chart_and_the_worst_uplift_then_refines(
     # (marked "~"); on release both are computed in full. Each is checked
     # against core's own functions on the dragged outline.
     from wetline.app.model.recompute import CHART_STEPS, PREVIEW_MIN_STEPS
+    from wetline.app.window import uplift_panel
     from wetline.app.window.uplift_panel import SAMPLED_TIP
     from wetline.core.level_table import law_level_table
     from wetline.core.section_file import read_design
     from wetline.core.uplift import worst_uplifts_for
-
-    from wetline.app.window import uplift_panel
 
     asked = []  # the samples each live search was given
 
