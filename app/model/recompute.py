@@ -204,15 +204,13 @@ class Recompute:
         else:
             case, design = self._case, self._design
         self._results_of_preview = preview is not None
-        solved = self._need_solve
-        if self._need_solve:
-            self._need_solve = False
+        solved, self._need_solve = self._need_solve, False
+        if solved:
             with span("solve and cases"):
                 self.solved_case = self._solver.solve(design, self._active)
                 self.solution = self.solved_case.solution
-        tabled = self._need_table
-        if self._need_table:
-            self._need_table = False
+        tabled, self._need_table = self._need_table, False
+        if tabled:
             section = case.section
             with span("level table"):
                 lo, hi = self._level_range = level_range(

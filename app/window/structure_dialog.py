@@ -167,7 +167,7 @@ class StructureDialog(QDialog):
             box.toggled.connect(self._forget_refusal)
 
     def _forget_refusal(self, *_):
-        if self.error.isVisible() or self.error.text():
+        if self.error.text():  # (OK sets the text and shows it)
             self.error.setText("")
             self.error.hide()
 
