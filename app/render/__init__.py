@@ -2,7 +2,8 @@
 
 - :mod:`~wetline.app.render.png`, :mod:`~wetline.app.render.svg`,
   :mod:`~wetline.app.render.sheet`: the diagram as a PNG or SVG file, the
-  PDF calculation sheet;
+  PDF calculation sheet (:mod:`~wetline.app.render.sheet_process` writes it
+  in a process of its own for the window);
 - :mod:`~wetline.app.render.scene`: the diagram laid out for a page
   (:class:`~wetline.app.render.scene.DiagramScene`), with its title block
   (:mod:`~wetline.app.render.title_block`), drawing area

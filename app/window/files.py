@@ -3,7 +3,7 @@
 :class:`Transfer` holds what the menu actions do, so the main window only
 builds menus. Exports: the PDF calculation sheet of the whole design (every
 load case, the structure, flotation and the envelope, as ``wetline report``;
-:mod:`wetline.app.render.sheet`, written in a worker thread with a progress
+:mod:`wetline.app.render.sheet`, written by a child process with a progress
 dialog), the SVG diagram of the active case with its structure (as
 ``wetline export --case``; :mod:`wetline.app.render.svg`), per-edge results
 and the loads-against-level table as CSV (:mod:`wetline.core.report_tables`,
@@ -24,9 +24,11 @@ it still makes sense, the fill; a paste is an edit of the open section.
 
 from __future__ import annotations
 
+import json
+import sys
 from pathlib import Path
 
-from PySide6.QtCore import QObject, QThread, Signal
+from PySide6.QtCore import QObject, QProcess, QProcessEnvironment, Signal
 from PySide6.QtWidgets import QApplication
 
 from wetline.app.model import editing
@@ -43,13 +45,19 @@ LEVEL_CSV_STEPS = 51
 
 DEFAULT_PART = "wall"
 
+SHUTDOWN_WAIT_MS = 5000
+"""How long a closing window waits for a cancelled sheet's process to end
+before it ends it outright."""
 
-class _Cancelled(Exception):
-    pass
 
+class PdfJob(QObject):
+    """Write the calculation sheet of an (immutable) design in a child process.
 
-class PdfJob(QThread):
-    """Write the calculation sheet of an (immutable) design in a worker thread.
+    The process is :mod:`wetline.app.render.sheet_process`, given the design
+    as section-file text (which reads back exactly the same design) on its
+    standard input. It runs beside the window's event loop and shares no
+    lock with it: a worker thread in the window's own process could hang
+    both (see that module's notes).
 
     Parameters
     ----------
@@ -67,11 +75,15 @@ class PdfJob(QThread):
     progressed(step, steps, text)
         From :func:`wetline.app.render.sheet.write_report`'s progress callback.
     done(status, text)
-        ``("ok", path)``, ``("failed", message)`` or ``("cancelled", "")``.
+        ``("ok", path)``, ``("failed", message)`` or ``("cancelled", "")``,
+        once the process has ended.
     """
 
     progressed = Signal(int, int, str)
     done = Signal(str, str)
+
+    ARGUMENTS = ("-m", "wetline.app.render.sheet_process")
+    """What the process runs, after ``sys.executable``."""
 
     def __init__(self, design, path, units, parent=None, case=None):
         super().__init__(parent)
@@ -80,29 +92,94 @@ class PdfJob(QThread):
         self.path = str(path)
         self.units = units
         self._cancel = False
+        self._last = None
         self.status = None
+        proc = self._proc = QProcess(self)
+        proc.setProgram(sys.executable)
+        proc.setArguments(list(self.ARGUMENTS))
+        env = QProcessEnvironment.systemEnvironment()
+        env.insert("QT_QPA_PLATFORM", "offscreen")  # it paints a PDF, never a window
+        proc.setProcessEnvironment(env)
+        proc.readyReadStandardOutput.connect(self._read)
+        proc.finished.connect(self._finished)
+        proc.errorOccurred.connect(self._failed_to_start)
+
+    def start(self):
+        """Start the process and hand it the design (QProcess keeps what is
+        written until the process has started)."""
+        from wetline.core.section_file import dumps_design
+
+        request = json.dumps({"path": self.path, "units": self.units, "case": self.case})
+        self._proc.start()
+        self._proc.write((request + "\n" + dumps_design(self.design)).encode("utf-8"))
+        self._proc.closeWriteChannel()
+
+    def process_id(self):
+        """The child process's id (0 before it starts and after it ends)."""
+        return self._proc.processId()
+
+    def isRunning(self):  # the name QThread has: callers ask a job as they asked a thread
+        """True until the process has ended and ``done`` was emitted."""
+        return self.status is None and self._proc.state() != QProcess.ProcessState.NotRunning
+
+    def wait(self, msecs=-1):
+        """Block until the process ends (``done`` is emitted on the way);
+        False if it still runs after ``msecs``."""
+        if self._proc.state() == QProcess.ProcessState.NotRunning:
+            return True
+        return self._proc.waitForFinished(msecs)
 
     def cancel(self):
-        """Stop at the next step; nothing is written."""
+        """Stop now: the process is asked to end (SIGTERM) and writes nothing."""
         self._cancel = True
+        if self._proc.state() != QProcess.ProcessState.NotRunning:
+            if sys.platform == "win32":  # no SIGTERM: a console process only ends
+                self._proc.kill()
+            else:
+                self._proc.terminate()
 
-    def _progress(self, step, steps, text):
-        if self._cancel:
-            raise _Cancelled()
-        self.progressed.emit(step, steps, text)
+    def kill(self):
+        """End the process outright (a window closing that cannot wait)."""
+        self._cancel = True
+        self._proc.kill()
 
-    def run(self):
-        from wetline.app.render.sheet import write_report
+    def _read(self):
+        while self._proc.canReadLine():
+            line = bytes(self._proc.readLine().data()).decode("utf-8", "replace").strip()
+            try:
+                item = json.loads(line)
+            except ValueError:
+                continue  # not the protocol's (a library's own print)
+            if not isinstance(item, list) or not item:
+                continue
+            if item[0] == "progress" and len(item) == 4:
+                self.progressed.emit(int(item[1]), int(item[2]), str(item[3]))
+            elif item[0] in ("ok", "failed") and len(item) == 2:
+                self._last = (item[0], str(item[1]))
 
-        try:
-            write_report(self.design, self.path, units=self.units, progress=self._progress,
-                         case=self.case)
-            self.status = ("ok", self.path)
-        except _Cancelled:
-            self.status = ("cancelled", "")
-        except Exception as exc:  # shown to the user, never a crash
-            self.status = ("failed", str(exc) or type(exc).__name__)
-        self.done.emit(*self.status)
+    def _finished(self, code, exit_status):
+        self._read()
+        if self._last is not None:
+            status = self._last
+        elif self._cancel:
+            status = ("cancelled", "")
+        else:
+            err = bytes(self._proc.readAllStandardError().data()).decode("utf-8", "replace")
+            lines = [ln for ln in err.strip().splitlines() if ln.strip()]
+            why = f": {lines[-1].strip()}" if lines else ""
+            status = ("failed", f"the sheet writer stopped unexpectedly (exit code {code}){why}")
+        self._emit(status)
+
+    def _failed_to_start(self, error):
+        if error == QProcess.ProcessError.FailedToStart:
+            self._emit(("failed", f"cannot start the sheet writer ({sys.executable}): "
+                                  f"{self._proc.errorString()}"))
+
+    def _emit(self, status):
+        if self.status is not None:
+            return
+        self.status = status
+        self.done.emit(*status)
 
 
 def _base_name(doc):
@@ -252,8 +329,6 @@ class Transfer(QObject):
         if self._updating:
             self._pending_done = (status, text)
             return
-        if self.pdf_job is not None:
-            self.pdf_job.wait()  # run() returns right after emitting
         self._close_progress()
         self.pdf_result = (status, text)
         if status == "ok":
@@ -268,7 +343,9 @@ class Transfer(QObject):
         job = self.pdf_job
         if job is not None and job.isRunning():
             job.cancel()
-            job.wait()
+            if not job.wait(SHUTDOWN_WAIT_MS):
+                job.kill()
+                job.wait()
         self._close_progress()
 
     def export_svg(self):

@@ -100,6 +100,63 @@ def test_pdf_sheet_failure_is_shown_and_nothing_crashes(sump_window, qtbot, tmp_
     assert w.transfer.progress is None
 
 
+def test_the_sheet_is_written_by_a_process_of_its_own(sump_window, qtbot, tmp_path,
+                                                      no_dialogs):
+    """The sheet's layout runs in a child process, never in a thread of the
+    window's: PySide6 holds the GIL through calls into Qt, and a worker thread
+    creating Qt objects while the event loop deleted one hung both (seen about
+    once in a hundred sheets in the test suite). The PDF is the program's own
+    sheet of the same design."""
+    import os
+    import threading
+
+    from wetline.app.render.sheet import report_pdf_bytes
+
+    w = sump_window
+    out = tmp_path / "calc.pdf"
+    threads = threading.active_count()
+    job = w.transfer.export_pdf_to(out)
+    qtbot.waitUntil(lambda: job.process_id() != 0 or job.status is not None, timeout=30000)
+    assert job.process_id() not in (0, os.getpid())
+    assert threading.active_count() == threads  # no thread of the window's own
+    assert wait_pdf(qtbot, w) == ("ok", str(out))
+
+    def text(data):
+        return [" ".join(p.extract_text().split())
+                for p in pypdf.PdfReader(io.BytesIO(data)).pages]
+
+    assert text(out.read_bytes()) == text(report_pdf_bytes(w.doc.design, units="si"))
+    assert not no_dialogs
+
+
+def test_a_sheet_process_that_dies_is_reported(sump_window, qtbot, tmp_path, no_dialogs,
+                                               monkeypatch):
+    from wetline.app.window.files import PdfJob
+
+    monkeypatch.setattr(PdfJob, "ARGUMENTS", (
+        "-c", "import sys; sys.stderr.write('MemoryError: out of memory\\n'); sys.exit(9)"))
+    w = sump_window
+    w.transfer.export_pdf_to(tmp_path / "calc.pdf")
+    status, text = wait_pdf(qtbot, w)
+    assert status == "failed"
+    assert "stopped unexpectedly (exit code 9): MemoryError: out of memory" in text
+    assert no_dialogs and "MemoryError" in no_dialogs[-1][1]
+    assert w.transfer.progress is None and not (tmp_path / "calc.pdf").exists()
+
+
+def test_a_sheet_process_that_cannot_start_is_reported(sump_window, qtbot, tmp_path,
+                                                       no_dialogs, monkeypatch):
+    import sys
+
+    monkeypatch.setattr(sys, "executable", str(tmp_path / "no-such-python"))
+    w = sump_window
+    w.transfer.export_pdf_to(tmp_path / "calc.pdf")
+    status, text = wait_pdf(qtbot, w)
+    assert status == "failed" and "cannot start the sheet writer" in text
+    assert "no-such-python" in text
+    assert w.transfer.progress is None
+
+
 @pytest.mark.slow
 def test_long_pdf_sheet_keeps_the_window_responsive_and_can_be_cancelled(
         make_window, qtbot, tmp_path, no_dialogs):
