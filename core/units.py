@@ -67,6 +67,7 @@ __all__ = [  # and ``ureg``, built on first use (module __getattr__)
     "DISPLAY_LENGTH_UNITS",
     "length_display",
     "message_in_length_unit",
+    "is_core_refusal",
 ]
 
 @functools.lru_cache(maxsize=1)
@@ -514,3 +515,18 @@ def message_in_length_unit(text: str, unit: str) -> str:
 
     pieces = _QUOTED.split(text)
     return "".join(p if k % 2 else rewrite(p) for k, p in enumerate(pieces))
+
+
+def is_core_refusal(exc: BaseException) -> bool:
+    """True if `exc` is one of core's own exceptions, whose lengths are in
+    metres (so :func:`message_in_length_unit` applies); False for any other,
+    such as a typed number that does not parse, whose message quotes the
+    text as typed.
+
+    Examples
+    --------
+    >>> from wetline.core.section import SectionError
+    >>> is_core_refusal(SectionError("x")), is_core_refusal(ValueError("x"))
+    (True, False)
+    """
+    return type(exc).__module__.startswith("wetline.core.")

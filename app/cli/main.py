@@ -252,7 +252,7 @@ def _load(path, level=None, volume=None, case=None):
     refusals of the override say their lengths in the file's unit."""
     from wetline.core.numbers import set_figures
     from wetline.core.section_file import read_design
-    from wetline.core.units import message_in_length_unit
+    from wetline.core.units import is_core_refusal, message_in_length_unit
 
     volume_m3 = None if volume is None else _decimal(volume, "--volume")
     if level is not None:
@@ -266,7 +266,7 @@ def _load(path, level=None, volume=None, case=None):
     try:
         return _override(design, index, level, volume_m3)
     except ValueError as exc:
-        if not type(exc).__module__.startswith("wetline.core."):
+        if not is_core_refusal(exc):
             raise
         # Core's lengths (metres) in the file's unit, as --level and the tables.
         raise CommandError(message_in_length_unit(str(exc), design.case.length_unit)) from None

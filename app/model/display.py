@@ -24,6 +24,7 @@ from wetline.core.units import (
     US_LENGTH_UNITS,
     DisplayUnits,
     display_units,
+    is_core_refusal,
     pint_factor,
 )
 
@@ -152,7 +153,7 @@ class DisplayChoice:
         metres) through :meth:`message`, any other (a typed number that does
         not parse, which quotes the text typed) as it is."""
         text = str(exc)
-        return self.message(text) if type(exc).__module__.startswith("wetline.core.") else text
+        return self.message(text) if is_core_refusal(exc) else text
 
 
 _UNIT_WEIGHTS = {"si": ("kN/m3", "kN/m**3"), "us": ("lbf/ft3", "lbf/ft**3")}
