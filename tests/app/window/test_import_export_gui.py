@@ -129,6 +129,17 @@ def test_the_sheet_is_written_by_a_process_of_its_own(sump_window, qtbot, tmp_pa
     assert not no_dialogs
 
 
+def test_a_sheet_cancelled_before_its_process_runs_writes_nothing(sump_window, qtbot,
+                                                                  tmp_path, no_dialogs):
+    w = sump_window
+    out = tmp_path / "calc.pdf"
+    job = w.transfer.export_pdf_to(out)
+    job.cancel()  # the process is still starting
+    assert wait_pdf(qtbot, w) == ("cancelled", "")
+    assert not out.exists() and not list(tmp_path.glob("*.pdf*"))
+    assert not no_dialogs and "cancelled" in w.statusBar().currentMessage()
+
+
 def test_a_sheet_process_that_dies_is_reported(sump_window, qtbot, tmp_path, no_dialogs,
                                                monkeypatch):
     from wetline.app.window.files import PdfJob
