@@ -32,7 +32,8 @@ from PySide6.QtWidgets import (
 )
 
 from wetline.app.model import editing
-from wetline.app.window.panels import ERROR_STYLE, parse_number
+from wetline.app.window.message_labels import ERROR_STYLE
+from wetline.app.window.panels import parse_number
 from wetline.core.fill import FillError
 from wetline.core.load_cases import EMPTY, SPILL
 from wetline.core.numbers import format_number

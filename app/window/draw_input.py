@@ -28,7 +28,7 @@ from decimal import Decimal
 from PySide6.QtCore import Qt
 from PySide6.QtWidgets import QHBoxLayout, QLabel, QLineEdit, QWidget
 
-from wetline.app.window.panels import ERROR_STYLE
+from wetline.app.window.message_labels import ERROR_STYLE
 from wetline.core.number_input import NumberError, parse_decimal
 from wetline.core.numbers import format_entered
 from wetline.core.units import to_si_exactly

@@ -36,31 +36,14 @@ from PySide6.QtWidgets import (
 )
 
 from wetline.app.model import editing
+from wetline.app.window.message_labels import message_label, show_message
 from wetline.core.fill import FillError
 from wetline.core.load_cases import TRAPPED, VENTED, LoadCaseError
 from wetline.core.numbers import format_number
 
 __all__ = ["LayerList", "GasPanel", "layer_word"]
 
-ERROR_STYLE = "color: #b00020;"
 NOTE_STYLE = "color: #445;"
-
-
-def _show(label, text, style=ERROR_STYLE):
-    if label.styleSheet() != style:
-        label.setStyleSheet(style)
-    if label.text() != text:
-        label.setText(text)
-    if label.isHidden() == bool(text):
-        label.setVisible(bool(text))
-
-
-def _message_label(style=ERROR_STYLE):
-    label = QLabel()
-    label.setWordWrap(True)
-    label.setStyleSheet(style)
-    label.hide()
-    return label
 
 
 def _number(text, what):
@@ -119,7 +102,7 @@ class LayerList(QWidget):
         self.top_note.setStyleSheet(NOTE_STYLE)
         self.top_note.setWordWrap(True)
         lay.addWidget(self.top_note)
-        self.error = _message_label()
+        self.error = message_label()
         lay.addWidget(self.error)
 
         self.add.clicked.connect(self._on_add)
@@ -214,9 +197,9 @@ class LayerList(QWidget):
         try:
             edit()
         except (LoadCaseError, FillError, ValueError) as exc:
-            _show(self.error, self._doc.units.explain(exc))
+            show_message(self.error, self._doc.units.explain(exc))
             return False
-        _show(self.error, "")
+        show_message(self.error, "")
         return True
 
     def _on_add(self):
@@ -243,7 +226,7 @@ class LayerList(QWidget):
         """Select layer ``index`` (0 = the bottom one)."""
         n = len(self.layers())
         self._selected = min(max(int(index), 0), n - 1)
-        _show(self.error, "")
+        show_message(self.error, "")
         self._on_documentChanged()
         self.selectionChanged.emit(self._selected)
 
@@ -274,7 +257,7 @@ class LayerList(QWidget):
                 args = ((editing.set_layer_volume, units.volume_si(value)) if by_volume
                         else (editing.set_layer_top, units.length_si(value)))
         except ValueError as exc:
-            _show(self.error, self._doc.units.explain(exc))
+            show_message(self.error, self._doc.units.explain(exc))
             return
         function, value = args
         self._run(lambda: function(doc, i, float(value)))
@@ -312,7 +295,7 @@ class GasPanel(QGroupBox):
         self.air_note.setStyleSheet(NOTE_STYLE)
         self.air_note.setWordWrap(True)
         form.addRow(self.air_note)
-        self.error = _message_label()
+        self.error = message_label()
         form.addRow(self.error)
         self._shown = None
 
@@ -359,27 +342,27 @@ class GasPanel(QGroupBox):
         else:
             note = "No ceiling of this section can trap air: both assumptions agree."
         self.air_note.setText(note)
-        _show(self.error, "")
+        show_message(self.error, "")
 
     def _run(self, edit):
         try:
             edit()
         except (LoadCaseError, ValueError) as exc:
-            _show(self.error, self._doc.units.explain(exc))
+            show_message(self.error, self._doc.units.explain(exc))
             return
-        _show(self.error, "")
+        show_message(self.error, "")
 
     def _on_gas_edited(self):
         doc = self._doc
         text = self.gas.text().strip()
         if self._shown is not None and text == self._shown[0] \
                 and self._shown[3] == doc.active_load_case.gas_pressure:
-            _show(self.error, "")
+            show_message(self.error, "")
             return
         try:
             value = doc.units.pressure_si(_number(text, "Gas pressure"))
         except ValueError as exc:
-            _show(self.error, self._doc.units.explain(exc))
+            show_message(self.error, self._doc.units.explain(exc))
             return
         self._run(lambda: editing.set_gas_pressure(doc, float(value)))
 
@@ -388,12 +371,12 @@ class GasPanel(QGroupBox):
         text = self.atmosphere.text().strip()
         if self._shown is not None and text == self._shown[1] \
                 and self._shown[4] == doc.active_load_case.atmospheric_pressure:
-            _show(self.error, "")
+            show_message(self.error, "")
             return
         try:
             value = doc.units.pressure_si(_number(text, "Atmospheric pressure"))
         except ValueError as exc:
-            _show(self.error, self._doc.units.explain(exc))
+            show_message(self.error, self._doc.units.explain(exc))
             return
         self._run(lambda: editing.set_atmospheric_pressure(doc, float(value)))
 

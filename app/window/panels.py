@@ -26,6 +26,7 @@ from PySide6.QtWidgets import (
 from wetline.app.model import editing
 from wetline.app.model.gravity import format_gravity, gravity_from_display, gravity_label
 from wetline.app.window.layers_panel import LayerList
+from wetline.app.window.message_labels import message_label, show_message
 from wetline.app.window.steady_labels import SteadyColumn, SteadyParagraph
 from wetline.core.fill import FillError, capacity
 from wetline.core.liquids import (
@@ -41,7 +42,6 @@ from wetline.core.numbers import format_number
 
 __all__ = ["LiquidPanel", "FillPanel", "TotalsPanel", "parse_number"]
 
-ERROR_STYLE = "color: #b00020;"
 NOTE_STYLE = "color: #8a5a00;"
 
 
@@ -56,23 +56,6 @@ def parse_number(text, what):
     if not math.isfinite(v):
         raise ValueError(f"{what} must be a finite number")
     return v
-
-
-def _message_label():
-    label = QLabel()
-    label.setWordWrap(True)
-    label.setStyleSheet(ERROR_STYLE)
-    label.hide()
-    return label
-
-
-def _show(label, text, style=ERROR_STYLE):
-    if label.styleSheet() != style:  # a style sheet change is costly
-        label.setStyleSheet(style)
-    if label.text() != text:
-        label.setText(text)
-    if label.isHidden() == bool(text):
-        label.setVisible(bool(text))
 
 
 class LiquidPanel(QGroupBox):
@@ -101,7 +84,7 @@ class LiquidPanel(QGroupBox):
         self.summary = QLabel()
         self.summary.setWordWrap(True)
         self.summary.setStyleSheet("color: #445;")
-        self.error = _message_label()
+        self.error = message_label()
         self.layer_list = LayerList(document)
         form.addRow(self.layer_list)
         form.addRow("Liquid", self.kind)
@@ -178,7 +161,7 @@ class LiquidPanel(QGroupBox):
                 w.blockSignals(False)
         self.summary.setText(f"{liquid.name}: {units.fmt_density(liquid.density)} "
                              f"(SG {format_number(liquid.specific_gravity, 5)})\n{liquid.source}")
-        _show(self.error, "")
+        show_message(self.error, "")
 
     def _on_kind_changed(self, kind):
         self._rows(kind)
@@ -203,29 +186,29 @@ class LiquidPanel(QGroupBox):
         try:
             liquid = self.liquid_from_fields()
         except (LiquidError, ValueError) as exc:
-            _show(self.error, self._doc.units.explain(exc))
+            show_message(self.error, self._doc.units.explain(exc))
             return
         try:
             editing.set_layer_liquid(self._doc, self.layer_list.selected, liquid)
         except LoadCaseError as exc:  # a denser layer over a lighter one
-            _show(self.error, self._doc.units.explain(exc))
+            show_message(self.error, self._doc.units.explain(exc))
             return
-        _show(self.error, "")
+        show_message(self.error, "")
 
     def _on_gravity_edited(self):
         text = self.gravity.text().strip()
         shown = self._gravity_shown
         units = self._doc.units
         if shown is not None and shown == (text, self._doc.case.gravity, units.system):
-            _show(self.error, "")  # the value shown, untouched: nothing to change
+            show_message(self.error, "")  # the value shown, untouched: nothing to change
             return
         try:
             value = gravity_from_display(units, parse_number(text, "Gravity"))
             editing.set_gravity(self._doc, value)
         except ValueError as exc:
-            _show(self.error, self._doc.units.explain(exc))
+            show_message(self.error, self._doc.units.explain(exc))
             return
-        _show(self.error, "")
+        show_message(self.error, "")
 
 
 class FillPanel(QGroupBox):
@@ -258,9 +241,9 @@ class FillPanel(QGroupBox):
         self.range_label.setStyleSheet("color: #445;")
         self.range_label.setWordWrap(True)
         lay.addWidget(self.range_label)
-        self.note = _message_label()
+        self.note = message_label()
         lay.addWidget(self.note)
-        self.error = _message_label()
+        self.error = message_label()
         lay.addWidget(self.error)
 
         self.mode.currentIndexChanged.connect(self._on_mode_changed)
@@ -332,7 +315,7 @@ class FillPanel(QGroupBox):
                 self._set_slider(self._slider_fraction_of(volume=vol))
         self.value.blockSignals(False)
         if self.value.text() != typed and self.error.text():
-            _show(self.error, "")
+            show_message(self.error, "")
         self._write_range(doc.section)
 
     def _write_range(self, section):
@@ -385,11 +368,11 @@ class FillPanel(QGroupBox):
                              "(the roof is pushed up).")
             elif "empty" in w:
                 notes.append("The section is empty at this level.")
-        _show(self.note, "\n".join(notes), NOTE_STYLE)
+        show_message(self.note, "\n".join(notes), NOTE_STYLE)
 
     # -------------------------------------------------------------- user
     def _on_mode_changed(self, _mode):
-        _show(self.error, "")
+        show_message(self.error, "")
         self._write_back()
 
     def _on_slider_pressed(self):
@@ -413,9 +396,9 @@ class FillPanel(QGroupBox):
             else:
                 editing.fill_to_volume(doc, fraction * capacity(doc.section), merge_key)
         except ValueError as exc:  # a level core refuses: said, as a typed one is
-            _show(self.error, doc.units.explain(exc))
+            show_message(self.error, doc.units.explain(exc))
             return
-        _show(self.error, "")
+        show_message(self.error, "")
 
     def step(self, direction):
         """Step the level up (+1) or down (-1) by a twentieth of the range;
@@ -436,9 +419,9 @@ class FillPanel(QGroupBox):
             else:
                 editing.fill_to_percent(doc, v)
         except (ValueError, FillError) as exc:
-            _show(self.error, self._doc.units.explain(exc))
+            show_message(self.error, self._doc.units.explain(exc))
             return
-        _show(self.error, "")
+        show_message(self.error, "")
 
 
 def layer_totals_text(s, units, scope, scale):

@@ -29,7 +29,8 @@ from PySide6.QtWidgets import (
     QVBoxLayout,
 )
 
-from wetline.app.window.panels import ERROR_STYLE, parse_number
+from wetline.app.window.message_labels import message_label, show_message
+from wetline.app.window.panels import parse_number
 from wetline.core.numbers import format_number
 from wetline.core.structure import DEFAULT_SOIL_DRY, DEFAULT_SOIL_SATURATED, DEFAULT_UNIT_WEIGHT
 
@@ -142,10 +143,7 @@ class StructureDialog(QDialog):
         sf.addRow(f"Saturated soil [{uw}]", self.saturated)
         lay.addWidget(soil)
 
-        self.error = QLabel()
-        self.error.setWordWrap(True)
-        self.error.setStyleSheet(ERROR_STYLE)
-        self.error.hide()
+        self.error = message_label()
         lay.addWidget(self.error)
         buttons = QDialogButtonBox(
             QDialogButtonBox.StandardButton.Ok | QDialogButtonBox.StandardButton.Cancel)
@@ -167,9 +165,7 @@ class StructureDialog(QDialog):
             box.toggled.connect(self._forget_refusal)
 
     def _forget_refusal(self, *_):
-        if self.error.text():  # (OK sets the text and shows it)
-            self.error.setText("")
-            self.error.hide()
+        show_message(self.error, "")
 
     def _on_rebuild_toggled(self, on):
         for edit in (self.base, self.wall, self.roof):
@@ -210,8 +206,7 @@ class StructureDialog(QDialog):
         try:
             self.choice = self.read_choice()
         except ValueError as exc:
-            self.error.setText(self._units.explain(exc))
-            self.error.show()
+            show_message(self.error, self._units.explain(exc))
             return
         self.accept()
 

@@ -15,7 +15,8 @@ from PySide6.QtWidgets import (
     QVBoxLayout,
 )
 
-from wetline.app.window.panels import ERROR_STYLE, parse_number
+from wetline.app.window.message_labels import ERROR_STYLE
+from wetline.app.window.panels import parse_number
 from wetline.app.window.template_sketch import TemplateSketch
 from wetline.core.numbers import format_number
 from wetline.core.section import SectionError
