@@ -29,6 +29,27 @@ def make_template_case(key="sump_with_lid", level=None):
     return Case.default(s, t.default_level(s) if level is None else level)
 
 
+def make_bowl_case(n=2000):
+    """A half-round bowl of ``n`` vertices (radius 2 m, open at the top at
+    z = 2 m), filled to 3 m: the suite's large section, whose sheet takes
+    seconds."""
+    import numpy as np
+
+    from wetline.core.case import Case
+    from wetline.core.section import Section
+
+    t = np.linspace(np.pi, 2 * np.pi, n - 1)
+    pts = np.vstack([np.column_stack([2 + 2 * np.cos(t), 2 + 2 * np.sin(t)]), [[2.0, 4.0]]])
+    return Case.default(Section.build(pts, parts=["wall"] * (n - 2) + ["open", "open"],
+                                      name="Bowl"), 3.0)
+
+
+@pytest.fixture(scope="session")
+def bowl_case():
+    """Factory: ``bowl_case(n=2000)`` (:func:`make_bowl_case`)."""
+    return make_bowl_case
+
+
 @pytest.fixture(scope="session")
 def repo_root():
     """The repository's top folder."""

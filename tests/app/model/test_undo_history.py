@@ -4,15 +4,12 @@ results, and the sections it keeps drop their derived arrays."""
 
 import tracemalloc
 
-import numpy as np
 import pytest
 
 from wetline.app.model import editing
 from wetline.app.model.commands import DesignCommand
 from wetline.app.model.document import UNDO_LIMIT, Document
-from wetline.core.case import Case
 from wetline.core.load_cases import Design
-from wetline.core.section import Section
 
 
 @pytest.fixture
@@ -77,12 +74,9 @@ def test_sections_left_in_the_history_drop_their_derived_arrays(doc):
     assert doc.solution.fluid_weight == doc.case.solve().fluid_weight
 
 
-def test_one_step_of_a_large_section_costs_about_its_outline(qtbot):
+def test_one_step_of_a_large_section_costs_about_its_outline(qtbot, bowl_case):
     n = 2000
-    t = np.linspace(np.pi, 2 * np.pi, n - 1)
-    pts = np.vstack([np.column_stack([2 + 2 * np.cos(t), 2 + 2 * np.sin(t)]), [[2.0, 4.0]]])
-    section = Section.build(pts, parts=["wall"] * (n - 2) + ["open", "open"], name="Bowl")
-    doc = Document(Case.default(section, 3.0))
+    doc = Document(bowl_case(n))
     doc.flush()
     steps = 40
     tracemalloc.start()
@@ -95,7 +89,7 @@ def test_one_step_of_a_large_section_costs_about_its_outline(qtbot):
         grown = tracemalloc.get_traced_memory()[0] - base
     finally:
         tracemalloc.stop()
-    outline_bytes = pts.nbytes  # 32 kB
+    outline_bytes = doc.section.outline.nbytes  # 32 kB
     # The outline of each step (and its read-only copy's small overhead);
     # before, each step also kept its edge geometry (about 13 arrays of n).
     print(f"undo step of a {n}-vertex section: {grown / steps / 1e3:.1f} kB")

@@ -166,14 +166,11 @@ def test_volume_fill_is_stated(template_case):
 
 
 @pytest.mark.slow
-def test_a_long_outline_paginates_with_headers_on_every_page():
+def test_a_long_outline_paginates_with_headers_on_every_page(bowl_case):
     """2,000 vertices: the sheet is made, every edge is listed once, and each
     page of the per-edge table repeats the column header."""
     n = 2000
-    t = np.linspace(np.pi, 2 * np.pi, n - 1)
-    pts = np.vstack([np.column_stack([2 + 2 * np.cos(t), 2 + 2 * np.sin(t)]), [[2.0, 4.0]]])
-    parts = ["wall"] * (n - 2) + ["open", "open"]
-    case = Case.default(Section.build(pts, parts=parts, name="Bowl"), 3.0)
+    case = bowl_case(n)
     reader = pypdf.PdfReader(io.BytesIO(report_pdf_bytes(case, date=DATE)))
 
     def text(k):  # reading every page back would take most of a minute

@@ -75,20 +75,12 @@ def test_a_request_it_cannot_read_is_refused(tmp_path):
         assert kind == "failed" and "request" in message
 
 
-def test_sigterm_cancels_and_leaves_no_file(tmp_path):
+def test_sigterm_cancels_and_leaves_no_file(tmp_path, bowl_case):
     """A long sheet (2,000 vertices) in a real process, stopped by SIGTERM once
     it reports its first step: exit status 3, no PDF and no temporary file."""
-    import numpy as np
-
-    from wetline.core.case import Case
     from wetline.core.load_cases import Design
-    from wetline.core.section import Section
 
-    n = 2000
-    t = np.linspace(np.pi, 2 * np.pi, n - 1)
-    pts = np.vstack([np.column_stack([2 + 2 * np.cos(t), 2 + 2 * np.sin(t)]), [[2.0, 4.0]]])
-    design = Design(Case.default(Section.build(pts, parts=["wall"] * (n - 2) + ["open"] * 2,
-                                               name="Bowl"), 3.0))
+    design = Design(bowl_case(2000))
     out = tmp_path / "bowl.pdf"
     env = dict(os.environ, QT_QPA_PLATFORM="offscreen")
     with subprocess.Popen([sys.executable, "-m", "wetline.app.render.sheet_process"],

@@ -14,10 +14,9 @@ from PySide6.QtWidgets import QApplication, QPushButton
 from wetline.app.model import editing
 from wetline.app.model.display import DisplayChoice
 from wetline.app.window import dialogs
-from wetline.core.case import Case, ReportInfo
+from wetline.core.case import ReportInfo
 from wetline.core.dxf_io import read_outline
 from wetline.core.liquids import custom_liquid
-from wetline.core.section import Section
 
 # Two closed polylines [mm]: a sump and a small hatch boundary.
 SUMP_MM = [(0, 0), (2400, 0), (2400, 1600), (1900, 1600), (1900, 2800), (0, 2800)]
@@ -170,15 +169,10 @@ def test_a_sheet_process_that_cannot_start_is_reported(sump_window, qtbot, tmp_p
 
 @pytest.mark.slow
 def test_long_pdf_sheet_keeps_the_window_responsive_and_can_be_cancelled(
-        make_window, qtbot, tmp_path, no_dialogs):
+        make_window, qtbot, tmp_path, no_dialogs, bowl_case):
     """2,000 vertices take seconds: the work runs beside the event loop, the
     progress dialog moves, and Cancel stops it with nothing written."""
-    n = 2000
-    t = np.linspace(np.pi, 2 * np.pi, n - 1)
-    pts = np.vstack([np.column_stack([2 + 2 * np.cos(t), 2 + 2 * np.sin(t)]), [[2.0, 4.0]]])
-    case = Case.default(Section.build(pts, parts=["wall"] * (n - 2) + ["open", "open"],
-                                      name="Bowl"), 3.0)
-    w = make_window(case)
+    w = make_window(bowl_case(2000))
     ticks = []
     timer = QTimer()
     timer.timeout.connect(lambda: ticks.append(1))
